@@ -1,0 +1,79 @@
+#pragma once
+/// \file gate.hpp
+/// Gates on physical qubits, and the sink interface through which circuits stream.
+
+#include <cstdint>
+#include <string_view>
+#include <vector>
+
+#include "qftplan/angle.hpp"
+
+namespace qftplan {
+
+/// The gate kinds qftplan emits and reads. Names follow OpenQASM's standard gate library.
+enum class GateKind : std::uint8_t {
+  h,        ///< Hadamard
+  x,        ///< Pauli X
+  sx,       ///< square root of X
+  rz,       ///< Z rotation diag(e^{-i t/2}, e^{i t/2})
+  p,        ///< phase diag(1, e^{i t})
+  cx,       ///< controlled X, q0 control
+  cz,       ///< controlled Z (symmetric)
+  cp,       ///< controlled phase diag(1,1,1,e^{i t}) (symmetric)
+  swap,     ///< SWAP
+  cp_swap,  ///< fused block: controlled phase then SWAP (one two-qubit block)
+  measure,  ///< measurement of q0 into bit q1
+};
+
+inline constexpr int kGateKindCount = 11;
+
+/// OpenQASM-style lower-case name ("cp_swap" for the fused block).
+std::string_view gate_name(GateKind k);
+bool is_two_qubit(GateKind k);
+/// True for gates with an angle parameter (rz, p, cp, cp_swap).
+bool has_angle(GateKind k);
+
+/// One gate on physical qubits. For one-qubit gates q1 is unused; for measure, q1 is the bit index.
+struct Gate {
+  GateKind kind = GateKind::h;
+  std::int32_t q0 = 0;
+  std::int32_t q1 = -1;
+  Angle angle;
+  bool operator==(const Gate&) const = default;
+};
+
+/// Receives a circuit gate by gate. Planners emit into a sink, so big circuits stream.
+class GateSink {
+ public:
+  virtual ~GateSink() = default;
+  virtual void gate(const Gate& g) = 0;
+  /// Called once after the last gate.
+  virtual void finish() {}
+};
+
+/// Forwards every gate to several sinks in order.
+class TeeSink final : public GateSink {
+ public:
+  explicit TeeSink(std::vector<GateSink*> sinks) : sinks_(std::move(sinks)) {}
+  void gate(const Gate& g) override {
+    for (auto* s : sinks_) s->gate(g);
+  }
+  void finish() override {
+    for (auto* s : sinks_) s->finish();
+  }
+
+ private:
+  std::vector<GateSink*> sinks_;
+};
+
+/// Keeps every gate (for tests, small circuits and checkers that need the whole list).
+class VectorSink final : public GateSink {
+ public:
+  void gate(const Gate& g) override { gates.push_back(g); }
+  std::vector<Gate> gates;
+};
+
+/// Convenience constructors.
+inline Gate make_gate(GateKind k, int q0, int q1 = -1, Angle a = {}) { return Gate{k, q0, q1, a}; }
+
+}  // namespace qftplan

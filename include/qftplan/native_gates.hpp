@@ -1,0 +1,64 @@
+#pragma once
+/// \file native_gates.hpp
+/// Decomposition of the planner's gates into a native two-qubit gate plus rz and h.
+
+#include <string>
+
+#include "qftplan/device.hpp"
+#include "qftplan/gate.hpp"
+
+namespace qftplan {
+
+/// The gate set of an emitted circuit.
+enum class GateSet { logical, cx, cz };
+
+/// "logical", "cx", "cz".
+const char* gate_set_name(GateSet g);
+/// Parses a gate-set name; throws InputError listing the valid names.
+GateSet parse_gate_set(const std::string& text);
+GateSet gate_set_of(TwoQubitGate g);
+
+/// Rewrites each gate into the target two-qubit gate, rz and h, and forwards it:
+///   cp(t) a,b      -> rz(t/2) a; rz(t/2) b; cx a,b; rz(-t/2) b; cx a,b          (2 CX)
+///   swap a,b       -> cx a,b; cx b,a; cx a,b                                   (3 CX)
+///   cp_swap(t) a,b -> rz(t/2) a; rz(t/2) b; cx a,b; rz(-t/2) b; cx b,a; cx a,b  (3 CX: the CP's last CX
+///                     cancels the SWAP's first; Vidal and Dawson, PRA 69, 010301, 2004 bound any
+///                     two-qubit gate by 3 CX)
+///   p(t)           -> rz(t) (equal up to global phase)
+/// For the cz target every cx c,t becomes h t; cz c,t; h t. Gates already native pass through.
+class NativeDecomposer final : public GateSink {
+ public:
+  NativeDecomposer(TwoQubitGate target, GateSink& out) : target_(target), out_(out) {}
+  void gate(const Gate& g) override;
+  void finish() override { out_.finish(); }
+
+ private:
+  void cx(int c, int t);
+  void cz(int a, int b);
+  TwoQubitGate target_;
+  GateSink& out_;
+};
+
+/// Splits each fused cp_swap into cp then swap (how the logical gate set is written).
+class FusedBlockSplitter final : public GateSink {
+ public:
+  explicit FusedBlockSplitter(GateSink& out) : out_(out) {}
+  void gate(const Gate& g) override;
+  void finish() override { out_.finish(); }
+
+ private:
+  GateSink& out_;
+};
+
+/// Writes each swap as three cx (OpenQASM 2's qelib1.inc has no swap); other gates pass.
+class SwapExpander final : public GateSink {
+ public:
+  explicit SwapExpander(GateSink& out) : out_(out) {}
+  void gate(const Gate& g) override;
+  void finish() override { out_.finish(); }
+
+ private:
+  GateSink& out_;
+};
+
+}  // namespace qftplan

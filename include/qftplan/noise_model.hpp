@@ -1,0 +1,53 @@
+#pragma once
+/// \file noise_model.hpp
+/// Estimated success probability (ESP) of a native circuit from the device's calibration.
+///
+/// Definitions (README "What the numbers mean" repeats them):
+///   esp            = product over every gate of the native circuit of (1 - error), where a two-qubit
+///                    gate uses its coupler's error, h/x/sx use the qubit's error_1q, and rz and p are
+///                    error-free frame changes (common practice for virtual Z gates).
+///   duration_ns    = length of the ASAP schedule with the calibrated gate times (rz and p take no
+///                    time; measurements are not scheduled).
+///   esp_with_idle  = esp * product over used qubits q of exp(-t_q / T1_q) * exp(-t_q / T2_q), where t_q
+///                    is how long q holds information: the whole duration for register qubits (they
+///                    hold the input from the start), and from its first gate to the end for others.
+///   esp_with_readout = esp * product over register qubits of (1 - error_readout), when measured.
+
+#include <vector>
+
+#include "qftplan/device.hpp"
+#include "qftplan/gate.hpp"
+
+namespace qftplan {
+
+/// The figures of the noise model.
+struct NoiseFigures {
+  double esp = 1;
+  double log_esp = 0;          ///< natural log of esp (finite even when esp underflows to 0)
+  double esp_with_idle = 1;
+  double esp_with_readout = 1;
+  double duration_ns = 0;
+};
+
+/// Accumulates the noise figures of a native gate stream (h, x, sx, rz, p, cx, cz, measure; the
+/// logical cp/swap/cp_swap are counted as their 2/3/3 native two-qubit gates on the same coupler).
+class NoiseSink final : public GateSink {
+ public:
+  /// `register_qubits`: the physical qubits holding the register from the start.
+  NoiseSink(const Device& device, std::vector<int> register_qubits);
+  void gate(const Gate& g) override;
+  /// The figures so far (call after the last gate).
+  NoiseFigures figures() const;
+
+ private:
+  const Device& dev_;
+  std::vector<int> register_;
+  double log_gates_ = 0;
+  double log_readout_ = 0;
+  bool measured_ = false;
+  std::vector<double> ready_;       // time each qubit becomes free, ns
+  std::vector<double> first_use_;   // start of its first gate, ns; -1 when unused
+  double makespan_ = 0;
+};
+
+}  // namespace qftplan

@@ -1,0 +1,125 @@
+#pragma once
+/// \file plan.hpp
+/// Planning a QFT on a device: choose where the register goes, stream the circuit through
+/// counters (and an optional output), and report what it costs.
+
+#include <cstdint>
+#include <map>
+#include <memory>
+#include <optional>
+#include <stdexcept>
+#include <string>
+#include <vector>
+
+#include "qftplan/chain_qft.hpp"
+#include "qftplan/chain_search.hpp"
+#include "qftplan/device.hpp"
+#include "qftplan/native_gates.hpp"
+#include "qftplan/noise_model.hpp"
+#include "qftplan/placement_search.hpp"
+#include "qftplan/qft_network.hpp"
+#include "qftplan/qft_spec.hpp"
+
+namespace qftplan {
+
+/// A request that is well-formed but cannot be planned on this device (exit status 1).
+class PlanningError : public std::runtime_error {
+ public:
+  using std::runtime_error::runtime_error;
+};
+
+/// What the user asked for.
+struct PlanOptions {
+  QftSpec spec;
+  std::optional<GateSet> gates;                  ///< emitted gate set; default: the device's native gate
+  std::optional<std::vector<int>> placement;     ///< pinned: physical qubit of input bit k
+  bool measure = false;                          ///< end with a measurement of every register qubit
+  bool swap_as_cx = false;                       ///< logical gate set: write swap as three cx (OpenQASM 2)
+  ChainSearchOptions search;                     ///< seed and budget of the chain search
+  bool auto_approx = false;                      ///< choose the degree (spec.approx_degree is ignored)
+  bool calibration_aware = true;                 ///< pick the chain of highest ESP when calibrated
+  PlacementSearchOptions placement_search;       ///< budget of that choice
+};
+
+/// One approximation degree considered by the automatic choice.
+struct DegreeCandidate {
+  std::optional<int> degree;     ///< absent: exact
+  double log_esp = 0;            ///< ln ESP of the planned circuit with this degree
+  double error_bound = 0;        ///< approx_error_bound
+  double fidelity_bound = 1;     ///< lower bound on the fidelity to the exact QFT
+  double score = 0;              ///< esp * fidelity_bound
+};
+
+/// How the degree was chosen (--approx auto).
+struct DegreeChoice {
+  std::optional<int> chosen;
+  std::vector<DegreeCandidate> considered;  ///< every degree scored, in increasing order, exact last
+};
+
+/// How the chain was chosen.
+struct PlacementReport {
+  std::string method;                  ///< "pinned", "first-found", "exhaustive", "beam"
+  long long chains_scored = 0;
+  std::vector<ScoredChain> best;       ///< best first (ESP before idling)
+};
+
+/// Decisions made before any gate is emitted.
+struct PreparedPlan {
+  std::string strategy;                  ///< registry name of the planner ("chain")
+  std::unique_ptr<QftNetwork> network;
+  std::vector<int> chain;                ///< physical qubits along the chain, position 0 first
+  QubitMaps maps;
+  GateSet gates = GateSet::cx;
+  long long search_work = 0;             ///< neighbour inspections spent finding the chain
+  QftSpec spec;                          ///< the spec planned (degree filled in by --approx auto)
+  std::optional<DegreeChoice> degree_choice;
+  PlacementReport placement;
+};
+
+/// Figures of a planned circuit (the JSON report; README "Report fields" documents each).
+struct PlanReport {
+  int qubits = 0;
+  std::string device;
+  int device_qubits = 0;
+  std::string strategy;
+  std::string network;
+  std::optional<int> approx_degree;
+  bool inverse = false;
+  std::string gates;
+  std::string native_2q;
+  std::vector<int> placement;
+  std::vector<int> final_placement;
+  std::vector<int> chain;
+  long long two_qubit_blocks = 0;
+  long long swaps = 0;
+  long long rotations = 0;             ///< controlled phases kept
+  long long depth_2q = 0;
+  long long depth = 0;
+  long long cx_count = 0;
+  long long cx_depth = 0;
+  std::map<std::string, long long> gate_counts;
+  long long output_bytes = 0;
+  double elapsed_ms = 0;
+  NoiseFigures noise;
+  bool calibrated = false;
+  bool measured = false;
+  double approx_error_bound = 0;
+  std::optional<DegreeChoice> degree_choice;
+  PlacementReport placement_choice;
+};
+
+/// Validates the request and decides the placement. Throws InputError for invalid pins and
+/// PlanningError when the device cannot hold the register.
+PreparedPlan prepare_plan(const Device& device, const PlanOptions& options);
+
+/// Streams the circuit through the counters and, when given, `output` (in the chosen gate set),
+/// and fills the report. `elapsed_ms` covers only this call; callers add the preparation time.
+PlanReport execute_plan(const Device& device, const PlanOptions& options, const PreparedPlan& plan, GateSink* output);
+
+/// Both steps; no output.
+PlanReport plan_qft(const Device& device, const PlanOptions& options);
+
+/// Parses "a,b,c" into qubit ids; InputError on malformed text.
+std::vector<int> parse_id_list(const std::string& text, const std::string& what);
+
+}  // namespace qftplan

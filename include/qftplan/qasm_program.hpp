@@ -1,0 +1,37 @@
+#pragma once
+/// \file qasm_program.hpp
+/// A circuit read from an OpenQASM 2 or 3 file: gates on physical qubits plus the maps from our
+/// header comment.
+
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "qftplan/gate.hpp"
+
+namespace qftplan {
+
+/// Result of reading an OpenQASM file.
+struct QasmProgram {
+  int version = 3;                 ///< 2 or 3
+  int qubit_count = 0;             ///< physical qubits addressed: highest index + 1
+  std::vector<Gate> gates;         ///< in file order, on physical qubit ids; cp_swap never appears
+  std::vector<int> gate_lines;     ///< 1-based source line of each gate
+  std::optional<std::string> device_name;            ///< from "// device: NAME"
+  std::optional<std::vector<int>> placement;         ///< from "// placement: a,b,c"
+  std::optional<std::vector<int>> final_placement;   ///< from "// final_placement: a,b,c"
+};
+
+/// Parses OpenQASM 3 (physical qubits `$k` or declared `qubit[N] name;` registers) or OpenQASM 2
+/// (`qreg`), with the stdgates.inc / qelib1.inc gate names qftplan understands: h, x, sx, rz, p,
+/// u1, cx, CX, cz, cp, cu1, swap, measure, barrier, plus user `gate` definitions built from those.
+/// Angles are arithmetic on pi and numbers; they are kept exact as multiples of pi/2^k (a decimal
+/// number is accepted when it equals such a multiple to 1e-12). Throws InputError with the line
+/// and column of the fault. Also accepted: z, s, sdg, t, tdg (p with a fixed angle), phase and
+/// cphase (= p, cp), id (dropped), and broadcast over whole registers (`h q;`).
+QasmProgram parse_qasm(const std::string& text, const std::string& source);
+
+/// Reads a file and parses it; InputError for missing or unreadable files.
+QasmProgram load_qasm_file(const std::string& path);
+
+}  // namespace qftplan

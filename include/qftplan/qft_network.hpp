@@ -1,0 +1,70 @@
+#pragma once
+/// \file qft_network.hpp
+/// QFT networks on a chain, written in processing-index terms (see qft_spec.hpp): which pairs of
+/// wires meet, in what order, and whether they swap. A network knows nothing of the device; the
+/// chain planner maps positions on the chain to physical qubits.
+
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "qftplan/qft_spec.hpp"
+
+namespace qftplan {
+
+/// One step of a network. Wires i < j are processing indices; for two-wire steps they sit on
+/// neighbouring chain positions at that moment.
+struct NetworkOp {
+  enum class Kind : unsigned char { h, cp, swap, cp_swap };
+  Kind kind = Kind::h;
+  int i = 0;
+  int j = -1;
+};
+
+/// A forward QFT network as an ordered sequence of chunks (small groups of steps), so that it can be
+/// streamed forwards, or backwards for the inverse, without holding all its steps.
+class QftNetwork {
+ public:
+  virtual ~QftNetwork() = default;
+  /// Our name for the network ("reversal", "banded", "adjacent", "hadamard-only").
+  virtual std::string name() const = 0;
+  virtual int chunk_count() const = 0;
+  /// Appends the steps of chunk `c` in forward order to `out` (which is cleared first).
+  virtual void chunk(int c, std::vector<NetworkOp>& out) const = 0;
+  /// Chain position of every wire at the start (identity for all our networks).
+  std::vector<int> initial_positions() const;
+  /// Chain position of every wire at the end (by a dry run of the steps).
+  std::vector<int> final_positions() const;
+  /// Number of two-wire steps (blocks) and of those that swap.
+  long long block_count() const;
+  long long swap_count() const;
+  int wires() const { return wires_; }
+  int max_distance() const { return d_; }
+
+ protected:
+  QftNetwork(int wires, int max_distance) : wires_(wires), d_(max_distance) {}
+  int wires_;
+  int d_;
+};
+
+/// The linear-nearest-neighbour QFT of Fowler, Devitt and Hollenberg (Quantum Inf. Comput. 4, 237,
+/// 2004) with every controlled phase fused with a SWAP: the register reverses along the chain in
+/// n(n-1)/2 blocks and 2n-3 layers. With an approximation, dropped rotations leave plain SWAPs.
+std::unique_ptr<QftNetwork> make_reversal_network(int wires, int max_distance);
+
+/// Our network for the approximate QFT with kept distance d >= 2, of O(n d) blocks: wires are cut into
+/// bands of d; each band is reversed internally by the reversal network, then crosses the next band
+/// (fused rotations where the distance is at most d, plain SWAPs elsewhere) and crosses back.
+std::unique_ptr<QftNetwork> make_banded_network(int wires, int max_distance);
+
+/// Distance d = 1: wires stay in order and only neighbours interact (n-1 controlled phases, no SWAP).
+std::unique_ptr<QftNetwork> make_adjacent_network(int wires);
+
+/// Distance d = 0: Hadamards only.
+std::unique_ptr<QftNetwork> make_hadamard_network(int wires);
+
+/// The network qftplan uses for a spec: reversal when exact; otherwise the one of fewer blocks
+/// (ties go to the reversal network, which has the lower depth).
+std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec);
+
+}  // namespace qftplan

@@ -1,0 +1,30 @@
+#include "qftplan/gate.hpp"
+
+namespace qftplan {
+
+std::string_view gate_name(GateKind k) {
+  switch (k) {
+    case GateKind::h: return "h";
+    case GateKind::x: return "x";
+    case GateKind::sx: return "sx";
+    case GateKind::rz: return "rz";
+    case GateKind::p: return "p";
+    case GateKind::cx: return "cx";
+    case GateKind::cz: return "cz";
+    case GateKind::cp: return "cp";
+    case GateKind::swap: return "swap";
+    case GateKind::cp_swap: return "cp_swap";
+    case GateKind::measure: return "measure";
+  }
+  return "?";
+}
+
+bool is_two_qubit(GateKind k) {
+  return k == GateKind::cx || k == GateKind::cz || k == GateKind::cp || k == GateKind::swap || k == GateKind::cp_swap;
+}
+
+bool has_angle(GateKind k) {
+  return k == GateKind::rz || k == GateKind::p || k == GateKind::cp || k == GateKind::cp_swap;
+}
+
+}  // namespace qftplan

@@ -1,0 +1,98 @@
+#include "qftplan/native_gates.hpp"
+
+#include "qftplan/input_error.hpp"
+
+namespace qftplan {
+
+const char* gate_set_name(GateSet g) {
+  switch (g) {
+    case GateSet::logical: return "logical";
+    case GateSet::cx: return "cx";
+    case GateSet::cz: return "cz";
+  }
+  return "?";
+}
+
+GateSet parse_gate_set(const std::string& text) {
+  if (text == "logical") return GateSet::logical;
+  if (text == "cx") return GateSet::cx;
+  if (text == "cz") return GateSet::cz;
+  throw InputError("unknown gate set '" + text + "' (valid: logical, cx, cz)");
+}
+
+GateSet gate_set_of(TwoQubitGate g) { return g == TwoQubitGate::cz ? GateSet::cz : GateSet::cx; }
+
+void NativeDecomposer::cx(int c, int t) {
+  if (target_ == TwoQubitGate::cx) {
+    out_.gate(make_gate(GateKind::cx, c, t));
+  } else {
+    out_.gate(make_gate(GateKind::h, t));
+    out_.gate(make_gate(GateKind::cz, c, t));
+    out_.gate(make_gate(GateKind::h, t));
+  }
+}
+
+void NativeDecomposer::cz(int a, int b) {
+  if (target_ == TwoQubitGate::cz) {
+    out_.gate(make_gate(GateKind::cz, a, b));
+  } else {
+    out_.gate(make_gate(GateKind::h, b));
+    out_.gate(make_gate(GateKind::cx, a, b));
+    out_.gate(make_gate(GateKind::h, b));
+  }
+}
+
+void NativeDecomposer::gate(const Gate& g) {
+  const int a = g.q0, b = g.q1;
+  switch (g.kind) {
+    case GateKind::cx: cx(a, b); return;
+    case GateKind::cz: cz(a, b); return;
+    case GateKind::p: out_.gate(make_gate(GateKind::rz, a, -1, g.angle)); return;
+    case GateKind::cp: {
+      const Angle h = g.angle.half();
+      out_.gate(make_gate(GateKind::rz, a, -1, h));
+      out_.gate(make_gate(GateKind::rz, b, -1, h));
+      cx(a, b);
+      out_.gate(make_gate(GateKind::rz, b, -1, -h));
+      cx(a, b);
+      return;
+    }
+    case GateKind::swap:
+      cx(a, b);
+      cx(b, a);
+      cx(a, b);
+      return;
+    case GateKind::cp_swap: {
+      const Angle h = g.angle.half();
+      out_.gate(make_gate(GateKind::rz, a, -1, h));
+      out_.gate(make_gate(GateKind::rz, b, -1, h));
+      cx(a, b);
+      out_.gate(make_gate(GateKind::rz, b, -1, -h));
+      cx(b, a);
+      cx(a, b);
+      return;
+    }
+    default: out_.gate(g); return;
+  }
+}
+
+void FusedBlockSplitter::gate(const Gate& g) {
+  if (g.kind != GateKind::cp_swap) {
+    out_.gate(g);
+    return;
+  }
+  out_.gate(make_gate(GateKind::cp, g.q0, g.q1, g.angle));
+  out_.gate(make_gate(GateKind::swap, g.q0, g.q1));
+}
+
+void SwapExpander::gate(const Gate& g) {
+  if (g.kind != GateKind::swap) {
+    out_.gate(g);
+    return;
+  }
+  out_.gate(make_gate(GateKind::cx, g.q0, g.q1));
+  out_.gate(make_gate(GateKind::cx, g.q1, g.q0));
+  out_.gate(make_gate(GateKind::cx, g.q0, g.q1));
+}
+
+}  // namespace qftplan

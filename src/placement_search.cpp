@@ -1,0 +1,202 @@
+#include "qftplan/placement_search.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <random>
+#include <set>
+
+#include "qftplan/chain_qft.hpp"
+#include "qftplan/native_gates.hpp"
+
+namespace qftplan {
+
+namespace {
+
+// Counts native gates per chain position (physical ids are positions on a canonical chain).
+class LoadCounter final : public GateSink {
+ public:
+  explicit LoadCounter(int n) {
+    loads.edge_2q.assign(n > 1 ? n - 1 : 0, 0.0);
+    loads.pos_1q.assign(n, 0.0);
+  }
+  void gate(const Gate& g) override {
+    switch (g.kind) {
+      case GateKind::h:
+      case GateKind::x:
+      case GateKind::sx: loads.pos_1q[g.q0] += 1; break;
+      case GateKind::cx:
+      case GateKind::cz: loads.edge_2q[std::min(g.q0, g.q1)] += 1; break;
+      default: break;
+    }
+  }
+  ChainLoads loads;
+};
+
+}  // namespace
+
+ChainLoads chain_loads(const QftSpec& spec, const QftNetwork& network, TwoQubitGate native) {
+  const int n = spec.qubits;
+  std::vector<int> canonical(n);
+  for (int i = 0; i < n; ++i) canonical[i] = i;
+  LoadCounter counter(n);
+  NativeDecomposer dec(native, counter);
+  emit_chain_qft(spec, network, canonical, dec);
+  return counter.loads;
+}
+
+namespace {
+
+struct Scorer {
+  const Device& dev;
+  const ChainLoads& loads;
+  std::vector<double> log_1q;  // per physical qubit ln(1 - error_1q)
+  Scorer(const Device& d, const ChainLoads& l) : dev(d), loads(l), log_1q(d.qubit_count()) {
+    for (int q = 0; q < d.qubit_count(); ++q) log_1q[q] = std::log1p(-d.qubit_calibration(q).error_1q);
+  }
+  double at(int pos, int q) const { return loads.pos_1q[pos] * log_1q[q]; }
+  double edge(int pos, int a, int b) const {
+    if (loads.edge_2q[pos] == 0) return 0.0;
+    return loads.edge_2q[pos] * std::log1p(-dev.coupler_calibration(a, b).error);
+  }
+  double chain(std::span<const int> c) const {
+    double s = 0;
+    for (std::size_t p = 0; p < c.size(); ++p) {
+      s += at(static_cast<int>(p), c[p]);
+      if (p > 0) s += edge(static_cast<int>(p - 1), c[p - 1], c[p]);
+    }
+    return s;
+  }
+};
+
+class Best {
+ public:
+  explicit Best(int keep) : keep_(keep) {}
+  void offer(const std::vector<int>& c, double s) {
+    for (const auto& e : list_)
+      if (e.chain == c) return;
+    list_.push_back({c, s});
+    std::stable_sort(list_.begin(), list_.end(), [](const ScoredChain& a, const ScoredChain& b) { return a.log_esp > b.log_esp; });
+    if (static_cast<int>(list_.size()) > keep_) list_.pop_back();
+  }
+  // The score a new chain must beat to enter the list.
+  double threshold() const {
+    return static_cast<int>(list_.size()) < keep_ ? -INFINITY : list_.back().log_esp;
+  }
+  std::vector<ScoredChain> list_;
+
+ private:
+  int keep_;
+};
+
+class Exhaustive {
+ public:
+  Exhaustive(const Device& d, const Scorer& s, int n, long long budget, Best& best)
+      : dev_(d), sc_(s), n_(n), budget_(budget), best_(best), on_(d.qubit_count(), false) {}
+  bool run() {
+    for (int q = 0; q < dev_.qubit_count(); ++q) {
+      path_.assign(1, q);
+      on_[q] = true;
+      dfs(sc_.at(0, q));
+      on_[q] = false;
+      if (work_ > budget_) return false;
+    }
+    return true;
+  }
+  long long work_ = 0, scored_ = 0;
+
+ private:
+  void dfs(double partial) {
+    // Every remaining term is <= 0: a partial score at or below the threshold cannot improve.
+    if (partial <= best_.threshold() || work_ > budget_) return;
+    if (static_cast<int>(path_.size()) == n_) {
+      ++scored_;
+      best_.offer(path_, partial);
+      return;
+    }
+    const int p = static_cast<int>(path_.size());
+    for (int nb : dev_.neighbours(path_.back())) {
+      ++work_;
+      if (on_[nb]) continue;
+      on_[nb] = true;
+      path_.push_back(nb);
+      dfs(partial + sc_.edge(p - 1, path_[p - 1], nb) + sc_.at(p, nb));
+      path_.pop_back();
+      on_[nb] = false;
+    }
+  }
+  const Device& dev_;
+  const Scorer& sc_;
+  int n_;
+  long long budget_;
+  Best& best_;
+  std::vector<bool> on_;
+  std::vector<int> path_;
+};
+
+}  // namespace
+
+double chain_log_esp(const Device& device, const ChainLoads& loads, std::span<const int> chain) {
+  return Scorer(device, loads).chain(chain);
+}
+
+PlacementChoice best_chain(const Device& device, const ChainLoads& loads, const std::vector<int>& fallback,
+                           const PlacementSearchOptions& options) {
+  const int n = static_cast<int>(loads.pos_1q.size());
+  const Scorer sc(device, loads);
+  Best best(options.keep);
+  PlacementChoice out;
+  if (!fallback.empty()) {
+    best.offer(fallback, sc.chain(fallback));
+    // Its reverse is another orientation of the same chain.
+    std::vector<int> r(fallback.rbegin(), fallback.rend());
+    best.offer(r, sc.chain(r));
+    out.chains_scored += 2;
+  }
+  Exhaustive ex(device, sc, n, options.work_budget, best);
+  out.exhaustive = ex.run();
+  out.work = ex.work_;
+  out.chains_scored += ex.scored_;
+  if (!out.exhaustive) {
+    // Beam search over positions. Each extension checks the path for repeats (O(n)), so the width
+    // is chosen to keep width * n * n * max_degree within the budget.
+    int max_deg = 1;
+    for (int q = 0; q < device.qubit_count(); ++q) max_deg = std::max(max_deg, device.degree(q));
+    const double per_width = static_cast<double>(n) * n * max_deg + 1;
+    const int width = static_cast<int>(std::clamp(options.work_budget / per_width, 1.0, 256.0));
+    struct State {
+      std::vector<int> path;
+      double score;
+    };
+    std::vector<State> beam;
+    // Start from the best single positions: every qubit, ranked by its first-position score.
+    std::vector<int> qs(device.qubit_count());
+    for (int q = 0; q < device.qubit_count(); ++q) qs[q] = q;
+    std::mt19937_64 rng(options.seed);
+    std::shuffle(qs.begin(), qs.end(), rng);
+    std::stable_sort(qs.begin(), qs.end(), [&](int a, int b) { return sc.at(0, a) > sc.at(0, b); });
+    for (int i = 0; i < static_cast<int>(qs.size()) && i < 4 * width; ++i) beam.push_back({{qs[i]}, sc.at(0, qs[i])});
+    for (int p = 1; p < n && !beam.empty(); ++p) {
+      std::vector<State> next;
+      for (const auto& s : beam)
+        for (int nb : device.neighbours(s.path.back())) {
+          out.work += p;
+          if (std::find(s.path.begin(), s.path.end(), nb) != s.path.end()) continue;
+          State t{s.path, s.score + sc.edge(p - 1, s.path.back(), nb) + sc.at(p, nb)};
+          t.path.push_back(nb);
+          next.push_back(std::move(t));
+        }
+      std::stable_sort(next.begin(), next.end(), [](const State& a, const State& b) { return a.score > b.score; });
+      if (static_cast<int>(next.size()) > width) next.resize(width);
+      beam = std::move(next);
+    }
+    for (const auto& s : beam)
+      if (static_cast<int>(s.path.size()) == n) {
+        best.offer(s.path, s.score);
+        ++out.chains_scored;
+      }
+  }
+  out.best = best.list_;
+  return out;
+}
+
+}  // namespace qftplan

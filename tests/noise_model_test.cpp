@@ -1,0 +1,258 @@
+// The noise model, the ESP-driven placement and the automatic approximation degree.
+
+#include <gtest/gtest.h>
+
+#include <Eigen/Dense>
+#include <cmath>
+#include <complex>
+#include <numbers>
+#include <random>
+
+#include "qftplan/approximation.hpp"
+#include "qftplan/atomic_file.hpp"
+#include "qftplan/chain_search.hpp"
+#include "qftplan/device_source.hpp"
+#include "qftplan/lattices.hpp"
+#include "qftplan/plan.hpp"
+#include "qftplan/qasm_program.hpp"
+#include "qftplan/qasm_writer.hpp"
+#include "test_support.hpp"
+
+namespace qftplan {
+namespace {
+
+// A 3x4 grid whose couplers and qubits have errors from a fixed integer sequence (std::mt19937 is
+// fully specified by the C++ standard, so the device is the same everywhere).
+Device noisy_grid_3x4() {
+  DeviceDescription d = make_grid(3, 4).description();
+  d.name = "test-noisy-3x4";
+  std::mt19937 gen(7);
+  for (auto& c : d.couplers) c.error = 0.002 + (gen() % 100) * 2e-4;
+  d.calibration.error_1q = 3e-4;
+  for (int q = 0; q < d.qubits; ++q) d.qubit_calibration.push_back({q, 1e-4 + (gen() % 10) * 1e-4, {}, {}, {}, {}});
+  return Device(d);
+}
+
+// Plans, writes OpenQASM 3 into memory and reads it back with the reader.
+struct Emitted {
+  PlanReport report;
+  QasmProgram program;
+};
+Emitted plan_and_read(const Device& dev, PlanOptions opt) {
+  const auto plan = prepare_plan(dev, opt);
+  StringOutput text;
+  CircuitHeader h;
+  h.device_name = dev.name();
+  h.device_qubits = dev.qubit_count();
+  h.strategy = "chain";
+  h.spec = plan.spec;
+  h.placement = plan.maps.placement;
+  h.final_placement = plan.maps.final_placement;
+  h.measured_bits = opt.measure ? opt.spec.qubits : 0;
+  QasmWriter w(QasmVersion::v3, h, text);
+  Emitted e{execute_plan(dev, opt, plan, &w), {}};
+  e.program = parse_qasm(text.text(), "<memory>");
+  return e;
+}
+
+TEST(NoiseModel, EspRecomputedGateByGateFromTheFileEqualsTheReport) {
+  // The definition (common practice, e.g. for estimated-success-probability figures of merit):
+  // product of (1 - error) over the native gates, rz/p free, two-qubit gates at their coupler's
+  // error. Recomputed here from the emitted file and the calibration, independently of NoiseSink.
+  for (const std::string spec : {"topologies/harbor-noisy-20.yaml", "topologies/harbor-hex-21.yaml"}) {
+    const Device dev = load_device((testing::source_dir() / spec).string());
+    for (GateSet gates : {GateSet::cx, GateSet::cz}) {
+      PlanOptions opt;
+      opt.spec.qubits = 10;
+      opt.gates = gates;
+      opt.measure = true;
+      // The report's esp is over the device's native gate; compare like with like.
+      if (gate_set_of(dev.native_2q()) != gates) continue;
+      const auto e = plan_and_read(dev, opt);
+      double esp = 1, readout = 1;
+      for (const auto& g : e.program.gates) {
+        if (g.kind == GateKind::cx || g.kind == GateKind::cz) {
+          ASSERT_TRUE(dev.coupled(g.q0, g.q1));
+          esp *= 1 - dev.coupler_calibration(g.q0, g.q1).error;
+        } else if (g.kind == GateKind::h || g.kind == GateKind::sx || g.kind == GateKind::x) {
+          esp *= 1 - dev.qubit_calibration(g.q0).error_1q;
+        } else if (g.kind == GateKind::measure) {
+          readout *= 1 - dev.qubit_calibration(g.q0).error_readout;
+        }
+      }
+      EXPECT_NEAR(e.report.noise.esp / esp, 1.0, 1e-12) << spec;
+      EXPECT_NEAR(e.report.noise.esp_with_readout / (esp * readout), 1.0, 1e-12) << spec;
+      EXPECT_LT(e.report.noise.esp_with_idle, e.report.noise.esp);
+      EXPECT_GT(e.report.noise.duration_ns, 0);
+    }
+  }
+}
+
+TEST(NoiseModel, IdleFactorFollowsTheStatedFormula) {
+  // Two qubits, one coupler: h (40 ns) then cp (2 CX of 300 ns): duration 640 ns on the ASAP
+  // schedule; each register qubit decays for the whole duration: exp(-t/T1) exp(-t/T2).
+  DeviceDescription d;
+  d.name = "pair";
+  d.qubits = 2;
+  d.couplers = {{0, 1, {}, {}}};
+  d.calibration.error_1q = 0.001;
+  d.calibration.error_2q = 0.01;
+  d.calibration.duration_1q_ns = 40;
+  d.calibration.duration_2q_ns = 300;
+  d.calibration.t1_us = 100;
+  d.calibration.t2_us = 50;
+  const Device dev(d);
+  PlanOptions opt;
+  opt.spec.qubits = 2;
+  const auto r = plan_qft(dev, opt);
+  // Reversal network on 2 qubits: h, cp_swap (3 CX), h.
+  const double esp = std::pow(0.999, 2) * std::pow(0.99, 3);
+  EXPECT_NEAR(r.noise.esp, esp, 1e-15);
+  const double t = 40 + 900 + 40;
+  EXPECT_NEAR(r.noise.duration_ns, t, 1e-9);
+  const double idle = std::exp(-2 * (t / 100e3 + t / 50e3));
+  EXPECT_NEAR(r.noise.esp_with_idle, esp * idle, 1e-15);
+}
+
+// The dense matrices of the QFT and of the AQFT of degree M, from their definitions (the AQFT keeps
+// the phase terms pi/2^m j_a y_l with m + 1 <= M; Barenco et al., PRA 54, 139, 1996, section II).
+Eigen::MatrixXcd transform(int n, std::optional<int> M) {
+  const int N = 1 << n;
+  Eigen::MatrixXcd U(N, N);
+  for (int j = 0; j < N; ++j)
+    for (int y = 0; y < N; ++y) {
+      double ph = 0;
+      for (int a = 0; a < n; ++a)
+        for (int l = 0; l < n; ++l) {
+          const int m = n - 1 - a - l;
+          if (m < 0 || (M && m + 1 > *M)) continue;
+          if (((j >> a) & 1) && ((y >> l) & 1)) ph += std::numbers::pi / std::ldexp(1.0, m);
+        }
+      U(y, j) = std::polar(1.0 / std::sqrt(double(N)), ph);
+    }
+  return U;
+}
+
+TEST(Approximation, SimulatedDistanceNeverExceedsTheBound) {
+  // Bound: sum over dropped rotations of ||CR_k - I|| (Nielsen & Chuang 2000, section 4.5.3,
+  // eq. 4.63; Coppersmith, IBM RC19642, 1994). Checked against the exact operator norm (largest
+  // singular value, Eigen's JacobiSVD) and the worst state fidelity it implies.
+  for (int n = 2; n <= 8; ++n) {
+    const Eigen::MatrixXcd U = transform(n, std::nullopt);
+    for (int M = 1; M < n; ++M) {
+      const Eigen::MatrixXcd V = transform(n, M);
+      const double dist = Eigen::JacobiSVD<Eigen::MatrixXcd>(U - V).singularValues()(0);
+      const double bound = approx_error_bound(n, M);
+      EXPECT_LE(dist, bound + 1e-12) << "n=" << n << " M=" << M;
+      // Worst-case fidelity over states: min over unit psi of |<U psi|V psi>|^2 >= bound formula.
+      // Basis states are a sample of psi; the bound must hold for each.
+      const double f_bound = approx_fidelity_lower_bound(bound);
+      for (int j = 0; j < (1 << n); ++j) {
+        const std::complex<double> ov = U.col(j).dot(V.col(j));
+        EXPECT_GE(std::norm(ov), f_bound - 1e-12);
+      }
+    }
+    EXPECT_EQ(approx_error_bound(n, std::nullopt), 0.0);
+    EXPECT_EQ(approx_error_bound(n, n), 0.0);
+  }
+}
+
+// Every chain of n qubits in a small device, by brute force (the test's own enumeration).
+void all_chains(const Device& dev, int n, std::vector<int>& path, std::vector<bool>& on, std::vector<std::vector<int>>& out) {
+  if (static_cast<int>(path.size()) == n) {
+    out.push_back(path);
+    return;
+  }
+  for (int nb : dev.neighbours(path.back()))
+    if (!on[nb]) {
+      on[nb] = true;
+      path.push_back(nb);
+      all_chains(dev, n, path, on, out);
+      path.pop_back();
+      on[nb] = false;
+    }
+}
+
+TEST(Placement, ChosenChainHasTheBestEspOverAllChains) {
+  const Device dev = noisy_grid_3x4();
+  for (int n : {4, 6}) {
+    std::vector<std::vector<int>> chains;
+    std::vector<bool> on(dev.qubit_count(), false);
+    for (int s = 0; s < dev.qubit_count(); ++s) {
+      std::vector<int> path{s};
+      on[s] = true;
+      all_chains(dev, n, path, on, chains);
+      on[s] = false;
+    }
+    ASSERT_GT(chains.size(), 20u);
+    double best = 0;
+    for (const auto& c : chains) {
+      // Pin each chain (its position-k qubit holds input bit n-1-k for the forward network).
+      PlanOptions pin;
+      pin.spec.qubits = n;
+      std::vector<int> placement(n);
+      for (int k = 0; k < n; ++k) placement[k] = c[n - 1 - k];
+      pin.placement = placement;
+      best = std::max(best, plan_qft(dev, pin).noise.esp);
+    }
+    PlanOptions opt;
+    opt.spec.qubits = n;
+    const auto r = plan_qft(dev, opt);
+    EXPECT_EQ(r.placement_choice.method, "exhaustive");
+    EXPECT_NEAR(r.noise.esp, best, 1e-12 * best) << "n=" << n;
+  }
+}
+
+TEST(Placement, AvoidsThePoorCouplersOfTheNoisyChip) {
+  // topologies/harbor-noisy-20.yaml names its poor couplers in its header comment:
+  // [6, 7] (0.062), [3, 8] (0.048) and [12, 17] (0.071), against a typical 0.008.
+  const Device dev = load_device((testing::source_dir() / "topologies/harbor-noisy-20.yaml").string());
+  const std::vector<std::pair<int, int>> poor{{6, 7}, {3, 8}, {12, 17}};
+  for (int n : {4, 8, 12, 16}) {
+    PlanOptions opt;
+    opt.spec.qubits = n;
+    const auto r = plan_qft(dev, opt);
+    for (std::size_t p = 0; p + 1 < r.chain.size(); ++p)
+      for (auto [a, b] : poor)
+        EXPECT_FALSE((r.chain[p] == a && r.chain[p + 1] == b) || (r.chain[p] == b && r.chain[p + 1] == a))
+            << "n=" << n << " uses poor coupler [" << a << ", " << b << "]";
+  }
+}
+
+TEST(ApproxAuto, BeatsExactOnANoisyDeviceAndKeepsExactOnACleanOne) {
+  auto line_with_error = [](double e2) {
+    DeviceDescription d = make_line(64).description();
+    d.calibration.error_2q = e2;
+    d.calibration.error_1q = e2 / 10;
+    return Device(d);
+  };
+  PlanOptions opt;
+  opt.spec.qubits = 64;
+  opt.auto_approx = true;
+  const auto noisy = plan_qft(line_with_error(0.01), opt);
+  ASSERT_TRUE(noisy.degree_choice);
+  ASSERT_TRUE(noisy.approx_degree.has_value());
+  double exact_score = 0, chosen_score = 0;
+  for (const auto& c : noisy.degree_choice->considered) {
+    if (!c.degree) exact_score = c.score;
+    if (c.degree == noisy.approx_degree) chosen_score = c.score;
+  }
+  EXPECT_GT(chosen_score, 10 * exact_score);
+  EXPECT_LT(noisy.cx_count, 3LL * 64 * 63 / 2);
+
+  // On a clean chip the rotations cost almost nothing: exact, or a degree whose error bound is tiny.
+  const auto clean = plan_qft(line_with_error(1e-9), opt);
+  EXPECT_LE(clean.approx_error_bound, 1e-3) << "degree " << clean.approx_degree.value_or(-1);
+}
+
+TEST(ApproxAuto, ExplainShowsTheChoices) {
+  const auto r = testing::run_qftplan("plan --device '" + (testing::source_dir() / "topologies/harbor-noisy-20.yaml").string() +
+                                      "' --qubits 8 --approx auto --explain");
+  ASSERT_EQ(r.status, 0) << r.err;
+  EXPECT_NE(r.out.find("runner-up"), std::string::npos) << r.out;
+  EXPECT_NE(r.out.find("<- chosen"), std::string::npos) << r.out;
+  EXPECT_NE(r.out.find("approximation degree:"), std::string::npos) << r.out;
+}
+
+}  // namespace
+}  // namespace qftplan

@@ -1,0 +1,116 @@
+// Tests of the chain networks: sizes and depths against the published constructions.
+
+#include <gtest/gtest.h>
+
+#include <set>
+
+#include "qftplan/chain_qft.hpp"
+#include "qftplan/chain_search.hpp"
+#include "qftplan/circuit_metrics.hpp"
+#include "qftplan/lattices.hpp"
+#include "qftplan/plan.hpp"
+#include "qftplan/qft_network.hpp"
+
+namespace qftplan {
+namespace {
+
+using Kind = NetworkOp::Kind;
+
+// Every pair of wires at distance <= d meets exactly once with a rotation; no other pair gets one.
+void expect_each_kept_pair_once(const QftNetwork& net) {
+  const int n = net.wires(), d = net.max_distance();
+  std::set<std::pair<int, int>> seen;
+  std::vector<NetworkOp> ops;
+  for (int c = 0; c < net.chunk_count(); ++c) {
+    net.chunk(c, ops);
+    for (const auto& op : ops)
+      if (op.kind == Kind::cp || op.kind == Kind::cp_swap) {
+        ASSERT_LT(op.i, op.j);
+        ASSERT_LE(op.j - op.i, d);
+        ASSERT_TRUE(seen.insert({op.i, op.j}).second) << "pair met twice with a rotation";
+      }
+  }
+  long long expected = 0;
+  for (int dist = 1; dist <= d; ++dist) expected += n - dist;
+  EXPECT_EQ(static_cast<long long>(seen.size()), expected);
+}
+
+TEST(ReversalNetwork, BlocksAndDepthMatchTheLinearNearestNeighbourQft) {
+  // Fowler, Devitt and Hollenberg, Quantum Inf. Comput. 4, 237 (2004), and Takahashi, Kunihiro and
+  // Ohta, Quantum Inf. Comput. 7, 383 (2007): on a chain the QFT takes n(n-1)/2 fused
+  // controlled-phase+SWAP blocks in two-qubit depth 2n-3.
+  for (int n = 2; n <= 64; ++n) {
+    const auto net = make_reversal_network(n, n - 1);
+    std::vector<int> chain(n);
+    for (int i = 0; i < n; ++i) chain[i] = i;
+    MetricsSink m(n);
+    emit_chain_qft(QftSpec{n, std::nullopt, false}, *net, chain, m);
+    EXPECT_EQ(m.two_qubit_count(), static_cast<long long>(n) * (n - 1) / 2) << n;
+    EXPECT_EQ(m.count(GateKind::cp_swap), static_cast<long long>(n) * (n - 1) / 2) << n;
+    EXPECT_EQ(m.depth_2q(), 2 * n - 3) << n;
+    // Nielsen & Chuang (2000) section 5.1: n Hadamards.
+    EXPECT_EQ(m.count(GateKind::h), n);
+    expect_each_kept_pair_once(*net);
+  }
+}
+
+TEST(ReversalNetwork, ReversesTheChainSoOutputBitsLandWhereInputBitsStarted) {
+  // The textbook circuit ends with a reversal of qubit order (Nielsen & Chuang 2000, Fig. 5.1); the
+  // SWAP network reverses the register too, so the two cancel: output bit k ends where input bit k began.
+  for (int n : {1, 2, 3, 7, 16}) {
+    const auto net = make_reversal_network(n, n - 1);
+    std::vector<int> chain(n);
+    for (int i = 0; i < n; ++i) chain[i] = 100 + i;
+    for (bool inverse : {false, true}) {
+      const auto maps = chain_maps(QftSpec{n, std::nullopt, inverse}, *net, chain);
+      EXPECT_EQ(maps.placement, maps.final_placement);
+    }
+  }
+}
+
+TEST(BandedNetwork, KeepsOnlyRotationsWithinTheDegreeAndGrowsLinearly) {
+  // Approximate QFT of degree M keeps R_k for k <= M (Barenco, Ekert, Suominen and Torma, PRA 54,
+  // 139, 1996): n-1 + n-2 + ... + n-(M-1) controlled phases.
+  for (int n : {5, 9, 16, 33}) {
+    for (int M : {3, 4, 6}) {
+      if (M - 1 >= n - 1) continue;
+      const auto net = make_banded_network(n, M - 1);
+      expect_each_kept_pair_once(*net);
+    }
+  }
+  // O(n M) blocks: doubling n at fixed M at most doubles the blocks (plus one band).
+  const auto small = make_banded_network(512, 8), big = make_banded_network(1024, 8);
+  EXPECT_LE(big->block_count(), 2 * small->block_count() + 2 * 8 * 8);
+  EXPECT_LT(big->block_count(), 1024LL * 1023 / 2 / 10);
+}
+
+TEST(ChooseNetwork, PicksTheCheaperNetworkForTheDegree) {
+  EXPECT_EQ(choose_network(QftSpec{20, std::nullopt, false})->name(), "reversal");
+  EXPECT_EQ(choose_network(QftSpec{20, 1, false})->name(), "hadamard-only");
+  EXPECT_EQ(choose_network(QftSpec{20, 2, false})->name(), "adjacent");
+  EXPECT_EQ(choose_network(QftSpec{200, 4, false})->name(), "banded");
+  EXPECT_EQ(choose_network(QftSpec{20, 15, false})->name(), "reversal");
+  EXPECT_EQ(choose_network(QftSpec{20, 40, false})->name(), "reversal");
+}
+
+// Chain metrics on lines, snakes in grids and rings, through the whole planner (common practice:
+// a simple path in any of these lattices carries the same network).
+TEST(ChainPlanner, MetricsOnLinesGridsAndRings) {
+  const std::vector<std::string> specs{"line:64", "grid:8x8", "ring:64", "grid:5x13"};
+  for (const auto& spec : specs) {
+    const Device dev = make_lattice(spec);
+    for (int n = 2; n <= 64 && n <= dev.qubit_count(); n += (n < 12 ? 1 : 7)) {
+      PlanOptions opt;
+      opt.spec.qubits = n;
+      const auto r = plan_qft(dev, opt);
+      EXPECT_EQ(r.two_qubit_blocks, static_cast<long long>(n) * (n - 1) / 2) << spec << " n=" << n;
+      EXPECT_EQ(r.depth_2q, 2 * n - 3) << spec << " n=" << n;
+      // Vidal and Dawson, PRA 69, 010301 (2004): 3 CX per fused block.
+      EXPECT_EQ(r.cx_count, 3LL * n * (n - 1) / 2) << spec << " n=" << n;
+      EXPECT_TRUE(is_chain(dev, r.chain));
+    }
+  }
+}
+
+}  // namespace
+}  // namespace qftplan

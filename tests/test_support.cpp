@@ -1,0 +1,53 @@
+#include "test_support.hpp"
+
+#include <sys/wait.h>
+
+#include <atomic>
+#include <cstdlib>
+#include <fstream>
+#include <random>
+#include <sstream>
+#include <stdexcept>
+
+namespace qftplan::testing {
+
+std::filesystem::path source_dir() { return QFTPLAN_SOURCE_DIR; }
+
+std::filesystem::path temp_dir() {
+  static std::atomic<int> counter{0};
+  std::random_device rd;
+  auto dir = std::filesystem::temp_directory_path() /
+             ("qftplan-test-" + std::to_string(rd()) + "-" + std::to_string(counter++));
+  std::filesystem::create_directories(dir);
+  return dir;
+}
+
+void write_file(const std::filesystem::path& path, const std::string& text) {
+  std::ofstream f(path, std::ios::binary);
+  f << text;
+  if (!f) throw std::runtime_error("cannot write " + path.string());
+}
+
+std::string read_file(const std::filesystem::path& path) {
+  std::ifstream f(path, std::ios::binary);
+  if (!f) throw std::runtime_error("cannot read " + path.string());
+  std::ostringstream s;
+  s << f.rdbuf();
+  return s.str();
+}
+
+RunResult run_qftplan(const std::string& args) {
+  const auto dir = temp_dir();
+  const auto out = dir / "stdout", err = dir / "stderr";
+  const std::string cmd = std::string("'") + QFTPLAN_BINARY + "' " + args + " >'" + out.string() + "' 2>'" +
+                          err.string() + "' </dev/null";
+  const int raw = std::system(cmd.c_str());
+  RunResult r;
+  r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : 128 + WTERMSIG(raw);
+  r.out = read_file(out);
+  r.err = read_file(err);
+  std::filesystem::remove_all(dir);
+  return r;
+}
+
+}  // namespace qftplan::testing

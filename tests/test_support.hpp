@@ -1,0 +1,26 @@
+#pragma once
+// Helpers shared by the tests: paths, running the command-line program, temporary folders.
+
+#include <filesystem>
+#include <string>
+
+namespace qftplan::testing {
+
+/// The repository root (for topologies/ and tests/data/).
+std::filesystem::path source_dir();
+/// Result of running the qftplan program.
+struct RunResult {
+  int status = -1;       ///< exit status
+  std::string out;       ///< standard output
+  std::string err;       ///< standard error
+};
+/// Runs the built `qftplan` with the given shell-quoted argument string.
+RunResult run_qftplan(const std::string& args);
+/// A fresh empty folder under the system temporary folder, removed at exit of the test process.
+std::filesystem::path temp_dir();
+/// Writes `text` to `path`.
+void write_file(const std::filesystem::path& path, const std::string& text);
+/// Reads a whole file.
+std::string read_file(const std::filesystem::path& path);
+
+}  // namespace qftplan::testing
