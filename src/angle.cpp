@@ -40,8 +40,11 @@ Angle Angle::operator+(const Angle& o) const {
   if (o.num_ == 0) return *this;
   const std::uint32_t k = std::max(log2_den_, o.log2_den_);
   const std::uint32_t sa = k - log2_den_, sb = k - o.log2_den_;
-  if (sa > 60 || sb > 60) throw std::overflow_error("angle sum with denominators too far apart");
-  return Angle(num_ * (std::int64_t{1} << sa) + o.num_ * (std::int64_t{1} << sb), k);
+  std::int64_t a = 0, b = 0, sum = 0;
+  if (sa > 62 || sb > 62 || __builtin_mul_overflow(num_, std::int64_t{1} << sa, &a) ||
+      __builtin_mul_overflow(o.num_, std::int64_t{1} << sb, &b) || __builtin_add_overflow(a, b, &sum))
+    throw std::overflow_error("angle sum does not fit: denominators too far apart");
+  return Angle(sum, k);
 }
 
 namespace {

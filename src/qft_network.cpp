@@ -87,65 +87,47 @@ class ReversalNetwork final : public QftNetwork {
   ReversalLayers layers_;
 };
 
-// Banded network (ours). Bands B_k = [k d, (k+1) d). Chunks, in order:
-//   reversal of B_0 (layer by layer);
-//   for each k: band B_k crosses B_{k+1} (one chunk per travelling wire), crosses back (one chunk
-//   per wire), then B_{k+1} is reversed internally (layer by layer).
-// Before B_k crosses, it sits reversed (largest wire leftmost) directly left of B_{k+1}, which is
-// in ascending order; crossing keeps both internal orders, so after crossing back the picture is
-// the same and B_{k+1} can be reversed in place. Every pair at distance <= d meets: inside a band
-// in its reversal, across neighbouring bands in the first crossing (bands further apart are more
-// than d apart). Order: wire y of B_{k+1} gets its Hadamard in the reversal of B_{k+1}, after all
-// its rotations with B_k (first crossing) and with smaller wires of its own band (reversal order).
-class BandedNetwork final : public QftNetwork {
+// Leapfrog network (ours) for kept distance d < n-1. Wires start in order along the chain. Wire j,
+// after its Hadamard, travels right until it has passed min(j+d, n-1): every wire it passes is either
+// one it must meet (j < q <= j+d: fused rotation and SWAP) or one that has finished its own journey
+// (plain SWAP). In the steady state the chain reads j, j-d, j+1, j-d+1, ..., j-1, j+d, j+d+1, ...:
+// the traveller alternates between finished and needed wires, so each wire costs d fused blocks and
+// at most d plain SWAPs, and consecutive travellers follow each other two steps apart (linear depth).
+// Before wire j travels, every wire i < j has passed it with their rotation, so its Hadamard is in
+// order; it passes j+1..j+d before their own Hadamards.
+class LeapfrogNetwork final : public QftNetwork {
  public:
-  BandedNetwork(int n, int d) : QftNetwork(n, d) {
-    if (d < 1) throw std::invalid_argument("banded network needs d >= 1");
-    bands_ = (n + d - 1) / d;
-    for (int k = 0; k < bands_; ++k) {
-      const ReversalLayers rev{k * d, band_size(k), d};
-      if (k > 0) {
-        const int prev = band_size(k - 1);
-        for (int t = 0; t < prev; ++t) table_.push_back({Phase::cross, k - 1, t});
-        for (int t = 0; t < prev; ++t) table_.push_back({Phase::back, k - 1, t});
+  LeapfrogNetwork(int n, int d) : QftNetwork(n, d) {
+    if (d < 1) throw std::invalid_argument("leapfrog network needs d >= 1");
+    std::vector<int> at(n), pos(n);  // at[p]: wire at chain position p
+    for (int i = 0; i < n; ++i) at[i] = pos[i] = i;
+    start_.push_back(0);
+    for (int j = 0; j < n; ++j) {
+      ops_.push_back({Kind::h, j, -1});
+      const int last = std::min(j + d, n - 1);
+      bool passed_last = j == last;
+      while (!passed_last) {
+        const int p = pos[j];
+        const int q = at[p + 1];
+        const bool needed = q > j && q - j <= d;
+        ops_.push_back({needed ? Kind::cp_swap : Kind::swap, std::min(j, q), std::max(j, q)});
+        std::swap(at[p], at[p + 1]);
+        pos[at[p]] = p;
+        pos[at[p + 1]] = p + 1;
+        passed_last = q == last;
       }
-      for (int t = 0; t < rev.chunks(); ++t) table_.push_back({Phase::reverse, k, t});
+      start_.push_back(static_cast<long long>(ops_.size()));
     }
   }
-  std::string name() const override { return "banded"; }
-  int chunk_count() const override { return static_cast<int>(table_.size()); }
+  std::string name() const override { return "leapfrog"; }
+  int chunk_count() const override { return wires_; }
   void chunk(int c, std::vector<NetworkOp>& out) const override {
-    out.clear();
-    const auto& e = table_[c];
-    const int lo = e.band * d_;
-    if (e.phase == Phase::reverse) {
-      ReversalLayers{lo, band_size(e.band), d_}.chunk(e.step, out);
-      return;
-    }
-    const int next_lo = lo + d_, next_size = band_size(e.band + 1);
-    if (e.phase == Phase::cross) {
-      // B_k is reversed, so its rightmost wire is its smallest: wire lo + step travels next, right
-      // across B_{k+1} in ascending order.
-      const int x = lo + e.step;
-      for (int y = next_lo; y < next_lo + next_size; ++y)
-        out.push_back({y - x <= d_ ? Kind::cp_swap : Kind::swap, x, y});
-    } else {
-      // Back again: the leftmost wire of B_k (now its largest remaining) travels left across B_{k+1}.
-      const int x = lo + band_size(e.band) - 1 - e.step;
-      for (int y = next_lo + next_size - 1; y >= next_lo; --y) out.push_back({Kind::swap, x, y});
-    }
+    out.assign(ops_.begin() + start_[c], ops_.begin() + start_[c + 1]);
   }
 
  private:
-  enum class Phase : unsigned char { reverse, cross, back };
-  struct Entry {
-    Phase phase;
-    int band;
-    int step;
-  };
-  int band_size(int k) const { return std::min(d_, wires_ - k * d_); }
-  int bands_ = 0;
-  std::vector<Entry> table_;
+  std::vector<NetworkOp> ops_;
+  std::vector<long long> start_;
 };
 
 class AdjacentNetwork final : public QftNetwork {
@@ -176,8 +158,8 @@ class HadamardNetwork final : public QftNetwork {
 std::unique_ptr<QftNetwork> make_reversal_network(int wires, int max_distance) {
   return std::make_unique<ReversalNetwork>(wires, max_distance);
 }
-std::unique_ptr<QftNetwork> make_banded_network(int wires, int max_distance) {
-  return std::make_unique<BandedNetwork>(wires, max_distance);
+std::unique_ptr<QftNetwork> make_leapfrog_network(int wires, int max_distance) {
+  return std::make_unique<LeapfrogNetwork>(wires, max_distance);
 }
 std::unique_ptr<QftNetwork> make_adjacent_network(int wires) { return std::make_unique<AdjacentNetwork>(wires); }
 std::unique_ptr<QftNetwork> make_hadamard_network(int wires) { return std::make_unique<HadamardNetwork>(wires); }
@@ -187,16 +169,13 @@ std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec) {
   if (spec.effectively_exact() || n <= 2) return make_reversal_network(n, d);
   if (d == 0) return make_hadamard_network(n);
   if (d == 1) return make_adjacent_network(n);
-  // Blocks of the banded network in closed form: reversals sum b(b-1)/2, crossings 2 b_k b_{k+1}.
-  long long banded = 0;
-  const int bands = (n + d - 1) / d;
-  for (int k = 0; k < bands; ++k) {
-    const long long b = std::min(d, n - k * d);
-    banded += b * (b - 1) / 2;
-    if (k + 1 < bands) banded += 2 * b * std::min(d, n - (k + 1) * d);
-  }
+  // The leapfrog network has at most 2 d blocks per wire; build it only when that can beat the
+  // reversal network's n(n-1)/2 (it holds its n*2d steps in memory).
   const long long reversal = static_cast<long long>(n) * (n - 1) / 2;
-  if (banded < reversal) return make_banded_network(n, d);
+  if (2LL * n * d < 2 * reversal) {
+    auto leap = make_leapfrog_network(n, d);
+    if (leap->block_count() < reversal) return leap;
+  }
   return make_reversal_network(n, d);
 }
 

@@ -68,27 +68,41 @@ TEST(ReversalNetwork, ReversesTheChainSoOutputBitsLandWhereInputBitsStarted) {
   }
 }
 
-TEST(BandedNetwork, KeepsOnlyRotationsWithinTheDegreeAndGrowsLinearly) {
+TEST(LeapfrogNetwork, KeepsOnlyRotationsWithinTheDegreeAndGrowsLinearly) {
   // Approximate QFT of degree M keeps R_k for k <= M (Barenco, Ekert, Suominen and Torma, PRA 54,
   // 139, 1996): n-1 + n-2 + ... + n-(M-1) controlled phases.
   for (int n : {5, 9, 16, 33}) {
     for (int M : {3, 4, 6}) {
       if (M - 1 >= n - 1) continue;
-      const auto net = make_banded_network(n, M - 1);
+      const auto net = make_leapfrog_network(n, M - 1);
       expect_each_kept_pair_once(*net);
     }
   }
-  // O(n M) blocks: doubling n at fixed M at most doubles the blocks (plus one band).
-  const auto small = make_banded_network(512, 8), big = make_banded_network(1024, 8);
-  EXPECT_LE(big->block_count(), 2 * small->block_count() + 2 * 8 * 8);
-  EXPECT_LT(big->block_count(), 1024LL * 1023 / 2 / 10);
+  // O(n M) blocks: at most 2d per wire (d fused, at most d plain SWAPs), so linear in n at fixed M.
+  for (int n : {64, 512, 1024})
+    for (int d : {2, 5, 8}) {
+      const auto net = make_leapfrog_network(n, d);
+      EXPECT_LE(net->block_count(), 2LL * n * d) << n << " " << d;
+      EXPECT_GE(net->block_count(), static_cast<long long>(n - d) * d) << "at least one block per kept rotation";
+    }
+  // Linear depth: doubling n at fixed d at most doubles the two-qubit depth (plus a constant).
+  auto depth = [](int n, int d) {
+    const auto net = make_leapfrog_network(n, d);
+    std::vector<int> chain(n);
+    for (int i = 0; i < n; ++i) chain[i] = i;
+    MetricsSink m(n);
+    emit_chain_qft(QftSpec{n, d + 1, false}, *net, chain, m);
+    return m.depth_2q();
+  };
+  EXPECT_LE(depth(1024, 6), 2 * depth(512, 6) + 16);
+  EXPECT_LE(depth(1024, 6), 4 * 1024);
 }
 
 TEST(ChooseNetwork, PicksTheCheaperNetworkForTheDegree) {
   EXPECT_EQ(choose_network(QftSpec{20, std::nullopt, false})->name(), "reversal");
   EXPECT_EQ(choose_network(QftSpec{20, 1, false})->name(), "hadamard-only");
   EXPECT_EQ(choose_network(QftSpec{20, 2, false})->name(), "adjacent");
-  EXPECT_EQ(choose_network(QftSpec{200, 4, false})->name(), "banded");
+  EXPECT_EQ(choose_network(QftSpec{200, 4, false})->name(), "leapfrog");
   EXPECT_EQ(choose_network(QftSpec{20, 15, false})->name(), "reversal");
   EXPECT_EQ(choose_network(QftSpec{20, 40, false})->name(), "reversal");
 }

@@ -26,7 +26,7 @@ struct NetworkOp {
 class QftNetwork {
  public:
   virtual ~QftNetwork() = default;
-  /// Our name for the network ("reversal", "banded", "adjacent", "hadamard-only").
+  /// Our name for the network ("reversal", "leapfrog", "adjacent", "hadamard-only").
   virtual std::string name() const = 0;
   virtual int chunk_count() const = 0;
   /// Appends the steps of chunk `c` in forward order to `out` (which is cleared first).
@@ -52,10 +52,10 @@ class QftNetwork {
 /// n(n-1)/2 blocks and 2n-3 layers. With an approximation, dropped rotations leave plain SWAPs.
 std::unique_ptr<QftNetwork> make_reversal_network(int wires, int max_distance);
 
-/// Our network for the approximate QFT with kept distance d >= 2, of O(n d) blocks: wires are cut into
-/// bands of d; each band is reversed internally by the reversal network, then crosses the next band
-/// (fused rotations where the distance is at most d, plain SWAPs elsewhere) and crosses back.
-std::unique_ptr<QftNetwork> make_banded_network(int wires, int max_distance);
+/// Our network for the approximate QFT with kept distance d: each wire travels right past the d
+/// wires it must meet, leapfrogging the wires that have finished (at most 2d blocks per wire,
+/// linear depth). Its steps are computed once by simulation and kept (O(n d) memory).
+std::unique_ptr<QftNetwork> make_leapfrog_network(int wires, int max_distance);
 
 /// Distance d = 1: wires stay in order and only neighbours interact (n-1 controlled phases, no SWAP).
 std::unique_ptr<QftNetwork> make_adjacent_network(int wires);
