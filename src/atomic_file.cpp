@@ -47,15 +47,22 @@ AtomicFile::~AtomicFile() {
 }
 
 void AtomicFile::write(std::string_view text) {
+  if (!file_) throw std::logic_error(path_ + ": write after flush");
   if (std::fwrite(text.data(), 1, text.size(), file_) != text.size()) throw io_error("write failed", path_);
 }
 
-void AtomicFile::commit() {
+void AtomicFile::flush() {
+  if (!file_) return;
   if (std::fflush(file_) != 0) throw io_error("write failed", path_);
   if (::fsync(::fileno(file_)) != 0 && errno != EINVAL) throw io_error("write failed", path_);
   const int rc = std::fclose(file_);
   file_ = nullptr;
   if (rc != 0) throw io_error("write failed", path_);
+}
+
+void AtomicFile::commit() {
+  flush();
+  if (committed_) return;
   if (std::rename(temp_.c_str(), path_.c_str()) != 0) throw io_error("cannot rename the finished file into place", path_);
   committed_ = true;
 }

@@ -4,6 +4,8 @@
 #include <cmath>
 #include <random>
 
+#include "qftplan/run_budget.hpp"
+
 namespace qftplan {
 
 bool is_chain(const Device& device, const std::vector<int>& chain) {
@@ -37,12 +39,14 @@ class Searcher {
     if (static_cast<int>(best_.size()) >= n_) r.chain.assign(best_.begin(), best_.begin() + n_);
     r.longest = best_;
     r.work = work_;
-    r.budget_exhausted = out_of_budget();
+    r.budget_exhausted = work_ > opt_.work_budget;
+    r.time_out = poll_.stopped();
     return r;
   }
 
  private:
-  bool out_of_budget() const { return work_ > opt_.work_budget; }
+  // The work budget bounds effort; the RunBudget (polled every 1024 calls) bounds wall time.
+  bool out_of_budget() { return work_ > opt_.work_budget || poll_.stop(); }
 
   // Starting qubits: both ends of a double sweep in every component, then the lowest-degree qubits,
   // then a few seeded random ones.
@@ -215,6 +219,7 @@ class Searcher {
   std::vector<int> index_;
   std::vector<int> path_, best_;
   long long work_ = 0;
+  BudgetPoll poll_{opt_.budget};
 };
 
 }  // namespace

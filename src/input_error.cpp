@@ -13,7 +13,21 @@ std::string format_input_error(const std::string& file, int line, int column, co
     out += ": ";
   }
   out += message;
-  return out;
+  // Messages quote user text (file names, tokens, specs): a control character would break the one
+  // line, or reach the terminal as an escape sequence. Show it as \xNN instead.
+  std::string safe;
+  for (char c : out) {
+    const auto u = static_cast<unsigned char>(c);
+    if (u < 0x20 || u == 0x7f) {
+      static const char* hex = "0123456789abcdef";
+      safe += "\\x";
+      safe += hex[u >> 4];
+      safe += hex[u & 15];
+    } else {
+      safe += c;
+    }
+  }
+  return safe;
 }
 
 InputError::InputError(std::string file, int line, int column, std::string message)

@@ -7,6 +7,7 @@
 
 #include "qftplan/chain_qft.hpp"
 #include "qftplan/native_gates.hpp"
+#include "qftplan/run_budget.hpp"
 
 namespace qftplan {
 
@@ -15,11 +16,13 @@ namespace {
 // Counts native gates per chain position (physical ids are positions on a canonical chain).
 class LoadCounter final : public GateSink {
  public:
-  explicit LoadCounter(int n) {
+  explicit LoadCounter(int n, const RunBudget* budget = nullptr) : budget_(budget), poll_(budget, 65536) {
     loads.edge_2q.assign(n > 1 ? n - 1 : 0, 0.0);
     loads.pos_1q.assign(n, 0.0);
   }
   void gate(const Gate& g) override {
+    // A dry run of a big network is long and has no partial result worth keeping: throw.
+    if (poll_.stop()) throw_if_exhausted(budget_, "the ESP scoring of a network");
     switch (g.kind) {
       case GateKind::h:
       case GateKind::x:
@@ -30,15 +33,20 @@ class LoadCounter final : public GateSink {
     }
   }
   ChainLoads loads;
+
+ private:
+  const RunBudget* budget_;
+  BudgetPoll poll_;
 };
 
 }  // namespace
 
-ChainLoads chain_loads(const QftSpec& spec, const QftNetwork& network, TwoQubitGate native) {
+ChainLoads chain_loads(const QftSpec& spec, const QftNetwork& network, TwoQubitGate native,
+                       const RunBudget* budget) {
   const int n = spec.qubits;
   std::vector<int> canonical(n);
   for (int i = 0; i < n; ++i) canonical[i] = i;
-  LoadCounter counter(n);
+  LoadCounter counter(n, budget);
   NativeDecomposer dec(native, counter);
   emit_chain_qft(spec, network, canonical, dec);
   return counter.loads;
@@ -90,15 +98,15 @@ class Best {
 
 class Exhaustive {
  public:
-  Exhaustive(const Device& d, const Scorer& s, int n, long long budget, Best& best)
-      : dev_(d), sc_(s), n_(n), budget_(budget), best_(best), on_(d.qubit_count(), false) {}
+  Exhaustive(const Device& d, const Scorer& s, int n, long long budget, Best& best, const RunBudget* run_budget)
+      : dev_(d), sc_(s), n_(n), budget_(budget), best_(best), on_(d.qubit_count(), false), poll_(run_budget) {}
   bool run() {
     for (int q = 0; q < dev_.qubit_count(); ++q) {
       path_.assign(1, q);
       on_[q] = true;
       dfs(sc_.at(0, q));
       on_[q] = false;
-      if (work_ > budget_) return false;
+      if (work_ > budget_ || poll_.stopped()) return false;
     }
     return true;
   }
@@ -107,7 +115,7 @@ class Exhaustive {
  private:
   void dfs(double partial) {
     // Every remaining term is <= 0: a partial score at or below the threshold cannot improve.
-    if (partial <= best_.threshold() || work_ > budget_) return;
+    if (partial <= best_.threshold() || work_ > budget_ || poll_.stop()) return;
     if (static_cast<int>(path_.size()) == n_) {
       ++scored_;
       best_.offer(path_, partial);
@@ -131,6 +139,9 @@ class Exhaustive {
   Best& best_;
   std::vector<bool> on_;
   std::vector<int> path_;
+
+ public:
+  BudgetPoll poll_;
 };
 
 }  // namespace
@@ -152,11 +163,14 @@ PlacementChoice best_chain(const Device& device, const ChainLoads& loads, const 
     best.offer(r, sc.chain(r));
     out.chains_scored += 2;
   }
-  Exhaustive ex(device, sc, n, options.work_budget, best);
+  Exhaustive ex(device, sc, n, options.work_budget, best, options.budget);
   out.exhaustive = ex.run();
+  out.time_out = ex.poll_.stopped();
   out.work = ex.work_;
   out.chains_scored += ex.scored_;
-  if (!out.exhaustive) {
+  // Out of time already: keep what the exhaustive search found (always at least the fallback).
+  if (!out.exhaustive && !out.time_out) {
+    BudgetPoll poll(options.budget, 64);
     // Beam search over positions. Each extension checks the path for repeats (O(n)), so the width
     // is chosen to keep width * n * n * max_degree within the budget.
     int max_deg = 1;
@@ -175,11 +189,12 @@ PlacementChoice best_chain(const Device& device, const ChainLoads& loads, const 
     std::shuffle(qs.begin(), qs.end(), rng);
     std::stable_sort(qs.begin(), qs.end(), [&](int a, int b) { return sc.at(0, a) > sc.at(0, b); });
     for (int i = 0; i < static_cast<int>(qs.size()) && i < 4 * width; ++i) beam.push_back({{qs[i]}, sc.at(0, qs[i])});
-    for (int p = 1; p < n && !beam.empty(); ++p) {
+    for (int p = 1; p < n && !beam.empty() && !poll.stopped(); ++p) {
       std::vector<State> next;
       for (const auto& s : beam)
         for (int nb : device.neighbours(s.path.back())) {
           out.work += p;
+          if (poll.stop()) break;
           if (std::find(s.path.begin(), s.path.end(), nb) != s.path.end()) continue;
           State t{s.path, s.score + sc.edge(p - 1, s.path.back(), nb) + sc.at(p, nb)};
           t.path.push_back(nb);
@@ -189,8 +204,9 @@ PlacementChoice best_chain(const Device& device, const ChainLoads& loads, const 
       if (static_cast<int>(next.size()) > width) next.resize(width);
       beam = std::move(next);
     }
+    out.time_out = poll.stopped();
     for (const auto& s : beam)
-      if (static_cast<int>(s.path.size()) == n) {
+      if (static_cast<int>(s.path.size()) == n && !out.time_out) {
         best.offer(s.path, s.score);
         ++out.chains_scored;
       }

@@ -2,12 +2,16 @@
 
 #include <chrono>
 #include <cmath>
+#include <limits>
 
 #include <fmt/format.h>
 
 #include "qftplan/approximation.hpp"
 #include "qftplan/circuit_metrics.hpp"
+#include "qftplan/detour_sink.hpp"
+#include "qftplan/spine_layout.hpp"
 #include "qftplan/input_error.hpp"
+#include "qftplan/run_budget.hpp"
 
 namespace qftplan {
 
@@ -37,6 +41,9 @@ namespace {
 
 void validate_spec(const Device& device, const QftSpec& spec) {
   if (spec.qubits < 1) throw InputError(fmt::format("--qubits must be at least 1, got {}", spec.qubits));
+  if (spec.qubits > kMaxRegisterQubits)
+    throw InputError(fmt::format("--qubits {} is more than the limit of {} qubits per register", spec.qubits,
+                                 kMaxRegisterQubits));
   if (spec.qubits > device.qubit_count())
     throw PlanningError(fmt::format("device {} has {} qubits, fewer than the {} requested", device.name(),
                                     device.qubit_count(), spec.qubits));
@@ -90,13 +97,13 @@ bool uniform_errors(const Device& device) {
 constexpr long long kMaxScoredBlocks = 4'000'000;
 
 DegreeCandidate score_degree(const Device& device, const QftSpec& base, std::optional<int> degree,
-                             const std::vector<int>& chain) {
+                             const std::vector<int>& chain, EndOrder end_order, const RunBudget* budget = nullptr) {
   QftSpec spec = base;
   spec.approx_degree = degree;
-  const auto net = choose_network(spec);
+  const auto net = choose_network(spec, end_order);
   DegreeCandidate c;
   c.degree = degree;
-  c.log_esp = chain_log_esp(device, chain_loads(spec, *net, device.native_2q()), chain);
+  c.log_esp = chain_log_esp(device, chain_loads(spec, *net, device.native_2q(), budget), chain);
   c.error_bound = approx_error_bound(spec.qubits, degree);
   c.fidelity_bound = approx_fidelity_lower_bound(c.error_bound);
   c.score = std::exp(c.log_esp) * c.fidelity_bound;
@@ -106,15 +113,22 @@ DegreeCandidate score_degree(const Device& device, const QftSpec& base, std::opt
 // Scores degrees 1, 2, ... until the fidelity bound is 1 to within 1e-12 (more rotations then only
 // add gates), plus the exact transform when small enough to score, and keeps the best score;
 // near-ties (within 1e-12 relative) go to the smaller degree, which has fewer gates.
-DegreeChoice choose_degree(const Device& device, const QftSpec& base, const std::vector<int>& chain) {
+DegreeChoice choose_degree(const Device& device, const QftSpec& base, const std::vector<int>& chain,
+                           EndOrder end_order, const RunBudget* budget = nullptr, bool* cut = nullptr) {
   DegreeChoice out;
   const int n = base.qubits;
-  for (int m = 1; m < n; ++m) {
-    out.considered.push_back(score_degree(device, base, m, chain));
-    if (out.considered.back().fidelity_bound >= 1.0 - 1e-12) break;
+  try {
+    for (int m = 1; m < n; ++m) {
+      out.considered.push_back(score_degree(device, base, m, chain, end_order, budget));
+      if (out.considered.back().fidelity_bound >= 1.0 - 1e-12) break;
+    }
+    if (static_cast<long long>(n) * (n - 1) / 2 <= kMaxScoredBlocks || out.considered.empty())
+      out.considered.push_back(score_degree(device, base, std::nullopt, chain, end_order, budget));
+  } catch (const TimeLimitReached&) {
+    // Out of time: choose among the degrees scored so far (exact when none was).
+    if (cut) *cut = true;
+    if (out.considered.empty()) return out;
   }
-  if (static_cast<long long>(n) * (n - 1) / 2 <= kMaxScoredBlocks || out.considered.empty())
-    out.considered.push_back(score_degree(device, base, std::nullopt, chain));
   double best = -1;
   for (const auto& c : out.considered) best = std::max(best, c.score);
   for (const auto& c : out.considered)
@@ -127,7 +141,7 @@ DegreeChoice choose_degree(const Device& device, const QftSpec& base, const std:
 
 }  // namespace
 
-PreparedPlan prepare_plan(const Device& device, const PlanOptions& options) {
+static PreparedPlan prepare_chain(const Device& device, const PlanOptions& options) {
   PreparedPlan plan;
   plan.spec = options.spec;
   if (options.auto_approx) plan.spec.approx_degree.reset();
@@ -141,11 +155,19 @@ PreparedPlan prepare_plan(const Device& device, const PlanOptions& options) {
   if (options.placement) {
     // The pin is of input bits; which chain that is depends on the network, so for --approx auto
     // we re-derive it once the degree is known.
-    chain = chain_from_pin(device, plan.spec, *choose_network(plan.spec), *options.placement);
+    chain = chain_from_pin(device, plan.spec, *choose_network(plan.spec, options.end_order), *options.placement);
     plan.placement.method = "pinned";
   } else {
-    const auto found = find_chain(device, n, options.search);
+    ChainSearchOptions cso = options.search;
+    if (!cso.budget) cso.budget = options.budget;
+    const auto found = find_chain(device, n, cso);
     plan.search_work = found.work;
+    throw_if_interrupted(options.budget);
+    if (found.chain.empty() && found.time_out) {
+      throw TimeLimitReached(fmt::format(
+          "the time limit ran out before a chain of {} qubits was found in {} (longest so far: {} qubits)", n,
+          device.name(), found.longest.size()));
+    }
     if (found.chain.empty()) {
       throw PlanningError(fmt::format(
           "no chain of {} qubits found in {} (longest found: {} qubits{}); a chain strategy needs one",
@@ -156,36 +178,295 @@ PreparedPlan prepare_plan(const Device& device, const PlanOptions& options) {
   }
   const bool choose_chain = !options.placement && options.calibration_aware && device.has_calibration() &&
                             !uniform_errors(device) && n >= 2;
+  // Searches cut short by the time limit keep their best so far and are named in plan.cut_short.
+  const auto note_cut = [&plan](const std::string& what) {
+    if (plan.cut_short.find(what) == std::string::npos) plan.cut_short += (plan.cut_short.empty() ? "" : ", ") + what;
+  };
   // Degree and chain depend on each other; two rounds settle them in practice.
   for (int round = 0; round < 2; ++round) {
     if (options.auto_approx) {
-      plan.degree_choice = choose_degree(device, plan.spec, chain);
+      bool cut = false;
+      plan.degree_choice = choose_degree(device, plan.spec, chain, options.end_order, options.budget, &cut);
+      if (cut) note_cut("the approximation-degree scoring");
       plan.spec.approx_degree = plan.degree_choice->chosen;
-      if (options.placement) chain = chain_from_pin(device, plan.spec, *choose_network(plan.spec), *options.placement);
+      if (options.placement)
+        chain = chain_from_pin(device, plan.spec, *choose_network(plan.spec, options.end_order), *options.placement);
     }
-    if (!choose_chain) break;
-    const auto net = choose_network(plan.spec);
-    const auto loads = chain_loads(plan.spec, *net, device.native_2q());
+    if (!choose_chain || !plan.cut_short.empty()) break;
+    const auto net = choose_network(plan.spec, options.end_order);
+    ChainLoads loads;
+    try {
+      loads = chain_loads(plan.spec, *net, device.native_2q(), options.budget);
+    } catch (const TimeLimitReached&) {
+      note_cut("the placement search");
+      break;
+    }
     PlacementSearchOptions pso = options.placement_search;
     pso.seed = options.search.seed;
+    if (!pso.budget) pso.budget = options.budget;
     const auto choice = best_chain(device, loads, chain, pso);
-    plan.placement.method = choice.exhaustive ? "exhaustive" : "beam";
+    throw_if_interrupted(options.budget);
+    if (choice.time_out) note_cut("the placement search");
+    plan.placement.method = choice.time_out ? "time-limited" : choice.exhaustive ? "exhaustive" : "beam";
     plan.placement.chains_scored = choice.chains_scored;
     plan.placement.best = choice.best;
     const bool changed = !choice.best.empty() && choice.best.front().chain != chain;
     if (!choice.best.empty()) chain = choice.best.front().chain;
     if (!options.auto_approx || !changed) break;
   }
+  throw_if_interrupted(options.budget);
   if (plan.placement.best.empty()) {
     plan.placement.best.push_back({chain, 0.0});
-    const auto net = choose_network(plan.spec);
-    plan.placement.best.front().log_esp = chain_log_esp(device, chain_loads(plan.spec, *net, device.native_2q()), chain);
+    const auto net = choose_network(plan.spec, options.end_order);
+    try {
+      plan.placement.best.front().log_esp =
+          chain_log_esp(device, chain_loads(plan.spec, *net, device.native_2q(), options.budget), chain);
+    } catch (const TimeLimitReached&) {
+      // Not scored in time: execute_plan fills in the ESP it measures while streaming.
+      plan.placement.best.front().log_esp = std::numeric_limits<double>::quiet_NaN();
+      note_cut("the ESP scoring of the chain");
+    }
     plan.placement.chains_scored = 1;
   }
-  plan.network = choose_network(plan.spec);
+  plan.network = choose_network(plan.spec, options.end_order);
+  plan.end_swaps = end_swap_count(*plan.network);
   plan.chain = chain;
   plan.maps = chain_maps(plan.spec, *plan.network, plan.chain);
   return plan;
+}
+
+Objective parse_objective(const std::string& text) {
+  if (text == "esp") return Objective::esp;
+  if (text == "depth") return Objective::depth;
+  if (text == "cx") return Objective::cx;
+  throw InputError("unknown objective '" + text + "' (valid: esp, depth, cx)");
+}
+
+const char* objective_name(Objective o) {
+  switch (o) {
+    case Objective::esp: return "esp";
+    case Objective::depth: return "depth";
+    case Objective::cx: return "cx";
+  }
+  return "?";
+}
+
+namespace {
+
+// ln ESP of a routed circuit: its gates through the native decomposition into the noise model.
+double routed_log_esp(const Device& device, const RoutedCircuit& c) {
+  NoiseSink noise(device, c.maps.placement);
+  NativeDecomposer dec(device.native_2q(), noise);
+  for (const auto& g : c.gates) dec.gate(g);
+  return noise.figures().log_esp;
+}
+
+}  // namespace
+
+static PreparedPlan prepare_routed(const Device& device, const PlanOptions& options) {
+  PreparedPlan plan;
+  plan.spec = options.spec;
+  if (options.auto_approx) plan.spec.approx_degree.reset();
+  validate_spec(device, plan.spec);
+  if (options.placement)
+    throw InputError("--placement pins a chain; the routed strategy chooses its own starting region");
+  plan.strategy = "routed";
+  plan.gates = options.gates.value_or(gate_set_of(device.native_2q()));
+  RoutingOptions ro = options.routing;
+  ro.seed = options.search.seed;
+  if (options.auto_approx) {
+    // Score each degree by routing it (as for the chain strategy, stop once the fidelity bound is 1
+    // within 1e-12; the exact transform is always scored).
+    DegreeChoice choice;
+    std::vector<std::optional<int>> degrees;
+    for (int m = 1; m < plan.spec.qubits; ++m) {
+      degrees.push_back(m);
+      if (approx_fidelity_lower_bound(approx_error_bound(plan.spec.qubits, m)) >= 1.0 - 1e-12) break;
+    }
+    degrees.push_back(std::nullopt);
+    double best = -1;
+    for (const auto& m : degrees) {
+      QftSpec s = plan.spec;
+      s.approx_degree = m;
+      DegreeCandidate c;
+      c.degree = m;
+      c.log_esp = routed_log_esp(device, route_qft(device, s, ro));
+      c.error_bound = approx_error_bound(s.qubits, m);
+      c.fidelity_bound = approx_fidelity_lower_bound(c.error_bound);
+      c.score = std::exp(c.log_esp) * c.fidelity_bound;
+      best = std::max(best, c.score);
+      choice.considered.push_back(c);
+    }
+    for (const auto& c : choice.considered)
+      if (c.score >= best * (1.0 - 1e-12)) {
+        choice.chosen = c.degree;
+        break;
+      }
+    plan.spec.approx_degree = choice.chosen;
+    plan.degree_choice = choice;
+  }
+  plan.routed = route_qft(device, plan.spec, ro);
+  if (options.end_order == EndOrder::same) plan.end_swaps = restore_order(device, plan.routed->gates, plan.routed->maps);
+  plan.maps = plan.routed->maps;
+  plan.placement.method = "routed";
+  plan.placement.chains_scored = 0;
+  return plan;
+}
+
+static PreparedPlan prepare_auto(const Device& device, const PlanOptions& options);
+
+// The spine strategy: a main chain plus the qubits dangling one hop off it, read as one virtual line
+// (each dangling qubit right after the chain qubit it hangs from); the chain networks run on that
+// line, and a gate between line neighbours that are not coupled steps through the chain qubit both
+// hang from (swap, gate, swap). For registers that do not fit on one chain: heavy-hexagon lattices
+// (the setting of Gao, Jin, Guo, Chen and Zhang, arXiv:2402.09705, 2024) and defective chips.
+static PreparedPlan prepare_spine(const Device& device, const PlanOptions& options) {
+  if (options.auto_approx) {
+    // Score each degree by planning it on the spine (same rule as the other strategies).
+    PlanOptions fixed = options;
+    fixed.auto_approx = false;
+    DegreeChoice choice;
+    std::vector<std::optional<int>> degrees;
+    for (int m = 1; m < options.spec.qubits; ++m) {
+      degrees.push_back(m);
+      if (approx_fidelity_lower_bound(approx_error_bound(options.spec.qubits, m)) >= 1.0 - 1e-12) break;
+    }
+    degrees.push_back(std::nullopt);
+    double best = -1;
+    for (const auto& m : degrees) {
+      fixed.spec.approx_degree = m;
+      const auto p = prepare_spine(device, fixed);
+      DegreeCandidate c;
+      c.degree = m;
+      c.log_esp = execute_plan(device, fixed, p, nullptr).noise.log_esp;
+      c.error_bound = approx_error_bound(fixed.spec.qubits, m);
+      c.fidelity_bound = approx_fidelity_lower_bound(c.error_bound);
+      c.score = std::exp(c.log_esp) * c.fidelity_bound;
+      best = std::max(best, c.score);
+      choice.considered.push_back(c);
+    }
+    for (const auto& c : choice.considered)
+      if (c.score >= best * (1.0 - 1e-12)) {
+        choice.chosen = c.degree;
+        break;
+      }
+    fixed.spec.approx_degree = choice.chosen;
+    PreparedPlan plan = prepare_spine(device, fixed);
+    plan.degree_choice = choice;
+    return plan;
+  }
+  PreparedPlan plan;
+  plan.spec = options.spec;
+  validate_spec(device, plan.spec);
+  if (options.placement) throw InputError("--placement pins a chain; the spine strategy chooses its own line");
+  const SpineLayout layout = make_spine_layout(device, plan.spec.qubits, options.search.seed);
+  if (layout.detours.empty())
+    throw PlanningError("the register fits on one chain: the chain strategy covers it");
+  plan.strategy = "spine";
+  plan.gates = options.gates.value_or(gate_set_of(device.native_2q()));
+  plan.network = choose_network(plan.spec, options.end_order);
+  plan.end_swaps = end_swap_count(*plan.network);
+  plan.chain = layout.line;
+  plan.detours = layout.detours;
+  plan.maps = chain_maps(plan.spec, *plan.network, plan.chain);
+  plan.placement.method = "spine";
+  return plan;
+}
+
+// Largest register on which --strategy auto also runs the router next to a structured strategy.
+constexpr int kRoutedCompareLimit = 256;
+
+const std::vector<StrategyInfo>& plan_strategies() {
+  static const std::vector<StrategyInfo> table{
+      {"auto", "try every strategy that applies and keep the best by --objective", &prepare_auto},
+      {"chain", "a chain of n qubits carrying the reversal or leapfrog network (needs a simple path of n qubits)",
+       &prepare_chain},
+      {"spine", "a main chain plus the qubits dangling off it as one line (heavy-hexagon, defective chips)",
+       &prepare_spine},
+      {"routed", "SWAP routing with look-ahead on any connected device; also the in-house baseline", &prepare_routed},
+  };
+  return table;
+}
+
+namespace {
+
+// Lexicographic comparison by the objective (ties broken by the other figures).
+bool better(const StrategyOutcome& a, const StrategyOutcome& b, Objective o) {
+  auto key = [o](const StrategyOutcome& x) {
+    switch (o) {
+      case Objective::esp: return std::make_tuple(-x.log_esp, double(x.cx_count), double(x.depth_2q));
+      case Objective::depth: return std::make_tuple(double(x.depth_2q), double(x.cx_count), -x.log_esp);
+      case Objective::cx: return std::make_tuple(double(x.cx_count), double(x.depth_2q), -x.log_esp);
+    }
+    return std::make_tuple(0.0, 0.0, 0.0);
+  };
+  return key(a) < key(b);
+}
+
+}  // namespace
+
+static PreparedPlan prepare_auto(const Device& device, const PlanOptions& options) {
+  std::optional<PreparedPlan> best;
+  StrategyOutcome best_outcome;
+  std::vector<StrategyOutcome> outcomes;
+  std::string first_error;
+  bool timed_out = false;
+  for (const auto& s : plan_strategies()) {
+    if (std::string(s.name) == "auto") continue;
+    StrategyOutcome o;
+    o.strategy = s.name;
+    // The router costs O(n^2) SWAP decisions: as a comparison it runs only on registers of at most
+    // kRoutedCompareLimit qubits; beyond that it runs only when nothing structured could plan.
+    if (std::string(s.name) == "routed" && best && options.spec.qubits > kRoutedCompareLimit) {
+      o.reason = fmt::format("not tried: registers above {} qubits are routed only when no chain exists",
+                             kRoutedCompareLimit);
+      outcomes.push_back(o);
+      continue;
+    }
+    // Out of time (or interrupted): keep the best strategy so far rather than start another.
+    if (best && options.budget && options.budget->exhausted()) {
+      o.reason = "not tried: the time limit ran out";
+      outcomes.push_back(o);
+      timed_out = true;
+      continue;
+    }
+    try {
+      PreparedPlan p = s.prepare(device, options);
+      const PlanReport r = execute_plan(device, options, p, nullptr);
+      o.ok = true;
+      o.network = r.network;
+      o.cx_count = r.cx_count;
+      o.depth_2q = r.depth_2q;
+      o.swaps = r.swaps;
+      o.log_esp = r.noise.log_esp;
+      if (!best || better(o, best_outcome, options.objective)) {
+        best = std::move(p);
+        best_outcome = o;
+      }
+    } catch (const PlanningError& e) {
+      o.reason = e.what();
+      if (first_error.empty()) first_error = e.what();
+    } catch (const InputError& e) {
+      // A pinned placement is an input only the chain strategy accepts; other errors are real.
+      if (!options.placement) throw;
+      o.reason = e.what();
+      if (std::string(s.name) == "chain") throw;
+    }
+    outcomes.push_back(o);
+  }
+  throw_if_interrupted(options.budget);
+  if (!best) throw PlanningError(first_error.empty() ? "no strategy could plan this request" : first_error);
+  best->alternatives = outcomes;
+  if (timed_out) best->cut_short += std::string(best->cut_short.empty() ? "" : ", ") + "the strategy comparison";
+  return std::move(*best);
+}
+
+PreparedPlan prepare_plan(const Device& device, const PlanOptions& options) {
+  for (const auto& s : plan_strategies())
+    if (options.strategy == s.name) return s.prepare(device, options);
+  std::string names;
+  for (const auto& s : plan_strategies()) names += std::string(names.empty() ? "" : ", ") + s.name;
+  throw InputError("unknown strategy '" + options.strategy + "' (valid: " + names + ")");
 }
 
 PlanReport execute_plan(const Device& device, const PlanOptions& options, const PreparedPlan& plan, GateSink* output) {
@@ -217,11 +498,21 @@ PlanReport execute_plan(const Device& device, const PlanOptions& options, const 
     }
     else emit_path = std::make_unique<NativeDecomposer>(plan.gates == GateSet::cz ? TwoQubitGate::cz : TwoQubitGate::cx, emitted_tee);
   }
-  std::vector<GateSink*> top{&logical, &to_native};
+  MetricsSink unfused(D);
+  FusedBlockSplitter split(unfused);
+  std::vector<GateSink*> top{&logical, &to_native, &split};
   if (emit_path) top.push_back(emit_path.get());
   TeeSink all(top);
 
-  emit_chain_qft(plan.spec, *plan.network, plan.chain, all);
+  if (plan.routed) {
+    for (const auto& g : plan.routed->gates) all.gate(g);
+  } else if (!plan.detours.empty()) {
+    DetourSink detour(all);
+    for (const auto& [a, b, via] : plan.detours) detour.add(a, b, via);
+    emit_chain_qft(plan.spec, *plan.network, plan.chain, detour);
+  } else {
+    emit_chain_qft(plan.spec, *plan.network, plan.chain, all);
+  }
   if (options.measure)
     for (int k = 0; k < plan.spec.qubits; ++k)
       all.gate(make_gate(GateKind::measure, plan.maps.final_placement[k], k));
@@ -232,14 +523,14 @@ PlanReport execute_plan(const Device& device, const PlanOptions& options, const 
   r.device = device.name();
   r.device_qubits = D;
   r.strategy = plan.strategy;
-  r.network = plan.network->name();
+  r.network = plan.routed ? "routed" : plan.network->name();
   r.approx_degree = plan.spec.approx_degree;
   r.inverse = plan.spec.inverse;
   r.gates = gate_set_name(plan.gates);
   r.native_2q = two_qubit_gate_name(native_gate);
   r.placement = plan.maps.placement;
   r.final_placement = plan.maps.final_placement;
-  r.chain = plan.chain;
+  r.chain = plan.routed ? plan.routed->region : plan.chain;
   r.two_qubit_blocks = logical.two_qubit_count();
   r.swaps = logical.count(GateKind::swap) + logical.count(GateKind::cp_swap);
   r.rotations = logical.count(GateKind::cp) + logical.count(GateKind::cp_swap);
@@ -254,6 +545,19 @@ PlanReport execute_plan(const Device& device, const PlanOptions& options, const 
   r.approx_error_bound = approx_error_bound(plan.spec.qubits, plan.spec.approx_degree);
   r.degree_choice = plan.degree_choice;
   r.placement_choice = plan.placement;
+  // A chain the time limit left unscored gets the ESP just measured (the same quantity).
+  if (!r.placement_choice.best.empty() && std::isnan(r.placement_choice.best.front().log_esp))
+    r.placement_choice.best.front().log_esp = r.noise.log_esp;
+  r.depth_2q_unfused = unfused.depth_2q();
+  // Lower bounds (ours). Blocks: every kept controlled phase needs a two-qubit gate of its own, and
+  // a block carries at most one. Depth: the Hadamard of wire j waits for the rotation between wires
+  // j-1 and j, which waits for the Hadamard of wire j-1, so the rotations (0,1), (1,2), ..., (n-2,n-1)
+  // form a chain of n-1 two-qubit gates that must run one after another (when d >= 1).
+  r.lower_bound_blocks = plan.spec.kept_rotations();
+  r.lower_bound_depth_2q = plan.spec.qubits >= 2 && plan.spec.max_distance() >= 1 ? plan.spec.qubits - 1 : 0;
+  r.alternatives = plan.alternatives;
+  r.end_order = end_order_name(options.end_order);
+  r.end_swaps = plan.end_swaps;
   r.elapsed_ms = std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - t0).count();
   return r;
 }

@@ -172,7 +172,10 @@ std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec) {
   // The leapfrog network has at most 2 d blocks per wire; build it only when that can beat the
   // reversal network's n(n-1)/2 (it holds its n*2d steps in memory).
   const long long reversal = static_cast<long long>(n) * (n - 1) / 2;
-  if (2LL * n * d < 2 * reversal) {
+  // Its steps take 12 bytes each: past 2^25 steps (400 MB) stream the reversal network instead,
+  // which would otherwise exhaust memory on big registers with big degrees.
+  constexpr long long kMaxLeapfrogSteps = 1LL << 25;
+  if (2LL * n * d < 2 * reversal && 2LL * n * d <= kMaxLeapfrogSteps) {
     auto leap = make_leapfrog_network(n, d);
     if (leap->block_count() < reversal) return leap;
   }

@@ -26,6 +26,16 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
   j["rotations"] = r.rotations;
   j["depth_2q"] = r.depth_2q;
   j["depth"] = r.depth;
+  j["depth_2q_unfused"] = r.depth_2q_unfused;
+  j["lower_bound_blocks"] = r.lower_bound_blocks;
+  j["lower_bound_depth_2q"] = r.lower_bound_depth_2q;
+  j["blocks_over_bound"] = r.lower_bound_blocks > 0 ? nlohmann::ordered_json(double(r.two_qubit_blocks) / r.lower_bound_blocks)
+                                                    : nlohmann::ordered_json(nullptr);
+  j["depth_2q_over_bound"] = r.lower_bound_depth_2q > 0
+                                 ? nlohmann::ordered_json(double(r.depth_2q) / r.lower_bound_depth_2q)
+                                 : nlohmann::ordered_json(nullptr);
+  j["end_order"] = r.end_order;
+  j["end_swaps"] = r.end_swaps;
   j["cx_count"] = r.cx_count;
   j["cx_depth"] = r.cx_depth;
   j["gate_counts"] = r.gate_counts;
@@ -56,6 +66,22 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
   auto& best = pc["best"] = nlohmann::ordered_json::array();
   for (const auto& c : r.placement_choice.best) best.push_back({{"chain", c.chain}, {"esp", std::exp(c.log_esp)}});
   j["placement_choice"] = pc;
+  auto& alts = j["alternatives"] = nlohmann::ordered_json::array();
+  for (const auto& a : r.alternatives) {
+    nlohmann::ordered_json x;
+    x["strategy"] = a.strategy;
+    x["ok"] = a.ok;
+    if (a.ok) {
+      x["network"] = a.network;
+      x["cx_count"] = a.cx_count;
+      x["depth_2q"] = a.depth_2q;
+      x["swaps"] = a.swaps;
+      x["esp"] = std::exp(a.log_esp);
+    } else {
+      x["reason"] = a.reason;
+    }
+    alts.push_back(x);
+  }
   j["elapsed_ms"] = r.elapsed_ms;
   return j;
 }
@@ -87,7 +113,22 @@ std::string format_plan_summary(const PlanReport& r) {
     if (r.measured) s += fmt::format(", {:.4g} with readout", r.noise.esp_with_readout);
     s += "\n";
   }
+  if (r.end_order == "same")
+    s += fmt::format("  end order       same as the start ({} SWAP{} added)\n", r.end_swaps, r.end_swaps == 1 ? "" : "s");
   if (r.approx_degree) s += fmt::format("  approximation   error bound {:.3g} (operator norm)\n", r.approx_error_bound);
+  if (r.lower_bound_depth_2q > 0)
+    s += fmt::format("  vs lower bound  blocks x{:.2f}, two-qubit depth x{:.2f}\n",
+                     double(r.two_qubit_blocks) / std::max<long long>(1, r.lower_bound_blocks),
+                     double(r.depth_2q) / r.lower_bound_depth_2q);
+  for (const auto& a : r.alternatives) {
+    if (a.strategy == r.strategy) continue;
+    if (a.ok)
+      s += fmt::format("  vs {:<12} {} CX (x{:.2f}), two-qubit depth {} (x{:.2f})\n", a.strategy, a.cx_count,
+                       double(a.cx_count) / std::max<long long>(1, r.cx_count), a.depth_2q,
+                       double(a.depth_2q) / std::max<long long>(1, r.depth_2q));
+    else
+      s += fmt::format("  vs {:<12} {}\n", a.strategy, a.reason);
+  }
   s += fmt::format("  planned in      {:.1f} ms\n", r.elapsed_ms);
   return s;
 }

@@ -185,7 +185,7 @@ TEST(Cli, PlacementErrorsAreClear) {
 
 TEST(Cli, NoChainSaysTheLongestFound) {
   // A heavy-hexagon lattice has no simple path through all its qubits (the dangling edge qubits).
-  const auto r = run_qftplan("plan --device heavy-hex:2x2 --qubits 35");
+  const auto r = run_qftplan("plan --device heavy-hex:2x2 --qubits 35 --strategy chain");
   EXPECT_EQ(r.status, 1);
   EXPECT_NE(r.err.find("no chain of 35 qubits"), std::string::npos) << r.err;
   EXPECT_NE(r.err.find("longest found"), std::string::npos) << r.err;

@@ -104,6 +104,7 @@ TEST(NoiseModel, IdleFactorFollowsTheStatedFormula) {
   const Device dev(d);
   PlanOptions opt;
   opt.spec.qubits = 2;
+  opt.strategy = "chain";
   const auto r = plan_qft(dev, opt);
   // Reversal network on 2 qubits: h, cp_swap (3 CX), h.
   const double esp = std::pow(0.999, 2) * std::pow(0.99, 3);

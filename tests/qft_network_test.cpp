@@ -116,6 +116,7 @@ TEST(ChainPlanner, MetricsOnLinesGridsAndRings) {
     for (int n = 2; n <= 64 && n <= dev.qubit_count(); n += (n < 12 ? 1 : 7)) {
       PlanOptions opt;
       opt.spec.qubits = n;
+      opt.strategy = "chain";
       const auto r = plan_qft(dev, opt);
       EXPECT_EQ(r.two_qubit_blocks, static_cast<long long>(n) * (n - 1) / 2) << spec << " n=" << n;
       EXPECT_EQ(r.depth_2q, 2 * n - 3) << spec << " n=" << n;

@@ -25,7 +25,10 @@ class AtomicFile final : public TextOutput {
   AtomicFile(const AtomicFile&) = delete;
   AtomicFile& operator=(const AtomicFile&) = delete;
   void write(std::string_view text) override;
-  /// Flushes, syncs and renames the temporary onto the path.
+  /// Flushes, syncs and closes the temporary: the step where a full disk shows. Lets a caller with
+  /// several files finish them all before renaming any (no write() afterwards).
+  void flush();
+  /// Flushes (when not yet done) and renames the temporary onto the path.
   void commit();
   const std::string& path() const { return path_; }
 

@@ -9,11 +9,14 @@
 
 namespace qftplan {
 
+class RunBudget;
+
 /// Settings of the search. Defaults suit devices up to ~10^5 qubits.
 struct ChainSearchOptions {
   std::uint64_t seed = 1;                    ///< varies tie-breaking and restarts; same seed, same chain
   long long work_budget = 50'000'000;        ///< neighbour inspections before giving up
   int exhaustive_limit = 24;                 ///< below this many qubits, backtrack exhaustively (within budget)
+  const RunBudget* budget = nullptr;         ///< time limit / interruption, polled in the loops (null: none)
 };
 
 /// Outcome: `chain` has exactly n qubits when found, else is empty and `longest` is the longest
@@ -23,6 +26,7 @@ struct ChainSearchResult {
   std::vector<int> longest;
   long long work = 0;
   bool budget_exhausted = false;
+  bool time_out = false;  ///< stopped by the RunBudget (deadline or interruption) before finishing
 };
 
 /// Looks for a simple path of `n` qubits. Strategy: greedy extension from several starting qubits

@@ -12,14 +12,18 @@
 
 namespace qftplan {
 
+class RunBudget;
+
 /// How many error-carrying native gates the network puts on each chain position and edge.
 struct ChainLoads {
   std::vector<double> edge_2q;  ///< native two-qubit gates between positions p and p+1
   std::vector<double> pos_1q;   ///< h/x/sx gates at position p
 };
 
-/// Counts the loads by a dry run of the network through the native decomposition.
-ChainLoads chain_loads(const QftSpec& spec, const QftNetwork& network, TwoQubitGate native);
+/// Counts the loads by a dry run of the network through the native decomposition. The dry run of a
+/// big network is long, so it polls `budget` and throws TimeLimitReached or Interrupted.
+ChainLoads chain_loads(const QftSpec& spec, const QftNetwork& network, TwoQubitGate native,
+                       const RunBudget* budget = nullptr);
 
 /// ln(ESP) of the planned circuit on `chain` (exactly the noise model's esp, before idling).
 double chain_log_esp(const Device& device, const ChainLoads& loads, std::span<const int> chain);
@@ -29,6 +33,7 @@ struct PlacementSearchOptions {
   std::uint64_t seed = 1;
   long long work_budget = 20'000'000;  ///< path extensions (exhaustive search) or beam steps
   int keep = 5;                         ///< how many of the best chains to report
+  const RunBudget* budget = nullptr;    ///< time limit / interruption, polled in the loops (null: none)
 };
 
 /// One chain considered.
@@ -43,6 +48,7 @@ struct PlacementChoice {
   bool exhaustive = false;        ///< every chain of n qubits was examined (branch and bound)
   long long chains_scored = 0;    ///< complete chains scored
   long long work = 0;
+  bool time_out = false;          ///< the RunBudget stopped the search; `best` is the best seen so far
 };
 
 /// Finds the chain of loads.pos_1q.size() qubits with the highest ESP. First an exhaustive

@@ -3,6 +3,7 @@
 /// Planning a QFT on a device: choose where the register goes, stream the circuit through
 /// counters (and an optional output), and report what it costs.
 
+#include <array>
 #include <cstdint>
 #include <map>
 #include <memory>
@@ -14,19 +15,29 @@
 #include "qftplan/chain_qft.hpp"
 #include "qftplan/chain_search.hpp"
 #include "qftplan/device.hpp"
+#include "qftplan/end_order.hpp"
 #include "qftplan/native_gates.hpp"
 #include "qftplan/noise_model.hpp"
 #include "qftplan/placement_search.hpp"
 #include "qftplan/qft_network.hpp"
 #include "qftplan/qft_spec.hpp"
+#include "qftplan/routed_planner.hpp"
 
 namespace qftplan {
+
+class RunBudget;
 
 /// A request that is well-formed but cannot be planned on this device (exit status 1).
 class PlanningError : public std::runtime_error {
  public:
   using std::runtime_error::runtime_error;
 };
+
+/// What `--strategy auto` optimises when it compares strategies.
+enum class Objective { esp, depth, cx };
+/// Parses "esp", "depth", "cx"; InputError listing them otherwise.
+Objective parse_objective(const std::string& text);
+const char* objective_name(Objective o);
 
 /// What the user asked for.
 struct PlanOptions {
@@ -39,6 +50,11 @@ struct PlanOptions {
   bool auto_approx = false;                      ///< choose the degree (spec.approx_degree is ignored)
   bool calibration_aware = true;                 ///< pick the chain of highest ESP when calibrated
   PlacementSearchOptions placement_search;       ///< budget of that choice
+  const RunBudget* budget = nullptr;             ///< time limit / interruption of every search (null: none)
+  std::string strategy = "auto";                 ///< a name from plan_strategies()
+  Objective objective = Objective::esp;          ///< what --strategy auto maximises or minimises
+  RoutingOptions routing;                        ///< settings of the routed strategy
+  EndOrder end_order = EndOrder::free;           ///< same: SWAPs at the end make final_placement == placement
 };
 
 /// One approximation degree considered by the automatic choice.
@@ -63,6 +79,18 @@ struct PlacementReport {
   std::vector<ScoredChain> best;       ///< best first (ESP before idling)
 };
 
+/// One strategy tried by --strategy auto, with its figures (or why it failed).
+struct StrategyOutcome {
+  std::string strategy;
+  std::string network;
+  bool ok = false;
+  std::string reason;        ///< why it could not plan, when !ok
+  long long cx_count = 0;
+  long long depth_2q = 0;
+  long long swaps = 0;
+  double log_esp = 0;
+};
+
 /// Decisions made before any gate is emitted.
 struct PreparedPlan {
   std::string strategy;                  ///< registry name of the planner ("chain")
@@ -74,6 +102,13 @@ struct PreparedPlan {
   QftSpec spec;                          ///< the spec planned (degree filled in by --approx auto)
   std::optional<DegreeChoice> degree_choice;
   PlacementReport placement;
+  /// Empty when every search finished; else which searches the time limit cut short: the plan is
+  /// the best found so far and the command line warns and exits with status 3.
+  std::string cut_short;
+  std::optional<RoutedCircuit> routed;   ///< set by the routed strategy (then network and chain are unused)
+  std::vector<std::array<int, 3>> detours;  ///< spine strategy: (a, b, via) for uncoupled line neighbours
+  std::vector<StrategyOutcome> alternatives;  ///< every strategy --strategy auto tried
+  long long end_swaps = 0;               ///< SWAPs added by --end-order same (merged ones included)
 };
 
 /// Figures of a planned circuit (the JSON report; README "Report fields" documents each).
@@ -106,7 +141,23 @@ struct PlanReport {
   double approx_error_bound = 0;
   std::optional<DegreeChoice> degree_choice;
   PlacementReport placement_choice;
+  long long depth_2q_unfused = 0;      ///< two-qubit depth counting a fused block as cp then swap
+  long long lower_bound_blocks = 0;    ///< kept rotations: each needs its own two-qubit gate
+  long long lower_bound_depth_2q = 0;  ///< n-1 (see plan.cpp for the derivation)
+  std::vector<StrategyOutcome> alternatives;
+  std::string end_order = "free";      ///< end-order policy: "free" or "same"
+  long long end_swaps = 0;             ///< SWAPs added to restore the order (in swaps and cx_count too)
 };
+
+/// A planning strategy: its name (as given to --strategy), a one-line description, and its entry.
+struct StrategyInfo {
+  const char* name;
+  const char* description;
+  PreparedPlan (*prepare)(const Device& device, const PlanOptions& options);
+};
+
+/// Every strategy, "auto" first. The same table drives --help and the "unknown strategy" error.
+const std::vector<StrategyInfo>& plan_strategies();
 
 /// Validates the request and decides the placement. Throws InputError for invalid pins and
 /// PlanningError when the device cannot hold the register.

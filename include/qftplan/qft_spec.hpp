@@ -10,6 +10,10 @@
 
 namespace qftplan {
 
+/// Largest register planned: the exact QFT of n qubits has n(n-1)/2 two-qubit blocks (1.3e8 at
+/// this cap), and OpenQASM 2 writes angles pi/2^k with all decimal digits of 2^k.
+inline constexpr int kMaxRegisterQubits = 16'384;
+
 /// The QFT to plan. Logical qubit k holds the input bit of weight 2^k (little-endian).
 /// The forward QFT maps |j> to 2^(-n/2) sum_y exp(2 pi i j y / 2^n) |y>
 /// (Nielsen & Chuang, Quantum Computation and Quantum Information, 2000, section 5.1, eq. 5.2).

@@ -1,9 +1,17 @@
 // The qftplan command line: parses options, calls the library, prints. The only file that knows
 // about CLI11.
 
+#include <signal.h>
+
+#include <atomic>
 #include <chrono>
+#include <cctype>
+#include <cmath>
+#include <csignal>
 #include <cstdio>
+#include <filesystem>
 #include <iostream>
+#include <new>
 #include <memory>
 #include <optional>
 #include <string>
@@ -21,6 +29,16 @@
 #include "qftplan/qasm_writer.hpp"
 #include "qftplan/qft_checker.hpp"
 #include "qftplan/report.hpp"
+#include "qftplan/run_budget.hpp"
+// survey, merge, draw (issue 6)
+#include "qftplan/plan_drawing.hpp"
+#include "qftplan/survey_merge.hpp"
+#include "qftplan/survey_output.hpp"
+#include "qftplan/survey_plots.hpp"
+#include "qftplan/survey_progress.hpp"
+#include "qftplan/survey_request.hpp"
+#include "qftplan/survey_run.hpp"
+#include "qftplan/survey_table.hpp"
 
 namespace {
 
@@ -28,6 +46,44 @@ using namespace qftplan;
 
 constexpr int kExitFailed = 1;   // check found the circuit wrong, or the request cannot be planned
 constexpr int kExitBadInput = 2;
+constexpr int kExitTimeLimit = 3;  // --time-limit ran out (the best plan found, if any, is still written)
+
+// Set by SIGINT/SIGTERM; the searches and the circuit stream poll it through the RunBudget, so the
+// run unwinds normally and AtomicFile destructors remove the temporaries.
+std::atomic<bool> g_interrupted{false};
+std::atomic<int> g_signal{0};
+
+extern "C" void on_stop_signal(int sig) {
+  g_signal.store(sig);
+  g_interrupted.store(true);
+}
+
+// For commands that write files: stop cleanly on Ctrl-C, and let a file-size limit (ulimit -f) fail
+// the write with EFBIG instead of killing the process with its temporaries left behind.
+void install_stop_handlers() {
+  struct sigaction sa {};
+  sa.sa_handler = on_stop_signal;
+  sa.sa_flags = SA_RESTART;  // a write interrupted by the signal resumes; the flag does the stopping
+  sigemptyset(&sa.sa_mask);
+  sigaction(SIGINT, &sa, nullptr);
+  sigaction(SIGTERM, &sa, nullptr);
+  std::signal(SIGXFSZ, SIG_IGN);
+}
+
+// "--time-limit 2.5": positive seconds.
+std::optional<double> parse_time_limit(const std::string& text) {
+  if (text.empty()) return std::nullopt;
+  std::size_t used = 0;
+  double v = 0;
+  try {
+    v = std::stod(text, &used);
+  } catch (const std::exception&) {
+    used = 0;
+  }
+  if (used != text.size() || !std::isfinite(v) || v <= 0)
+    throw InputError("--time-limit expects a positive number of seconds, got '" + text + "'");
+  return v;
+}
 
 std::optional<int> parse_approx(const std::string& text) {
   if (text == "none") return std::nullopt;
@@ -50,6 +106,10 @@ struct Destination {
   TextOutput& sink() { return file ? static_cast<TextOutput&>(*file) : out; }
   explicit Destination(const std::string& path) {
     if (path != "-") file = std::make_unique<AtomicFile>(path);
+  }
+  /// Flushes and syncs a file (the step that fails on a full disk); commit() then only renames.
+  void flush() {
+    if (file) file->flush();
   }
   void commit() {
     if (file) file->commit();
@@ -81,12 +141,24 @@ struct PlanArgs {
   std::uint64_t seed = 1;
   bool measure = false;
   bool explain = false;
+  std::string time_limit;
+  std::string strategy = "auto";
+  std::string objective = "esp";
+  std::string end_order = "free";
 };
 
 int run_plan(const PlanArgs& a) {
   const auto t0 = std::chrono::steady_clock::now();
+  install_stop_handlers();
+  // The time limit counts from here, device loading included; every search polls it.
+  const RunBudget budget(parse_time_limit(a.time_limit), &g_interrupted);
+  // Two AtomicFiles on one path would both commit and the last would win: refuse it.
+  if (!a.output.empty() && a.output != "-" && !a.report.empty() && a.report != "-" &&
+      std::filesystem::weakly_canonical(a.output) == std::filesystem::weakly_canonical(a.report))
+    throw InputError("--output and --report name the same file '" + a.output + "'");
   const Device dev = load_device(a.device);
   PlanOptions opt;
+  opt.budget = &budget;
   opt.spec.qubits = a.qubits;
   if (a.approx == "auto") opt.auto_approx = true;
   else opt.spec.approx_degree = parse_approx(a.approx);
@@ -94,6 +166,9 @@ int run_plan(const PlanArgs& a) {
   if (!a.gates.empty()) opt.gates = parse_gate_set(a.gates);
   if (!a.placement.empty()) opt.placement = parse_id_list(a.placement, "--placement");
   opt.search.seed = a.seed;
+  opt.strategy = a.strategy;
+  opt.objective = parse_objective(a.objective);
+  opt.end_order = parse_end_order(a.end_order);
   opt.measure = a.measure;
   const QasmVersion version = parse_qasm_version(a.format);
   opt.swap_as_cx = version == QasmVersion::v2;
@@ -108,22 +183,33 @@ int run_plan(const PlanArgs& a) {
     CircuitHeader h;
     h.device_name = dev.name();
     h.device_qubits = dev.qubit_count();
-    h.strategy = fmt::format("{} ({} network)", plan.strategy, plan.network->name());
+    h.strategy = plan.routed ? plan.strategy : fmt::format("{} ({} network)", plan.strategy, plan.network->name());
     h.spec = plan.spec;
     h.placement = plan.maps.placement;
     h.final_placement = plan.maps.final_placement;
     h.measured_bits = opt.measure ? opt.spec.qubits : 0;
     writer = std::make_unique<QasmWriter>(version, h, circuit_dest->sink());
   }
-  PlanReport r = execute_plan(dev, opt, plan, writer.get());
+  // Ctrl-C while the circuit streams stops it here (the writer's temporary is then removed).
+  InterruptCheckSink guarded(&budget, writer.get());
+  PlanReport r = execute_plan(dev, opt, plan, &guarded);
   r.elapsed_ms = std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - t0).count();
   if (writer) r.output_bytes = writer->bytes();
   if (report_dest) report_dest->sink().write(report_to_json_text(r));
-  // Commit only when everything succeeded, so a failure leaves no partial file behind.
+  // Commit only when everything succeeded, so a failure leaves no partial file behind: first flush
+  // and sync both files (where a full disk shows), then rename both.
+  throw_if_interrupted(&budget);
+  if (circuit_dest) circuit_dest->flush();
+  if (report_dest) report_dest->flush();
   if (circuit_dest) circuit_dest->commit();
   if (report_dest) report_dest->commit();
   if (!circuit_dest && !report_dest) std::fputs(format_plan_summary(r).c_str(), stdout);
   if (a.explain) std::fputs(format_plan_explanation(r).c_str(), a.output == "-" || a.report == "-" ? stderr : stdout);
+  if (!plan.cut_short.empty()) {
+    std::fprintf(stderr, "qftplan: warning: the time limit of %s s ran out during %s; the plan is the best found so far\n",
+                 a.time_limit.c_str(), plan.cut_short.c_str());
+    return kExitTimeLimit;
+  }
   return 0;
 }
 
@@ -163,6 +249,271 @@ int run_check(const CheckArgs& a) {
   return 0;
 }
 
+// ---- survey, merge, draw (issue 6): tables, CSV/JSON lines, charts and pictures of plans --------
+
+// Files written at the end of a survey or merge: each to a temporary, then all renamed together,
+// so that a failure leaves none of them half-written. "-" is standard output.
+class OutputSet {
+ public:
+  void add(const std::string& path, std::string text) {
+    if (path.empty()) return;
+    for (const auto& [p, t] : items_)
+      if (p != "-" && path != "-" && std::filesystem::weakly_canonical(p) == std::filesystem::weakly_canonical(path))
+        throw InputError("two outputs name the same file '" + path + "'");
+    items_.emplace_back(path, std::move(text));
+  }
+  bool uses_stdout() const {
+    for (const auto& [p, t] : items_)
+      if (p == "-") return true;
+    return false;
+  }
+  void write_all() {
+    std::vector<std::unique_ptr<AtomicFile>> files;
+    for (const auto& [p, t] : items_) {
+      if (p == "-") continue;
+      files.push_back(std::make_unique<AtomicFile>(p));
+      files.back()->write(t);
+    }
+    for (auto& f : files) f->flush();
+    for (auto& f : files) f->commit();
+    for (const auto& [p, t] : items_)
+      if (p == "-") std::fputs(t.c_str(), stdout);
+  }
+
+ private:
+  std::vector<std::pair<std::string, std::string>> items_;
+};
+
+// Options shared by survey and merge: what to write and how.
+struct SurveyOutputArgs {
+  std::string csv;
+  std::string jsonl;
+  std::string svg;
+  bool no_timing = false;
+  bool quiet = false;
+};
+
+void add_survey_output_options(CLI::App* cmd, SurveyOutputArgs& o) {
+  cmd->add_option("--csv", o.csv, "write one CSV row per run to FILE ('-' for standard output)");
+  cmd->add_option("--jsonl", o.jsonl, "write one JSON object per run and line to FILE ('-' for standard output); merge reads these");
+  cmd->add_option("--svg", o.svg, "write charts (SWAPs, two-qubit depth, ESP against register size) to FILE");
+  cmd->add_flag("--no-timing", o.no_timing, "leave out the wall-time column, so that equal surveys give byte-identical files");
+  cmd->add_flag("--quiet,-q", o.quiet, "do not print the table");
+}
+
+int write_survey_outputs(const std::vector<SurveyRow>& rows, const SurveyOutputArgs& o, const std::string& footer) {
+  const SurveyTiming timing = o.no_timing ? SurveyTiming::omit : SurveyTiming::include;
+  OutputSet out;
+  if (!o.csv.empty()) out.add(o.csv, survey_csv(rows, timing));
+  if (!o.jsonl.empty()) out.add(o.jsonl, survey_jsonl(rows, timing));
+  if (!o.svg.empty()) out.add(o.svg, survey_svg(rows));
+  // The table goes to standard output unless a file took it.
+  if (!o.quiet && !out.uses_stdout()) std::fputs((format_survey_table(rows, timing) + footer).c_str(), stdout);
+  out.write_all();
+  return 0;
+}
+
+struct SurveyArgs {
+  std::vector<std::string> devices;
+  std::string qubits;
+  std::string approx = "none";
+  std::string direction;
+  bool inverse = false;
+  std::string strategy = "auto";
+  int jobs = 0;
+  std::uint64_t seed = 1;
+  std::string shard;
+  std::string time_limit;
+  bool no_progress = false;
+  SurveyOutputArgs out;
+};
+
+int run_survey_command(const SurveyArgs& a) {
+  install_stop_handlers();
+  SurveyRequest req;
+  req.sizes = parse_size_list(a.qubits);
+  req.approx = parse_approx_list(a.approx);
+  std::string direction = a.direction.empty() ? (a.inverse ? "inverse" : "forward") : a.direction;
+  if (a.inverse && direction != "inverse")
+    throw InputError("--inverse contradicts --direction " + a.direction);
+  if (direction == "forward") req.directions = {false};
+  else if (direction == "inverse") req.directions = {true};
+  else if (direction == "both") req.directions = {false, true};
+  else throw InputError("--direction expects forward, inverse or both, got '" + a.direction + "'");
+  req.strategies = parse_name_list(a.strategy, "--strategy");
+  for (const auto& s : req.strategies) {
+    const auto& table = plan_strategies();
+    if (std::none_of(table.begin(), table.end(), [&](const StrategyInfo& i) { return s == i.name; })) {
+      std::string known;
+      for (const auto& i : table) known += (known.empty() ? "" : ", ") + std::string(i.name);
+      throw InputError("--strategy: unknown strategy '" + s + "' (known: " + known + ")");
+    }
+  }
+  req.seed = a.seed;
+  req.time_limit = parse_time_limit(a.time_limit);
+  req.interrupt = &g_interrupted;
+  for (const auto& d : a.devices) req.devices.push_back(make_survey_entry(d));
+  if (a.jobs < 0) throw InputError("--jobs must be at least 1 (0 or absent: every core)");
+  const int jobs = a.jobs == 0 ? default_survey_jobs() : a.jobs;
+
+  const auto all = expand_survey(req);
+  const auto cases = a.shard.empty() ? all : shard_cases(all, parse_shard(a.shard));
+  const auto t0 = std::chrono::steady_clock::now();
+  SurveyProgress progress(stderr, !a.no_progress && is_terminal(2));
+  std::vector<SurveyRow> rows;
+  try {
+    rows = run_survey(req, cases, static_cast<long long>(all.size()), jobs,
+                      [&](long long done, long long total) { progress.update(done, total); });
+  } catch (...) {
+    progress.finish();
+    throw;
+  }
+  progress.finish();
+  const double seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+  std::string footer;
+  if (!a.out.no_timing)
+    footer = fmt::format("wall time {:.2f} s on {} thread{}\n", seconds, jobs, jobs == 1 ? "" : "s");
+  if (!a.shard.empty())
+    footer += fmt::format("shard {} of the survey's {} runs (merge the shards' --jsonl files)\n", a.shard, all.size());
+  return write_survey_outputs(rows, a.out, footer);
+}
+
+struct MergeArgs {
+  std::vector<std::string> files;
+  bool allow_missing = false;
+  SurveyOutputArgs out;
+};
+
+int run_merge_command(const MergeArgs& a) {
+  std::vector<SurveyPart> parts;
+  for (const auto& f : a.files) parts.push_back({f, read_survey_jsonl(f)});
+  const auto rows = merge_survey_parts(parts, a.allow_missing);
+  return write_survey_outputs(rows, a.out, "");
+}
+
+struct DrawArgs {
+  std::string device;
+  std::string plan;
+  std::string svg;
+};
+
+int run_draw_command(const DrawArgs& a) {
+  const Device dev = load_device(a.device);
+  std::optional<DrawnPlan> plan;
+  if (!a.plan.empty()) plan = read_drawn_plan(dev, a.plan);
+  OutputSet out;
+  out.add(a.svg, draw_device_svg(dev, plan ? &*plan : nullptr));
+  out.write_all();
+  return 0;
+}
+
+// ---- help TOPIC and the manual page: both read the option tables registered below -------------
+
+struct HelpArgs {
+  std::string topic;
+  bool man = false;
+};
+
+// Text for roff: backslashes and hyphens escaped, no line starting with a control character.
+std::string roff(const std::string& text) {
+  std::string out;
+  for (char c : text) {
+    if (c == '\\') out += "\\e";
+    else if (c == '-') out += "\\-";
+    else out += c;
+  }
+  std::string safe;
+  bool line_start = true;
+  for (char c : out) {
+    if (line_start && (c == '.' || c == '\'')) safe += "\\&";
+    safe += c;
+    line_start = c == '\n';
+  }
+  return safe;
+}
+
+// A multi-line description as roff lines: each further line starts a new output line.
+std::string roff_lines(const std::string& text) {
+  std::string out;
+  for (char c : roff(text)) out += c == '\n' ? std::string("\n.br\n") : std::string(1, c);
+  return out;
+}
+
+// A positional argument's name in the manual: upper case, like the other placeholders.
+std::string placeholder(const CLI::Option* o) {
+  std::string name = o->get_name(true);
+  for (char& c : name) c = static_cast<char>(std::toupper(static_cast<unsigned char>(c)));
+  return "\\fI" + roff(name) + "\\fR";
+}
+
+// Every visible command (hidden ones have no group), in registration order.
+std::vector<const CLI::App*> commands(const CLI::App& app) {
+  return app.get_subcommands([](const CLI::App* s) { return !s->get_group().empty(); });
+}
+
+// The manual page (man(7) macros), generated from the same CLI11 tables as --help.
+std::string make_man_page(const CLI::App& app) {
+  std::string s;
+  s += ".TH QFTPLAN 1 \"\" \"qftplan " QFTPLAN_VERSION_STRING "\" \"User Commands\"\n";
+  s += ".SH NAME\nqftplan \\- " + roff(app.get_description().substr(app.get_description().find(": ") + 2)) + "\n";
+  s += ".SH SYNOPSIS\n";
+  for (const auto* c : commands(app)) {
+    s += ".B qftplan " + roff(c->get_name()) + "\n";
+    std::string args;
+    for (const auto* o : c->get_options()) {
+      if (o->get_name() == "--help") continue;
+      std::string item = o->get_positional() && !o->nonpositional()
+                             ? placeholder(o)
+                             : "\\fB" + roff(o->get_name(false, false)) + "\\fR" +
+                                   (o->get_expected_min() == 0 ? "" : " \\fI" + roff(o->get_type_name()) + "\\fR");
+      args += o->get_required() ? item + "\n" : "[" + item + "]\n";
+    }
+    s += args + ".br\n";
+  }
+  const std::string about = app.get_description().substr(app.get_description().find(": ") + 2);
+  s += ".SH DESCRIPTION\nqftplan: " + roff(about) + ".\n";
+  s += "Each command is described below with its options; \\fBqftplan help\\fR \\fICOMMAND\\fR prints the same.\n";
+  for (const auto* c : commands(app)) {
+    s += ".SH \"COMMAND: " + roff(c->get_name()) + "\"\n" + roff(c->get_description()) + ".\n";
+    for (const auto* o : c->get_options()) {
+      if (o->get_name() == "--help") continue;
+      s += ".TP\n";
+      if (o->get_positional() && !o->nonpositional()) s += placeholder(o);
+      else s += "\\fB" + roff(o->get_name(false, true)) + "\\fR";
+      if (o->get_expected_min() != 0 && o->nonpositional()) s += " \\fI" + roff(o->get_type_name()) + "\\fR";
+      s += "\n" + roff_lines(o->get_description());
+      if (!o->get_default_str().empty()) s += " (default: " + roff(o->get_default_str()) + ")";
+      if (o->get_required()) s += " (required)";
+      s += "\n";
+    }
+  }
+  s += ".SH \"EXIT STATUS\"\n0 success; 1 the request cannot be planned or \\fBcheck\\fR found the circuit wrong;\n"
+       "2 bad input (files, specs, options), with a message naming the file, line and column where known.\n";
+  s += ".SH \"SEE ALSO\"\nREADME.md of the qftplan sources: device file format, report fields, the networks.\n";
+  return s;
+}
+
+int run_help(const CLI::App& app, const HelpArgs& a) {
+  if (a.man) {
+    std::fputs(make_man_page(app).c_str(), stdout);
+    return 0;
+  }
+  // The formatter directly: App::help() would describe the help command, which is the one selected.
+  if (a.topic.empty()) {
+    std::fputs(app.get_formatter()->make_help(&app, "qftplan", CLI::AppFormatMode::Normal).c_str(), stdout);
+    return 0;
+  }
+  std::string known;
+  for (const auto* c : app.get_subcommands([](const CLI::App*) { return true; })) {
+    if (c->get_name() == a.topic) {
+      std::fputs(c->get_formatter()->make_help(c, "qftplan " + c->get_name(), CLI::AppFormatMode::Normal).c_str(), stdout);
+      return 0;
+    }
+    known += (known.empty() ? "" : ", ") + c->get_name();
+  }
+  throw InputError("unknown help topic '" + a.topic + "' (topics: " + known + ")");
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -191,6 +542,20 @@ int main(int argc, char** argv) {
   plan->add_option("--seed", pa.seed, "seed of every randomised search")->capture_default_str();
   plan->add_flag("--measure", pa.measure, "end with a measurement of every register qubit");
   plan->add_flag("--explain", pa.explain, "print the chains considered and the degrees scored");
+  plan->add_option("--time-limit", pa.time_limit,
+                   "stop every search after SECONDS (from the start) and keep the best plan found; exit status 3");
+  {
+    // One table (plan_strategies) drives this help text and the unknown-strategy error.
+    std::string help = "planning strategy:";
+    for (const auto& s : plan_strategies()) help += std::string("\n  ") + s.name + ": " + s.description;
+    plan->add_option("--strategy", pa.strategy, help)->capture_default_str();
+  }
+  plan->add_option("--objective", pa.objective, "what --strategy auto optimises: esp, depth or cx")
+      ->capture_default_str();
+  plan->add_option("--end-order", pa.end_order,
+                   "free: output bits end where the plan leaves them; same: SWAPs at the end put output bit k on "
+                   "the qubit that held input bit k")
+      ->capture_default_str();
 
   CheckArgs ca;
   auto* check = app.add_subcommand("check", "prove that an OpenQASM file implements a QFT on a device");
@@ -202,6 +567,45 @@ int main(int argc, char** argv) {
   check->add_option("--initial", ca.initial, "placement (default: the file's '// placement:' comment)");
   check->add_option("--final", ca.final_, "final placement (default: the file's '// final_placement:' comment)");
 
+  // ---- survey, merge, draw (issue 6) ----
+  SurveyArgs sa;
+  auto* survey = app.add_subcommand("survey", "plan every combination of devices, register sizes and settings in parallel; table, CSV, JSON lines, charts");
+  survey->add_option("devices", sa.devices,
+                     "devices: YAML files, built-in specs, or FAMILY:* (line, ring, grid, heavy-hex, full) for the "
+                     "smallest member that holds each register size")
+      ->required();
+  survey->add_option("--qubits,-n", sa.qubits, "register sizes: N, A:B, A:B:STEP, comma-separated (4:64:4)")->required();
+  survey->add_option("--approx", sa.approx, "approximation settings, comma-separated: none, M, auto")->capture_default_str();
+  survey->add_flag("--inverse", sa.inverse, "survey the inverse QFT (same as --direction inverse)");
+  survey->add_option("--direction", sa.direction, "forward, inverse or both (default: forward)");
+  survey->add_option("--strategy", sa.strategy, "planning strategies, comma-separated (see qftplan help plan)")
+      ->capture_default_str();
+  survey->add_option("--jobs,-j", sa.jobs, "threads (default: every core)");
+  survey->add_option("--seed", sa.seed, "seed of every randomised search")->capture_default_str();
+  survey->add_option("--shard", sa.shard, "run only slice K of M (K/M, 1 <= K <= M): runs K-1, K-1+M, K-1+2M, ...");
+  survey->add_option("--time-limit", sa.time_limit,
+                     "stop each run's searches after SECONDS and keep its best plan (status time-limit)");
+  survey->add_flag("--no-progress", sa.no_progress, "no progress line (it is drawn only when standard error is a terminal)");
+  add_survey_output_options(survey, sa.out);
+
+  MergeArgs ma;
+  auto* merge = app.add_subcommand("merge", "merge the --jsonl files of survey shards into the table, CSV, JSON lines and charts of one run");
+  merge->add_option("files", ma.files, "JSON-lines files written by qftplan survey --jsonl")->required();
+  merge->add_flag("--allow-missing", ma.allow_missing, "merge even when some runs of the survey are in none of the files");
+  add_survey_output_options(merge, ma.out);
+
+  DrawArgs wa;
+  auto* draw = app.add_subcommand("draw", "draw a device as SVG: couplers shaded by error; with --plan the chain, placements and blocks per coupler");
+  draw->add_option("device", wa.device, "built-in spec or YAML file")->required();
+  draw->add_option("--plan", wa.plan, "a plan report of this device (qftplan plan --report FILE)");
+  draw->add_option("--svg", wa.svg, "write the drawing to FILE ('-' for standard output)")->required();
+
+  // Registered last so that it describes every command above.
+  HelpArgs ha;
+  auto* help = app.add_subcommand("help", "print the options of a command, or (--man) the manual page, from the tables --help uses");
+  help->add_option("topic", ha.topic, "a command name (see the list above); none: the overview");
+  help->add_flag("--man", ha.man, "write the manual page qftplan(1) in man(7) format to standard output");
+
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
@@ -212,11 +616,24 @@ int main(int argc, char** argv) {
     if (device->parsed()) return run_device(da);
     if (plan->parsed()) return run_plan(pa);
     if (check->parsed()) return run_check(ca);
+    if (help->parsed()) return run_help(app, ha);
+    if (survey->parsed()) return run_survey_command(sa);  // issue 6
+    if (merge->parsed()) return run_merge_command(ma);    // issue 6
+    if (draw->parsed()) return run_draw_command(wa);      // issue 6
   } catch (const InputError& e) {
     std::fprintf(stderr, "qftplan: %s\n", e.what());
     return kExitBadInput;
   } catch (const PlanningError& e) {
     std::fprintf(stderr, "qftplan: %s\n", e.what());
+    return kExitFailed;
+  } catch (const Interrupted& e) {
+    std::fprintf(stderr, "qftplan: %s\n", e.what());
+    return 128 + (g_signal.load() ? g_signal.load() : SIGINT);  // the shell's convention: 130 for Ctrl-C
+  } catch (const TimeLimitReached& e) {
+    std::fprintf(stderr, "qftplan: %s; no plan was found in time\n", e.what());
+    return kExitTimeLimit;
+  } catch (const std::bad_alloc&) {
+    std::fprintf(stderr, "qftplan: out of memory\n");
     return kExitFailed;
   } catch (const std::exception& e) {
     std::fprintf(stderr, "qftplan: %s\n", e.what());

@@ -3,8 +3,10 @@
 
 # Packages for building the library, the program and the test suite.
 QFTPLAN_BUILD_PACKAGES=(cmake g++ make pkg-config libboost-graph-dev libeigen3-dev libyaml-cpp-dev libcli11-dev
-  libfmt-dev nlohmann-json3-dev)
-QFTPLAN_TEST_PACKAGES=(libgtest-dev libfftw3-dev nodejs)
+  libfmt-dev nlohmann-json3-dev
+  pybind11-dev python3-dev)  # the Python module (skipped by the build when these are missing)
+QFTPLAN_TEST_PACKAGES=(libgtest-dev libfftw3-dev nodejs
+  python3-pytest python3-numpy python3-jsonschema)  # the Python module's tests and the schema checks
 
 # ensure_packages PKG...: apt-get installs the ones not yet installed (we run as root).
 ensure_packages() {

@@ -1,0 +1,86 @@
+OPENQASM 2.0;
+include "qelib1.inc";
+// written by qftplan 0.1.0
+// device: grid:2x4
+// transform: QFT on 4 qubits, exact
+// strategy: chain (reversal network)
+// placement: 1,2,3,7
+// final_placement: 1,2,3,7
+// placement[k] holds input bit k (weight 2^k) at the start; final_placement[k] holds output bit k at the end
+qreg q[8];
+h q[7];
+rz(pi/4) q[7];
+rz(pi/4) q[3];
+h q[3];
+cz q[7], q[3];
+h q[3];
+rz(-pi/4) q[3];
+h q[7];
+cz q[3], q[7];
+h q[7];
+h q[3];
+cz q[7], q[3];
+h q[3];
+h q[7];
+rz(pi/8) q[3];
+rz(pi/8) q[2];
+h q[2];
+cz q[3], q[2];
+h q[2];
+rz(-pi/8) q[2];
+h q[3];
+cz q[2], q[3];
+h q[3];
+h q[2];
+cz q[3], q[2];
+h q[2];
+rz(pi/16) q[2];
+rz(pi/16) q[1];
+h q[1];
+cz q[2], q[1];
+h q[1];
+rz(-pi/16) q[1];
+h q[2];
+cz q[1], q[2];
+h q[2];
+h q[1];
+cz q[2], q[1];
+h q[1];
+rz(pi/4) q[7];
+rz(pi/4) q[3];
+h q[3];
+cz q[7], q[3];
+h q[3];
+rz(-pi/4) q[3];
+h q[7];
+cz q[3], q[7];
+h q[7];
+h q[3];
+cz q[7], q[3];
+h q[3];
+h q[7];
+rz(pi/8) q[3];
+rz(pi/8) q[2];
+h q[2];
+cz q[3], q[2];
+h q[2];
+rz(-pi/8) q[2];
+h q[3];
+cz q[2], q[3];
+h q[3];
+h q[2];
+cz q[3], q[2];
+h q[2];
+rz(pi/4) q[7];
+rz(pi/4) q[3];
+h q[3];
+cz q[7], q[3];
+h q[3];
+rz(-pi/4) q[3];
+h q[7];
+cz q[3], q[7];
+h q[7];
+h q[3];
+cz q[7], q[3];
+h q[3];
+h q[7];

@@ -1,0 +1,34 @@
+OPENQASM 3.0;
+include "stdgates.inc";
+// written by qftplan 0.1.0
+// device: heavy-hex:1x1
+// transform: QFT on 5 qubits, approximate (degree 2)
+// strategy: chain (adjacent network)
+// placement: 2,3,4,6,11
+// final_placement: 11,6,4,3,2
+// placement[k] holds input bit k (weight 2^k) at the start; final_placement[k] holds output bit k at the end
+h $11;
+rz(pi/2**2) $11;
+rz(pi/2**2) $6;
+cx $11, $6;
+rz(-pi/2**2) $6;
+cx $11, $6;
+h $6;
+rz(pi/2**2) $6;
+rz(pi/2**2) $4;
+cx $6, $4;
+rz(-pi/2**2) $4;
+cx $6, $4;
+h $4;
+rz(pi/2**2) $4;
+rz(pi/2**2) $3;
+cx $4, $3;
+rz(-pi/2**2) $3;
+cx $4, $3;
+h $3;
+rz(pi/2**2) $3;
+rz(pi/2**2) $2;
+cx $3, $2;
+rz(-pi/2**2) $2;
+cx $3, $2;
+h $2;

@@ -1,0 +1,85 @@
+OPENQASM 3.0;
+include "stdgates.inc";
+// written by qftplan 0.1.0
+// device: heavy-hex:1x1
+// transform: inverse QFT on 6 qubits, approximate (degree 3)
+// strategy: routed
+// placement: 11,1,6,4,3,2
+// final_placement: 1,2,3,4,6,11
+// placement[k] holds input bit k (weight 2^k) at the start; final_placement[k] holds output bit k at the end
+bit[6] c;
+h $2;
+rz(-pi/2**2) $3;
+rz(-pi/2**2) $2;
+cx $3, $2;
+rz(pi/2**2) $2;
+cx $3, $2;
+cx $3, $4;
+cx $4, $3;
+cx $3, $4;
+rz(-pi/2**3) $3;
+rz(-pi/2**3) $2;
+cx $3, $2;
+rz(pi/2**3) $2;
+cx $3, $2;
+cx $1, $2;
+cx $2, $1;
+cx $1, $2;
+h $4;
+rz(-pi/2**3) $6;
+rz(-pi/2**3) $4;
+cx $6, $4;
+rz(pi/2**3) $4;
+cx $6, $4;
+cx $3, $4;
+cx $4, $3;
+cx $3, $4;
+rz(-pi/2**2) $4;
+rz(-pi/2**2) $3;
+cx $4, $3;
+rz(pi/2**2) $3;
+cx $4, $3;
+cx $2, $3;
+cx $3, $2;
+cx $2, $3;
+h $4;
+rz(-pi/2**2) $6;
+rz(-pi/2**2) $4;
+cx $6, $4;
+rz(pi/2**2) $4;
+cx $6, $4;
+cx $3, $4;
+cx $4, $3;
+cx $3, $4;
+h $6;
+rz(-pi/2**3) $4;
+rz(-pi/2**3) $3;
+cx $4, $3;
+rz(pi/2**3) $3;
+cx $4, $3;
+rz(-pi/2**3) $11;
+rz(-pi/2**3) $6;
+cx $11, $6;
+rz(pi/2**3) $6;
+cx $11, $6;
+cx $4, $6;
+cx $6, $4;
+cx $4, $6;
+rz(-pi/2**2) $6;
+rz(-pi/2**2) $4;
+cx $6, $4;
+rz(pi/2**2) $4;
+cx $6, $4;
+h $6;
+rz(-pi/2**2) $11;
+rz(-pi/2**2) $6;
+cx $11, $6;
+rz(pi/2**2) $6;
+cx $11, $6;
+h $11;
+c[0] = measure $1;
+c[1] = measure $2;
+c[2] = measure $3;
+c[3] = measure $4;
+c[4] = measure $6;
+c[5] = measure $11;

@@ -1,0 +1,85 @@
+OPENQASM 3.0;
+include "stdgates.inc";
+// written by qftplan 0.1.0
+// device: line:6
+// transform: inverse QFT on 6 qubits, approximate (degree 3)
+// strategy: routed
+// placement: 5,0,4,3,2,1
+// final_placement: 0,1,2,3,4,5
+// placement[k] holds input bit k (weight 2^k) at the start; final_placement[k] holds output bit k at the end
+bit[6] c;
+h $1;
+rz(-pi/2**2) $2;
+rz(-pi/2**2) $1;
+cx $2, $1;
+rz(pi/2**2) $1;
+cx $2, $1;
+cx $2, $3;
+cx $3, $2;
+cx $2, $3;
+rz(-pi/2**3) $2;
+rz(-pi/2**3) $1;
+cx $2, $1;
+rz(pi/2**3) $1;
+cx $2, $1;
+cx $0, $1;
+cx $1, $0;
+cx $0, $1;
+h $3;
+rz(-pi/2**3) $4;
+rz(-pi/2**3) $3;
+cx $4, $3;
+rz(pi/2**3) $3;
+cx $4, $3;
+cx $2, $3;
+cx $3, $2;
+cx $2, $3;
+rz(-pi/2**2) $3;
+rz(-pi/2**2) $2;
+cx $3, $2;
+rz(pi/2**2) $2;
+cx $3, $2;
+cx $1, $2;
+cx $2, $1;
+cx $1, $2;
+h $3;
+rz(-pi/2**2) $4;
+rz(-pi/2**2) $3;
+cx $4, $3;
+rz(pi/2**2) $3;
+cx $4, $3;
+cx $2, $3;
+cx $3, $2;
+cx $2, $3;
+h $4;
+rz(-pi/2**3) $3;
+rz(-pi/2**3) $2;
+cx $3, $2;
+rz(pi/2**3) $2;
+cx $3, $2;
+rz(-pi/2**3) $5;
+rz(-pi/2**3) $4;
+cx $5, $4;
+rz(pi/2**3) $4;
+cx $5, $4;
+cx $3, $4;
+cx $4, $3;
+cx $3, $4;
+rz(-pi/2**2) $4;
+rz(-pi/2**2) $3;
+cx $4, $3;
+rz(pi/2**2) $3;
+cx $4, $3;
+h $4;
+rz(-pi/2**2) $5;
+rz(-pi/2**2) $4;
+cx $5, $4;
+rz(pi/2**2) $4;
+cx $5, $4;
+h $5;
+c[0] = measure $0;
+c[1] = measure $1;
+c[2] = measure $2;
+c[3] = measure $3;
+c[4] = measure $4;
+c[5] = measure $5;

@@ -1,0 +1,34 @@
+OPENQASM 3.0;
+include "stdgates.inc";
+// written by qftplan 0.1.0
+// device: line:6
+// transform: QFT on 5 qubits, approximate (degree 2)
+// strategy: chain (adjacent network)
+// placement: 1,2,3,4,5
+// final_placement: 5,4,3,2,1
+// placement[k] holds input bit k (weight 2^k) at the start; final_placement[k] holds output bit k at the end
+h $5;
+rz(pi/2**2) $5;
+rz(pi/2**2) $4;
+cx $5, $4;
+rz(-pi/2**2) $4;
+cx $5, $4;
+h $4;
+rz(pi/2**2) $4;
+rz(pi/2**2) $3;
+cx $4, $3;
+rz(-pi/2**2) $3;
+cx $4, $3;
+h $3;
+rz(pi/2**2) $3;
+rz(pi/2**2) $2;
+cx $3, $2;
+rz(-pi/2**2) $2;
+cx $3, $2;
+h $2;
+rz(pi/2**2) $2;
+rz(pi/2**2) $1;
+cx $2, $1;
+rz(-pi/2**2) $1;
+cx $2, $1;
+h $1;

@@ -1,0 +1,48 @@
+#include "qftplan/run_budget.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+namespace qftplan {
+
+RunBudget::RunBudget(std::optional<double> seconds, const std::atomic<bool>* interrupt)
+    : seconds_(seconds), interrupt_(interrupt) {
+  if (seconds_) {
+    // Clamp to a century so that absurd limits cannot overflow the clock's representation.
+    const double s = std::isfinite(*seconds_) ? std::clamp(*seconds_, 0.0, 3.2e9) : 3.2e9;
+    deadline_ = std::chrono::steady_clock::now() +
+                std::chrono::duration_cast<std::chrono::steady_clock::duration>(std::chrono::duration<double>(s));
+  }
+}
+
+StopReason RunBudget::stop_reason() const {
+  if (interrupted()) return StopReason::interrupted;
+  if (seconds_ && std::chrono::steady_clock::now() >= deadline_) return StopReason::time_limit;
+  return StopReason::none;
+}
+
+void throw_if_interrupted(const RunBudget* budget) {
+  if (budget && budget->interrupted()) throw Interrupted();
+}
+
+void throw_if_exhausted(const RunBudget* budget, const std::string& what) {
+  if (!budget) return;
+  switch (budget->stop_reason()) {
+    case StopReason::none: return;
+    case StopReason::interrupted: throw Interrupted();
+    case StopReason::time_limit: throw TimeLimitReached("the time limit ran out during " + what);
+  }
+}
+
+void InterruptCheckSink::gate(const Gate& g) {
+  // A relaxed atomic load is cheap, but streams reach billions of gates: look every 4096.
+  if ((++count_ & 4095u) == 0) throw_if_interrupted(budget_);
+  if (next_) next_->gate(g);
+}
+
+void InterruptCheckSink::finish() {
+  throw_if_interrupted(budget_);
+  if (next_) next_->finish();
+}
+
+}  // namespace qftplan

@@ -1,0 +1,54 @@
+#include "qftplan/svg_markers.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <numbers>
+
+#include "qftplan/svg_palette.hpp"
+
+namespace qftplan {
+
+MarkerShape series_marker(std::size_t i) {
+  const std::size_t colours = okabe_ito_colours().size();
+  return static_cast<MarkerShape>((i + i / colours) % kMarkerShapeCount);
+}
+
+void draw_marker(SvgDocument& doc, MarkerShape shape, double x, double y, double size, const std::string& colour) {
+  const double h = size / 2;
+  SvgPaint filled;
+  filled.fill = colour;
+  filled.stroke = "#ffffff";
+  filled.stroke_width = 0.8;
+  SvgPaint stroked;
+  stroked.stroke = colour;
+  stroked.stroke_width = std::max(1.6, size / 5);
+  stroked.linecap = "round";
+  switch (shape) {
+    case MarkerShape::circle: doc.circle(x, y, h * 0.9, filled); break;
+    case MarkerShape::square: doc.rect(x - h * 0.8, y - h * 0.8, h * 1.6, h * 1.6, filled); break;
+    case MarkerShape::triangle_up: doc.polygon({{x, y - h}, {x + h, y + h * 0.75}, {x - h, y + h * 0.75}}, filled); break;
+    case MarkerShape::triangle_down:
+      doc.polygon({{x, y + h}, {x + h, y - h * 0.75}, {x - h, y - h * 0.75}}, filled);
+      break;
+    case MarkerShape::diamond: doc.polygon({{x, y - h}, {x + h, y}, {x, y + h}, {x - h, y}}, filled); break;
+    case MarkerShape::cross:
+      doc.line(x - h * 0.75, y - h * 0.75, x + h * 0.75, y + h * 0.75, stroked);
+      doc.line(x - h * 0.75, y + h * 0.75, x + h * 0.75, y - h * 0.75, stroked);
+      break;
+    case MarkerShape::plus:
+      doc.line(x - h, y, x + h, y, stroked);
+      doc.line(x, y - h, x, y + h, stroked);
+      break;
+    case MarkerShape::hexagon: {
+      std::vector<SvgPoint> p;
+      for (int k = 0; k < 6; ++k) {
+        const double a = std::numbers::pi / 3 * k;
+        p.push_back({x + h * std::cos(a), y + h * std::sin(a)});
+      }
+      doc.polygon(p, filled);
+      break;
+    }
+  }
+}
+
+}  // namespace qftplan

@@ -1,0 +1,124 @@
+"""Bad input raises qftplan.InputError with the command line's message (file:line:column); a request that
+cannot be planned raises qftplan.PlanningError; both carry exactly what `qftplan` prints after 'qftplan: '."""
+
+import pytest
+
+from conftest import SOURCE_DIR, run_cli
+
+BAD_DEVICES = sorted((SOURCE_DIR / "tests" / "data" / "bad_devices").glob("*.yaml"))
+
+
+def cli_message(*args):
+    status, _, err = run_cli(*args)
+    assert err.startswith("qftplan: "), err
+    return status, err[len("qftplan: "):].rstrip("\n")
+
+
+def test_exception_classes(qftplan):
+    assert issubclass(qftplan.InputError, ValueError)
+    assert issubclass(qftplan.PlanningError, RuntimeError)
+
+
+@pytest.mark.parametrize("path", BAD_DEVICES, ids=[p.name for p in BAD_DEVICES])
+def test_bad_device_files_give_the_command_line_message(qftplan, path):
+    status, message = cli_message("device", path)
+    assert status == 2
+    with pytest.raises(qftplan.InputError) as info:
+        qftplan.load_device(str(path))
+    assert str(info.value) == message
+    e = info.value
+    assert e.file == str(path)
+    # The position the message starts with is the one the attributes carry.
+    prefix = str(path)
+    if e.line is not None:
+        prefix += f":{e.line}"
+        if e.column is not None:
+            prefix += f":{e.column}"
+    assert message == f"{prefix}: {e.message}"
+
+
+def test_a_position_is_reported(qftplan):
+    path = SOURCE_DIR / "tests" / "data" / "bad_devices" / "coupler_duplicate.yaml"
+    with pytest.raises(qftplan.InputError) as info:
+        qftplan.Device(path)  # a path-like works too
+    assert (info.value.line, info.value.column) == (8, 5)
+    assert str(info.value).startswith(f"{path}:8:5: ")
+
+
+def test_yaml_text_names_its_source(qftplan):
+    with pytest.raises(qftplan.InputError) as info:
+        qftplan.device_from_yaml("name: x\nqbits: 3\ncouplers: []\n", source="mine.yaml")
+    assert info.value.file == "mine.yaml" and info.value.line == 2
+    assert "did you mean 'qubits'?" in str(info.value)
+
+
+@pytest.mark.parametrize("kwargs, flags", [
+    ({"approx": "seven"}, ["--approx", "seven"]),
+    ({"approx": 0}, ["--approx", "0"]),
+    ({"gates": "cy"}, ["--gates", "cy"]),
+    ({"end_order": "reversed"}, ["--end-order", "reversed"]),
+    ({"placement": "0,1,x"}, ["--placement", "0,1,x"]),
+    ({"placement": [0, 1, 1]}, ["--placement", "0,1,1"]),
+    ({"strategy": "teleport"}, ["--strategy", "teleport"]),
+    ({"format": "qasm4"}, ["--format", "qasm4"]),
+])
+def test_bad_plan_arguments_give_the_command_line_message(qftplan, kwargs, flags):
+    status, message = cli_message("plan", "--device", "line:5", "--qubits", 3, *flags)
+    assert status == 2
+    with pytest.raises(qftplan.InputError) as info:
+        qftplan.plan("line:5", 3, **kwargs)
+    assert str(info.value) == message
+
+
+def test_unplannable_request_raises_planning_error(qftplan):
+    status, message = cli_message("plan", "--device", "line:4", "--qubits", 6)
+    assert status == 1
+    with pytest.raises(qftplan.PlanningError) as info:
+        qftplan.plan("line:4", 6)
+    assert str(info.value) == message
+
+
+def test_unknown_device_spec(qftplan):
+    status, message = cli_message("device", "hexagon:3")
+    assert status == 2
+    with pytest.raises(qftplan.InputError) as info:
+        qftplan.load_device("hexagon:3")
+    assert str(info.value) == message
+    with pytest.raises(qftplan.InputError):
+        qftplan.grid(0, 3)
+
+
+def test_bad_circuit_gives_line_and_column(qftplan, tmp_path):
+    path = tmp_path / "bad.qasm"
+    path.write_text('OPENQASM 3.0;\ninclude "stdgates.inc";\nh $0;\nfrobnicate $1;\n')
+    status, message = cli_message("check", path, "--device", "line:3", "--qubits", 2, "--initial", "0,1", "--final", "1,0")
+    assert status == 2
+    with pytest.raises(qftplan.InputError) as info:
+        qftplan.check_file(path, "line:3", 2, initial=[0, 1], final=[1, 0])
+    assert str(info.value) == message
+    assert info.value.file == str(path) and info.value.line == 4
+    with pytest.raises(qftplan.InputError) as info:
+        qftplan.check(path.read_text(), "line:3", 2, initial=[0, 1], final=[1, 0], source=str(path))
+    assert str(info.value) == message
+
+
+def test_wrong_circuit_is_a_verdict_not_an_exception(qftplan, tmp_path):
+    plan = qftplan.plan("line:4", 4, gates="logical")
+    text = plan.qasm.replace("cp(pi/2**2)", "cp(pi/2**3)", 1)
+    path = tmp_path / "wrong.qasm"
+    path.write_text(text)
+    status, _, err = run_cli("check", path, "--device", "line:4", "--qubits", 4)
+    assert status == 1
+    message = err.rstrip("\n")  # a verdict is printed without the program's name
+    verdict = qftplan.check_file(path, "line:4", 4)
+    assert not verdict and verdict.line is not None
+    assert str(verdict) == message
+    good = qftplan.check(plan.qasm, "line:4", 4)
+    assert good and good.structural_proved
+
+
+def test_wrong_argument_types(qftplan):
+    with pytest.raises(TypeError):
+        qftplan.plan(3.5, 3)
+    with pytest.raises(TypeError):
+        qftplan.plan("line:4", 3, approx=True)

@@ -1,0 +1,61 @@
+"""A survey through the module gives the command line's CSV and JSON lines, and its rows agree with
+single plans."""
+
+import json
+
+import pytest
+
+from conftest import TOPOLOGIES, run_cli
+
+NOISY = str(TOPOLOGIES / "harbor-noisy-20.yaml")
+
+
+@pytest.mark.parametrize("devices, qubits, approx, direction, strategy", [
+    (["line:6", "grid:*"], "2:6:2", "none,3", "forward", "chain"),
+    ([NOISY, "heavy-hex:*"], "4,9", "auto,2", "both", "chain,routed"),
+    (["ring:5"], "3:7", "none", "inverse", "auto"),
+])
+def test_module_csv_equals_command_line_csv(qftplan, tmp_path, devices, qubits, approx, direction, strategy):
+    csv_path = tmp_path / "s.csv"
+    jsonl_path = tmp_path / "s.jsonl"
+    run_cli("survey", *devices, "--qubits", qubits, "--approx", approx, "--direction", direction, "--strategy", strategy,
+            "--jobs", 1, "--no-timing", "--quiet", "--csv", csv_path, "--jsonl", jsonl_path, check=True)
+    inverse = {"forward": False, "inverse": True, "both": "both"}[direction]
+    kwargs = dict(approx=approx, inverse=inverse, strategy=strategy.split(","))
+    # The CSV is compared byte for byte (RFC 4180 line ends included): read without newline translation.
+    assert qftplan.survey_csv(devices, qubits, **kwargs) == csv_path.read_bytes().decode()
+    rows = qftplan.survey(devices, qubits, jobs=2, **kwargs)
+    assert rows == [json.loads(line) for line in jsonl_path.read_text().splitlines()]
+
+
+def test_rows_agree_with_single_plans(qftplan):
+    rows = qftplan.survey([qftplan.grid(3, 3), "line:9"], [4, 7], approx=[None, 3])
+    assert [r["index"] for r in rows] == list(range(8)) and all(r["of"] == 8 for r in rows)
+    for r in rows:
+        assert r["status"] == "ok"
+        approx = "none" if r["asked_approx"] == "none" else int(r["asked_approx"])
+        report = qftplan.plan(r["device"], r["qubits"], approx=approx).report
+        for field, key in [("cx_count", "cx_count"), ("swaps", "swaps"), ("blocks", "two_qubit_blocks"),
+                           ("depth_2q", "depth_2q"), ("network", "network"), ("strategy", "strategy")]:
+            assert r[field] == report[key], (field, r, report[key])
+
+
+def test_failed_cases_are_rows(qftplan):
+    rows = qftplan.survey("line:4", [3, 6])
+    assert [r["status"] for r in rows] == ["ok", "failed"]
+    assert "fewer than the 6 requested" in rows[1]["reason"]
+
+
+def test_timing_column(qftplan):
+    assert "elapsed_ms" not in qftplan.survey("line:4", 3)[0]
+    assert qftplan.survey("line:4", 3, timing=True)[0]["elapsed_ms"] >= 0
+
+
+def test_bad_survey_arguments(qftplan):
+    status, _, err = run_cli("survey", "line:4", "--qubits", "3", "--strategy", "teleport", "--quiet")
+    assert status == 2
+    with pytest.raises(qftplan.InputError) as info:
+        qftplan.survey("line:4", 3, strategy="teleport")
+    assert "qftplan: " + str(info.value) == err.rstrip("\n")
+    with pytest.raises(qftplan.InputError):
+        qftplan.survey("line:4", "3:x")
