@@ -287,7 +287,8 @@ DeviceDescription fuzzed_device(ByteReader& r) {
     add(a, b);
   }
   d.qubits = N;
-  // A name with whatever bytes come next: it reaches the OpenQASM header and the report.
+  // A name with whatever bytes come next (line breaks too: names are free text): it reaches the
+  // OpenQASM header, where a line break once ended the comment and injected the rest as gates.
   const int name_len = r.below(4);
   d.name = "fuzz";
   for (int k = 0; k < name_len; ++k) d.name += static_cast<char>(r.next());
@@ -347,18 +348,12 @@ std::string plan_text(const Device& dev, const PlanOptions& opt, QasmVersion ver
 void plan_input(std::string_view data) {
   ByteReader r(data);
   std::optional<Device> dev;
-  DeviceDescription desc = fuzzed_device(r);
-  const bool printable_name =
-      std::none_of(desc.name.begin(), desc.name.end(), [](char c) { return static_cast<unsigned char>(c) < 0x20 || c == 0x7f; });
   try {
-    dev.emplace(std::move(desc));
+    dev.emplace(fuzzed_device(r));
   } catch (const InputError& e) {
-    check_message(e);
-    // The decoder builds valid devices except for the name: a refusal means the two disagree.
-    if (printable_name) broken(std::string("a valid fuzzed device was refused: ") + e.what());
-    return;
+    // The decoder only builds valid devices; a refusal means the two disagree on validity.
+    broken(std::string("a valid fuzzed device was refused: ") + e.what());
   }
-  require(printable_name, "a device name with a control character was accepted");
   const int N = dev->qubit_count();
   PlanOptions opt;
   opt.spec.qubits = 1 + r.below(N);
@@ -399,8 +394,8 @@ void plan_input(std::string_view data) {
   } catch (const InputError& e) {
     check_message(e);
     return;
-  } catch (const PlanningError& e) {
-    check_message(e);
+  } catch (const PlanningError&) {
+    // Its message may quote the device name as given; the command line prints it escaped.
     return;
   }
   require(plan.cut_short.empty(), "a search was cut short without a time limit");

@@ -5,6 +5,7 @@
 
 #include "bindings.hpp"
 #include "qftplan/report.hpp"
+#include "qftplan/survey_output.hpp"
 
 PYBIND11_MODULE(qftplan, m) {
   using namespace qftplan::python;
@@ -17,6 +18,7 @@ PYBIND11_MODULE(qftplan, m) {
       "'file:line:column: message'; a request that cannot be planned raises qftplan.PlanningError.";
   m.attr("__version__") = QFTPLAN_VERSION_STRING;
   m.attr("REPORT_SCHEMA_VERSION") = qftplan::kReportSchemaVersion;
+  m.attr("SURVEY_ROW_SCHEMA_VERSION") = qftplan::kSurveyRowSchemaVersion;
   bind_errors(m);
   bind_device(m);
   bind_plan(m);

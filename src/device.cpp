@@ -34,11 +34,6 @@ void check_positive(const std::optional<double>& v, const std::string& what) {
 
 Device::Device(DeviceDescription description) : d_(std::move(description)) {
   const int n = d_.qubits;
-  // The name goes into OpenQASM header comments: a line break there would inject text into the file.
-  for (char c : d_.name)
-    if (static_cast<unsigned char>(c) < 0x20 || c == 0x7f)
-      throw InputError(fmt::format("the device name must be one line of printable text (it holds character code {:#04x})",
-                                   static_cast<unsigned char>(c)));
   if (n <= 0) throw InputError("a device needs at least one qubit");
   if (n > kMaxDeviceQubits)
     throw InputError(fmt::format("{} qubits is more than the limit of {}", n, kMaxDeviceQubits));

@@ -488,12 +488,6 @@ class Reader {
       fail(value_pos(*name), fmt::format("'name' must be text, got {}", describe(name->value)));
     d.name = name->value.text();
     if (d.name.empty()) fail(value_pos(*name), "'name' must not be empty");
-    // The name is copied into OpenQASM header comments and one-line messages: a line break would
-    // inject text (even gates) into the written circuit.
-    for (char c : d.name)
-      if (static_cast<unsigned char>(c) < 0x20 || c == 0x7f)
-        fail(value_pos(*name), fmt::format("'name' must be one line of printable text (it holds character code {:#04x})",
-                                           static_cast<unsigned char>(c)));
 
     const Entry* qubits = find(top, "qubits");
     if (!qubits) fail(root_pos, "missing required key 'qubits'");

@@ -108,77 +108,115 @@ bool absorb_swap(K& kind, bool& dead, K cp, K cp_swap, K swap) {
 
 }  // namespace
 
-std::unique_ptr<QftNetwork> with_order_restored(std::unique_ptr<QftNetwork> inner) {
-  const int n = inner->wires();
-  // Dry run: where every wire ends.
-  const auto end = inner->final_positions();
-  std::vector<long long> keys(n);  // keys[p]: target position of the wire at position p
-  for (int w = 0; w < n; ++w) keys[end[w]] = n - 1 - w;
-  if (count_inversions(keys) == 0) return inner;
+namespace {
 
+// Keys of a network's end: keys[p] is the position the wire ending at position p must reach.
+std::vector<long long> end_keys(const QftNetwork& net) {
+  const int n = net.wires();
+  const auto end = net.final_positions();
+  std::vector<long long> keys(n);
+  for (int w = 0; w < n; ++w) keys[end[w]] = n - 1 - w;
+  return keys;
+}
+
+long long step_cost(Kind k) { return k == Kind::cp ? 2 : is_swap(k) ? 3 : 0; }
+
+// A network's steps after the restoring SWAPs that can merge into them have done so.
+struct MergedSteps {
   std::vector<NetworkOp> ops;
   std::vector<std::size_t> chunk_of;  // chunk index of each step
+  std::vector<char> dead;             // removed by a merge
+  std::vector<int> at;                // wire at each position afterwards
+  std::vector<long long> keys;        // target position of the wire at each position afterwards
+  long long merged = 0;               // SWAPs merged
+  long long cost = 0;                 // native two-qubit gates of the remaining steps
+};
+
+// First every out-of-order neighbour pair whose last steps are one step on both wires: the SWAP
+// merges into that step (saving gates), and a merge may expose another. Each merge removes one
+// inversion, like any exchange of an out-of-order neighbour pair, so the total stays minimal.
+MergedSteps merge_restoring_swaps(const QftNetwork& inner) {
+  const int n = inner.wires();
+  MergedSteps m;
+  m.keys = end_keys(inner);
   std::vector<NetworkOp> buf;
-  for (int c = 0; c < inner->chunk_count(); ++c) {
-    inner->chunk(c, buf);
+  for (int c = 0; c < inner.chunk_count(); ++c) {
+    inner.chunk(c, buf);
     for (const auto& op : buf) {
-      ops.push_back(op);
-      chunk_of.push_back(static_cast<std::size_t>(c));
+      m.ops.push_back(op);
+      m.chunk_of.push_back(static_cast<std::size_t>(c));
+      m.cost += step_cost(op.kind);
     }
   }
-  std::vector<char> dead(ops.size(), 0);
+  m.dead.assign(m.ops.size(), 0);
   std::vector<std::vector<std::size_t>> last(n);  // steps touching each wire, in order
-  for (std::size_t x = 0; x < ops.size(); ++x) {
-    last[ops[x].i].push_back(x);
-    if (ops[x].j >= 0) last[ops[x].j].push_back(x);
+  for (std::size_t x = 0; x < m.ops.size(); ++x) {
+    last[m.ops[x].i].push_back(x);
+    if (m.ops[x].j >= 0) last[m.ops[x].j].push_back(x);
   }
-  std::vector<int> at(n);
-  for (int w = 0; w < n; ++w) at[end[w]] = w;
-
-  // First every out-of-order neighbour pair whose last steps are one step on both wires: the SWAP
-  // merges into that step (saving gates), and a merge may expose another; then the rest in rounds.
-  long long end_swaps = 0;
+  const auto end = inner.final_positions();
+  m.at.resize(n);
+  for (int w = 0; w < n; ++w) m.at[end[w]] = w;
   for (bool changed = true; changed;) {
     changed = false;
     for (int p = 0; p + 1 < n; ++p) {
-      const int a = at[p], b = at[p + 1];
-      if (keys[p] <= keys[p + 1] || last[a].empty() || last[b].empty() || last[a].back() != last[b].back()) continue;
+      const int a = m.at[p], b = m.at[p + 1];
+      if (m.keys[p] <= m.keys[p + 1] || last[a].empty() || last[b].empty() || last[a].back() != last[b].back()) continue;
       const std::size_t x = last[a].back();
+      const Kind before = m.ops[x].kind;
       bool gone = false;
-      if (!absorb_swap(ops[x].kind, gone, Kind::cp, Kind::cp_swap, Kind::swap)) continue;
+      if (!absorb_swap(m.ops[x].kind, gone, Kind::cp, Kind::cp_swap, Kind::swap)) continue;
+      m.cost += (gone ? 0 : step_cost(m.ops[x].kind)) - step_cost(before);
       if (gone) {
-        dead[x] = 1;
+        m.dead[x] = 1;
         last[a].pop_back();
         last[b].pop_back();
       }
-      std::swap(at[p], at[p + 1]);
-      std::swap(keys[p], keys[p + 1]);
-      ++end_swaps;
+      std::swap(m.at[p], m.at[p + 1]);
+      std::swap(m.keys[p], m.keys[p + 1]);
+      ++m.merged;
       changed = true;
     }
   }
+  return m;
+}
+
+// Native two-qubit gates of with_order_restored(inner), without building it (the appended rounds are
+// plain SWAPs, one per inversion left).
+long long restored_cost(const QftNetwork& inner) {
+  if (count_inversions(end_keys(inner)) == 0) return network_native_cost(inner);
+  const MergedSteps m = merge_restoring_swaps(inner);
+  return m.cost + 3 * count_inversions(m.keys);
+}
+
+}  // namespace
+
+std::unique_ptr<QftNetwork> with_order_restored(std::unique_ptr<QftNetwork> inner) {
+  if (count_inversions(end_keys(*inner)) == 0) return inner;
+  MergedSteps m = merge_restoring_swaps(*inner);
   // The inner chunks (merged steps changed in place, removed ones left out), then one per round.
   std::vector<NetworkOp> out;
   std::vector<std::size_t> start{0};
   std::size_t current = 0;
-  for (std::size_t x = 0; x < ops.size(); ++x) {
-    for (; current < chunk_of[x]; ++current) start.push_back(out.size());
-    if (!dead[x]) out.push_back(ops[x]);
+  for (std::size_t x = 0; x < m.ops.size(); ++x) {
+    for (; current < m.chunk_of[x]; ++current) start.push_back(out.size());
+    if (!m.dead[x]) out.push_back(m.ops[x]);
   }
   for (; current < static_cast<std::size_t>(inner->chunk_count()); ++current) start.push_back(out.size());
   // Later rounds can never merge: a merge needs the pair's last step to be on both wires, and the
   // first phase took every such out-of-order pair; sorting never swaps a pair twice.
-  for (const auto& round : odd_even_sort_rounds(keys)) {
+  long long end_swaps = m.merged;
+  for (const auto& round : odd_even_sort_rounds(m.keys)) {
     for (int p : round) {
-      const int a = at[p], b = at[p + 1];
+      const int a = m.at[p], b = m.at[p + 1];
       out.push_back({Kind::swap, std::min(a, b), std::max(a, b)});
-      std::swap(at[p], at[p + 1]);
+      std::swap(m.at[p], m.at[p + 1]);
       ++end_swaps;
     }
     start.push_back(out.size());
   }
-  return std::make_unique<OrderRestoredNetwork>(inner->name(), n, inner->max_distance(), std::move(out), std::move(start),
-                                                end_swaps);
+  return std::make_unique<OrderRestoredNetwork>(inner->name(), inner->wires(), inner->max_distance(), std::move(out),
+                                                std::move(start), end_swaps);
 }
 
 long long end_swap_count(const QftNetwork& network) {
@@ -198,12 +236,12 @@ long long network_native_cost(const QftNetwork& network) {
 
 std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec, EndOrder order) {
   auto base = choose_network(spec);
-  if (order == EndOrder::free) return base;
-  auto restored = with_order_restored(std::move(base));
-  if (end_swap_count(*restored) == 0) return restored;
-  // The reversal network reverses the chain, which is exactly the order `same` asks for.
-  auto reversal = with_order_restored(make_reversal_network(spec.qubits, spec.max_distance()));
-  return network_native_cost(*restored) < network_native_cost(*reversal) ? std::move(restored) : std::move(reversal);
+  if (order == EndOrder::free || count_inversions(end_keys(*base)) == 0) return base;
+  // The reversal network reverses the chain, which is exactly the order `same` asks for. Compare
+  // costs first: building the restored network holds all its O(n^2) SWAPs.
+  auto reversal = make_reversal_network(spec.qubits, spec.max_distance());
+  if (restored_cost(*base) < network_native_cost(*reversal)) return with_order_restored(std::move(base));
+  return reversal;
 }
 
 namespace {

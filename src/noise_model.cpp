@@ -7,7 +7,22 @@ namespace qftplan {
 
 NoiseSink::NoiseSink(const Device& device, std::vector<int> register_qubits)
     : dev_(device), register_(std::move(register_qubits)), ready_(device.qubit_count(), 0.0),
-      first_use_(device.qubit_count(), -1.0) {}
+      first_use_(device.qubit_count(), -1.0) {
+  log_keep_1q_.resize(device.qubit_count());
+  dur_1q_.resize(device.qubit_count());
+  for (int q = 0; q < device.qubit_count(); ++q) {
+    const auto c = device.qubit_calibration(q);
+    log_keep_1q_[q] = std::log1p(-c.error_1q);
+    dur_1q_[q] = c.duration_1q_ns;
+  }
+  log_keep_2q_.resize(device.coupler_count());
+  dur_2q_.resize(device.coupler_count());
+  for (int i = 0; i < device.coupler_count(); ++i) {
+    const auto c = device.coupler_calibration(i);
+    log_keep_2q_[i] = std::log1p(-c.error);
+    dur_2q_[i] = c.duration_ns;
+  }
+}
 
 void NoiseSink::gate(const Gate& g) {
   const auto start_on = [&](std::initializer_list<int> qs, double duration) {
@@ -28,9 +43,8 @@ void NoiseSink::gate(const Gate& g) {
     case GateKind::h:
     case GateKind::x:
     case GateKind::sx: {
-      const auto c = dev_.qubit_calibration(g.q0);
-      log_gates_ += std::log1p(-c.error_1q);
-      start_on({g.q0}, c.duration_1q_ns);
+      log_gates_ += log_keep_1q_[g.q0];
+      start_on({g.q0}, dur_1q_[g.q0]);
       return;
     }
     case GateKind::measure: {
@@ -41,10 +55,10 @@ void NoiseSink::gate(const Gate& g) {
     default: {
       // Two-qubit gates; logical ones count as their native decomposition on the same coupler.
       const int ci = dev_.coupler_index(g.q0, g.q1);
-      const auto c = ci >= 0 ? dev_.coupler_calibration(ci) : CouplerCalibration{1.0, 0.0};
       const int natives = g.kind == GateKind::cp ? 2 : (g.kind == GateKind::swap || g.kind == GateKind::cp_swap) ? 3 : 1;
-      log_gates_ += natives * std::log1p(-c.error);
-      start_on({g.q0, g.q1}, natives * c.duration_ns);
+      // A gate off the couplers cannot run: it counts as certain failure.
+      log_gates_ += ci >= 0 ? natives * log_keep_2q_[ci] : -INFINITY;
+      start_on({g.q0, g.q1}, ci >= 0 ? natives * dur_2q_[ci] : 0.0);
       return;
     }
   }

@@ -274,6 +274,7 @@ static PreparedPlan prepare_routed(const Device& device, const PlanOptions& opti
   plan.gates = options.gates.value_or(gate_set_of(device.native_2q()));
   RoutingOptions ro = options.routing;
   ro.seed = options.search.seed;
+  if (!ro.budget) ro.budget = options.budget;
   if (options.auto_approx) {
     // Score each degree by routing it (as for the chain strategy, stop once the fidelity bound is 1
     // within 1e-12; the exact transform is always scored).
@@ -315,57 +316,22 @@ static PreparedPlan prepare_routed(const Device& device, const PlanOptions& opti
 
 static PreparedPlan prepare_auto(const Device& device, const PlanOptions& options);
 
+// Largest register on which --strategy auto also runs the router next to a structured strategy.
+constexpr int kRoutedCompareLimit = 128;
+
 // The spine strategy: a main chain plus the qubits dangling one hop off it, read as one virtual line
 // (each dangling qubit right after the chain qubit it hangs from); the chain networks run on that
 // line, and a gate between line neighbours that are not coupled steps through the chain qubit both
 // hang from (swap, gate, swap). For registers that do not fit on one chain: heavy-hexagon lattices
 // (the setting of Gao, Jin, Guo, Chen and Zhang, arXiv:2402.09705, 2024) and defective chips.
-static PreparedPlan prepare_spine(const Device& device, const PlanOptions& options) {
-  if (options.auto_approx) {
-    // Score each degree by planning it on the spine (same rule as the other strategies).
-    PlanOptions fixed = options;
-    fixed.auto_approx = false;
-    DegreeChoice choice;
-    std::vector<std::optional<int>> degrees;
-    for (int m = 1; m < options.spec.qubits; ++m) {
-      degrees.push_back(m);
-      if (approx_fidelity_lower_bound(approx_error_bound(options.spec.qubits, m)) >= 1.0 - 1e-12) break;
-    }
-    degrees.push_back(std::nullopt);
-    double best = -1;
-    for (const auto& m : degrees) {
-      fixed.spec.approx_degree = m;
-      const auto p = prepare_spine(device, fixed);
-      DegreeCandidate c;
-      c.degree = m;
-      c.log_esp = execute_plan(device, fixed, p, nullptr).noise.log_esp;
-      c.error_bound = approx_error_bound(fixed.spec.qubits, m);
-      c.fidelity_bound = approx_fidelity_lower_bound(c.error_bound);
-      c.score = std::exp(c.log_esp) * c.fidelity_bound;
-      best = std::max(best, c.score);
-      choice.considered.push_back(c);
-    }
-    for (const auto& c : choice.considered)
-      if (c.score >= best * (1.0 - 1e-12)) {
-        choice.chosen = c.degree;
-        break;
-      }
-    fixed.spec.approx_degree = choice.chosen;
-    PreparedPlan plan = prepare_spine(device, fixed);
-    plan.degree_choice = choice;
-    return plan;
-  }
+// One spine plan for a fixed degree on a given layout.
+static PreparedPlan spine_plan(const Device& device, const PlanOptions& options, const SpineLayout& layout,
+                               const QftSpec& spec) {
   PreparedPlan plan;
-  plan.spec = options.spec;
-  validate_spec(device, plan.spec);
-  if (options.placement) throw InputError("--placement pins a chain; the spine strategy chooses its own line");
-  const SpineLayout layout = make_spine_layout(device, plan.spec.qubits, options.search.seed);
-  if (layout.detours.empty())
-    throw PlanningError("the register fits on one chain: the chain strategy covers it");
+  plan.spec = spec;
   plan.strategy = "spine";
   plan.gates = options.gates.value_or(gate_set_of(device.native_2q()));
-  plan.network = choose_network(plan.spec, options.end_order);
-  plan.end_swaps = end_swap_count(*plan.network);
+  plan.network = choose_network(plan.spec);
   plan.chain = layout.line;
   plan.detours = layout.detours;
   plan.maps = chain_maps(plan.spec, *plan.network, plan.chain);
@@ -373,8 +339,49 @@ static PreparedPlan prepare_spine(const Device& device, const PlanOptions& optio
   return plan;
 }
 
-// Largest register on which --strategy auto also runs the router next to a structured strategy.
-constexpr int kRoutedCompareLimit = 256;
+static PreparedPlan prepare_spine(const Device& device, const PlanOptions& options) {
+  QftSpec spec = options.spec;
+  if (options.auto_approx) spec.approx_degree.reset();
+  validate_spec(device, spec);
+  if (options.placement) throw InputError("--placement pins a chain; the spine strategy chooses its own line");
+  const SpineLayout layout = make_spine_layout(device, spec.qubits, options.search.seed);
+  if (layout.detours.empty()) throw PlanningError("the register fits on one chain: the chain strategy covers it");
+  if (!options.auto_approx) return spine_plan(device, options, layout, spec);
+  // Score each degree by planning it on the spine (same rule as the other strategies).
+  DegreeChoice choice;
+  std::vector<std::optional<int>> degrees;
+  for (int m = 1; m < spec.qubits; ++m) {
+    degrees.push_back(m);
+    if (approx_fidelity_lower_bound(approx_error_bound(spec.qubits, m)) >= 1.0 - 1e-12) break;
+  }
+  degrees.push_back(std::nullopt);
+  double best = -1;
+  PlanOptions fixed = options;
+  fixed.auto_approx = false;
+  for (const auto& m : degrees) {
+    QftSpec s = spec;
+    s.approx_degree = m;
+    fixed.spec = s;
+    const auto p = spine_plan(device, fixed, layout, s);
+    DegreeCandidate c;
+    c.degree = m;
+    c.log_esp = execute_plan(device, fixed, p, nullptr).noise.log_esp;
+    c.error_bound = approx_error_bound(s.qubits, m);
+    c.fidelity_bound = approx_fidelity_lower_bound(c.error_bound);
+    c.score = std::exp(c.log_esp) * c.fidelity_bound;
+    best = std::max(best, c.score);
+    choice.considered.push_back(c);
+  }
+  for (const auto& c : choice.considered)
+    if (c.score >= best * (1.0 - 1e-12)) {
+      choice.chosen = c.degree;
+      break;
+    }
+  spec.approx_degree = choice.chosen;
+  PreparedPlan plan = spine_plan(device, options, layout, spec);
+  plan.degree_choice = choice;
+  return plan;
+}
 
 const std::vector<StrategyInfo>& plan_strategies() {
   static const std::vector<StrategyInfo> table{
@@ -440,12 +447,18 @@ static PreparedPlan prepare_auto(const Device& device, const PlanOptions& option
       o.swaps = r.swaps;
       o.log_esp = r.noise.log_esp;
       if (!best || better(o, best_outcome, options.objective)) {
+        p.evaluated = std::make_shared<const PlanReport>(r);
         best = std::move(p);
         best_outcome = o;
       }
     } catch (const PlanningError& e) {
       o.reason = e.what();
       if (first_error.empty()) first_error = e.what();
+    } catch (const TimeLimitReached& e) {
+      // Out of time in this strategy: keep an earlier strategy's plan when there is one.
+      if (!best) throw;
+      o.reason = std::string("cut short: ") + e.what();
+      timed_out = true;
     } catch (const InputError& e) {
       // A pinned placement is an input only the chain strategy accepts; other errors are real.
       if (!options.placement) throw;
@@ -471,6 +484,12 @@ PreparedPlan prepare_plan(const Device& device, const PlanOptions& options) {
 
 PlanReport execute_plan(const Device& device, const PlanOptions& options, const PreparedPlan& plan, GateSink* output) {
   const auto t0 = std::chrono::steady_clock::now();
+  if (!output && plan.evaluated) {
+    // --strategy auto already streamed this plan through the counters while choosing it.
+    PlanReport r = *plan.evaluated;
+    r.alternatives = plan.alternatives;
+    return r;
+  }
   const int D = device.qubit_count();
   MetricsSink logical(D), native(D), emitted(D);
   const TwoQubitGate native_gate = device.native_2q();

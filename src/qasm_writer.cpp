@@ -19,6 +19,18 @@ std::string join(const std::vector<int>& v) {
   }
   return s;
 }
+
+// Free text (a device name) inside a one-line comment: a line break would end the comment and
+// inject the rest into the circuit (found by the plan fuzzer), so control characters become \xNN.
+std::string one_line(const std::string& text) {
+  std::string s;
+  for (char c : text) {
+    const auto u = static_cast<unsigned char>(c);
+    if (u < 0x20 || u == 0x7f) s += fmt::format("\\x{:02x}", u);
+    else s += c;
+  }
+  return s;
+}
 }  // namespace
 
 QasmVersion parse_qasm_version(const std::string& text) {
@@ -40,7 +52,7 @@ QasmWriter::QasmWriter(QasmVersion version, const CircuitHeader& h, TextOutput& 
   if (version_ == QasmVersion::v3) buf_ += "OPENQASM 3.0;\ninclude \"stdgates.inc\";\n";
   else buf_ += "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n";
   buf_ += "// written by qftplan " QFTPLAN_VERSION_STRING "\n";
-  buf_ += "// device: " + h.device_name + "\n";
+  buf_ += "// device: " + one_line(h.device_name) + "\n";
   buf_ += "// transform: " + describe_transform(h.spec) + "\n";
   buf_ += "// strategy: " + h.strategy + "\n";
   buf_ += "// placement: " + join(h.placement) + "\n";

@@ -1,6 +1,7 @@
 #include "qftplan/routed_planner.hpp"
 
 #include <algorithm>
+#include <cmath>
 #include <limits>
 #include <random>
 
@@ -8,6 +9,7 @@
 
 #include "qftplan/chain_search.hpp"
 #include "qftplan/plan.hpp"
+#include "qftplan/run_budget.hpp"
 
 namespace qftplan {
 
@@ -92,10 +94,27 @@ class Router {
 
     const long long limit = opt_.max_swaps > 0 ? opt_.max_swaps : 64LL * n_ * n_ + 4096;
     long long swaps = 0;
+    BudgetPoll poll(opt_.budget, 256);
+    // The greedy choice can circle; after a stall of a few SWAPs without a new rotation, walk the
+    // most urgent pending pair together along a shortest path, which always makes progress.
+    int stall = 0;
+    bool forcing = false;
+    const int stall_limit = 8 + 2 * static_cast<int>(std::sqrt(static_cast<double>(N_)));
     while (first_open_ < n_) {
-      if (progress()) continue;
+      // A half-routed circuit is of no use: out of time means no routed plan.
+      if (poll.stop()) throw_if_exhausted(opt_.budget, "the routed strategy's SWAP search");
+      if (progress()) {
+        stall = 0;
+        forcing = false;
+        continue;
+      }
       if (++swaps > limit) throw PlanningError("the routed strategy gave up (SWAP limit reached)");
-      swap_step();
+      if (forcing || ++stall > stall_limit) {
+        forcing = true;  // until the next rotation lands
+        force_step();
+      } else {
+        swap_step();
+      }
     }
     RoutedCircuit out;
     out.gates = std::move(gates_);
@@ -212,6 +231,21 @@ class Router {
     best_swaps.erase(std::unique(best_swaps.begin(), best_swaps.end()), best_swaps.end());
     const auto [a, b] = best_swaps[std::uniform_int_distribution<std::size_t>(0, best_swaps.size() - 1)(rng_)];
     apply_swap(a, b);
+  }
+
+  // Moves the first front rotation's later wire one hop toward the other along a shortest path.
+  void force_step() {
+    std::vector<std::tuple<int, int, double>> front;
+    collect_front(front);
+    if (front.empty()) throw PlanningError("the routed strategy is stuck: no pending rotation");
+    const auto [i, j, w] = front.front();
+    const int from = phys_of_[j], to = phys_of_[i];
+    for (int nb : dev_.neighbours(from))
+      if (dist(nb, to) < dist(from, to)) {
+        apply_swap(from, nb);
+        return;
+      }
+    throw PlanningError("the routed strategy is stuck: the register's qubits are not connected");
   }
 
   void apply_swap(int a, int b) {

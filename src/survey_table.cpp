@@ -39,7 +39,8 @@ std::string format_survey_table(const std::vector<SurveyRow>& rows, SurveyTiming
       cells.push_back(std::move(c));
       continue;
     }
-    c.push_back(r.strategy + "/" + r.network + (r.cut_short ? " (time limit)" : ""));
+    c.push_back((r.network == r.strategy ? r.strategy : r.strategy + "/" + r.network) +
+                (r.cut_short ? " (time limit)" : ""));
     c.push_back(r.approx_degree ? std::to_string(*r.approx_degree) : std::string("exact"));
     c.push_back(std::to_string(r.swaps));
     c.push_back(std::to_string(r.blocks));

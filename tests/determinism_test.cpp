@@ -71,7 +71,7 @@ std::vector<Case> cases() {
       {"ring_cz", "--device " + topo("harbor-ring-16.yaml") + " --qubits 16 --approx 3 --gates cz"},
       {"grid_calibrated", "--device " + topo("harbor-grid-5x5.yaml") + " --qubits 20 --approx auto --inverse"},
       {"routed", "--device heavy-hex:1x2 --qubits 14 --strategy routed --seed 3"},
-      {"spine", "--device " + topo("harbor-hex-21.yaml") + " --qubits 19 --strategy spine --approx 5"},
+      {"spine", "--device " + topo("harbor-hex-35.yaml") + " --qubits 35 --strategy spine --approx 5"},
       {"big_line", "--device line:300 --qubits 300 --approx 8 --seed 11"},
   };
 }

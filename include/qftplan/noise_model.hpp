@@ -45,6 +45,8 @@ class NoiseSink final : public GateSink {
   double log_gates_ = 0;
   double log_readout_ = 0;
   bool measured_ = false;
+  // Calibration looked up once per qubit and coupler, not per gate (the hot path of big plans).
+  std::vector<double> log_keep_1q_, dur_1q_, log_keep_2q_, dur_2q_;
   std::vector<double> ready_;       // time each qubit becomes free, ns
   std::vector<double> first_use_;   // start of its first gate, ns; -1 when unused
   double makespan_ = 0;

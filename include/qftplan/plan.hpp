@@ -91,6 +91,8 @@ struct StrategyOutcome {
   double log_esp = 0;
 };
 
+struct PlanReport;
+
 /// Decisions made before any gate is emitted.
 struct PreparedPlan {
   std::string strategy;                  ///< registry name of the planner ("chain")
@@ -109,6 +111,7 @@ struct PreparedPlan {
   std::vector<std::array<int, 3>> detours;  ///< spine strategy: (a, b, via) for uncoupled line neighbours
   std::vector<StrategyOutcome> alternatives;  ///< every strategy --strategy auto tried
   long long end_swaps = 0;               ///< SWAPs added by --end-order same (merged ones included)
+  std::shared_ptr<const PlanReport> evaluated;  ///< figures already computed while choosing (no output)
 };
 
 /// Figures of a planned circuit (the JSON report; README "Report fields" documents each).

@@ -13,12 +13,15 @@
 
 namespace qftplan {
 
+class RunBudget;
+
 /// Settings of the router.
 struct RoutingOptions {
   std::uint64_t seed = 1;           ///< tie-breaking among equally good SWAPs
   int lookahead_wires = 4;          ///< unfinished wires whose pending rotations steer the SWAP choice
   long long max_swaps = 0;          ///< give up after this many SWAPs (0: 64 n^2 + 4096)
   int max_device_qubits = 5000;     ///< refuse larger devices (the router keeps all hop distances)
+  const RunBudget* budget = nullptr;  ///< time limit / interruption: TimeLimitReached or Interrupted (null: none)
 };
 
 /// A routed circuit: the logical gate list (h, cp, swap, cp_swap) and its qubit maps.

@@ -624,19 +624,20 @@ int main(int argc, char** argv) {
     std::fprintf(stderr, "qftplan: %s\n", e.what());
     return kExitBadInput;
   } catch (const PlanningError& e) {
-    std::fprintf(stderr, "qftplan: %s\n", e.what());
+    // These messages may quote a device name or a path: format_input_error keeps them on one line.
+    std::fprintf(stderr, "qftplan: %s\n", format_input_error("", 0, 0, e.what()).c_str());
     return kExitFailed;
   } catch (const Interrupted& e) {
     std::fprintf(stderr, "qftplan: %s\n", e.what());
     return 128 + (g_signal.load() ? g_signal.load() : SIGINT);  // the shell's convention: 130 for Ctrl-C
   } catch (const TimeLimitReached& e) {
-    std::fprintf(stderr, "qftplan: %s; no plan was found in time\n", e.what());
+    std::fprintf(stderr, "qftplan: %s; no plan was found in time\n", format_input_error("", 0, 0, e.what()).c_str());
     return kExitTimeLimit;
   } catch (const std::bad_alloc&) {
     std::fprintf(stderr, "qftplan: out of memory\n");
     return kExitFailed;
   } catch (const std::exception& e) {
-    std::fprintf(stderr, "qftplan: %s\n", e.what());
+    std::fprintf(stderr, "qftplan: %s\n", format_input_error("", 0, 0, e.what()).c_str());
     return kExitBadInput;
   }
   return 0;

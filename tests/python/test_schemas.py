@@ -112,8 +112,7 @@ def test_survey_rows_validate(qftplan, tmp_path):
     for r in rows:
         v.validate(r)
         assert set(r) <= set(ROW_SCHEMA["properties"]), set(r) - set(ROW_SCHEMA["properties"])
-        # Rows from before schema_version was added to them lack it; when present it is ours.
-        assert r.get("schema_version", 1) == 1
+        assert r["schema_version"] == qftplan.SURVEY_ROW_SCHEMA_VERSION == 1
 
 
 def test_schema_rejects_broken_rows(qftplan):
@@ -121,7 +120,7 @@ def test_schema_rejects_broken_rows(qftplan):
     v = validator(ROW_SCHEMA)
     v.validate(row)
     for mutate in (lambda r: r.update(status="maybe"), lambda r: r.update(reason="x"), lambda r: r.pop("qubits"),
-                   lambda r: r.update(survey="xyz")):
+                   lambda r: r.update(survey="xyz"), lambda r: r.pop("schema_version")):
         broken = copy.deepcopy(row)
         mutate(broken)
         with pytest.raises(jsonschema.ValidationError):
