@@ -345,7 +345,8 @@ static PreparedPlan prepare_spine(const Device& device, const PlanOptions& optio
   validate_spec(device, spec);
   if (options.placement) throw InputError("--placement pins a chain; the spine strategy chooses its own line");
   const SpineLayout layout = make_spine_layout(device, spec.qubits, options.search.seed);
-  if (layout.detours.empty()) throw PlanningError("the register fits on one chain: the chain strategy covers it");
+  if (layout.detours.empty() || static_cast<int>(layout.spine.size()) >= spec.qubits)
+    throw PlanningError("the register fits on one chain: the chain strategy covers it");
   if (!options.auto_approx) return spine_plan(device, options, layout, spec);
   // Score each degree by planning it on the spine (same rule as the other strategies).
   DegreeChoice choice;
@@ -422,6 +423,12 @@ static PreparedPlan prepare_auto(const Device& device, const PlanOptions& option
     if (std::string(s.name) == "auto") continue;
     StrategyOutcome o;
     o.strategy = s.name;
+    // The spine is for registers no chain holds: when the chain strategy planned, it is not needed.
+    if (std::string(s.name) == "spine" && best && best->strategy == "chain") {
+      o.reason = "not needed: a chain holds the register";
+      outcomes.push_back(o);
+      continue;
+    }
     // The router costs O(n^2) SWAP decisions: as a comparison it runs only on registers of at most
     // kRoutedCompareLimit qubits; beyond that it runs only when nothing structured could plan.
     if (std::string(s.name) == "routed" && best && options.spec.qubits > kRoutedCompareLimit) {
