@@ -19,7 +19,7 @@ PLANS = [
     ("grid:4x4", 12, {"approx": 3, "inverse": True}),
     (NOISY, 10, {"approx": "auto", "measure": True, "strategy": "chain"}),
     (NOISY, 6, {"end_order": "same", "strategy": "routed", "approx": 2}),
-    ("heavy-hex:2x2", 20, {"strategy": "spine"}),
+    ("heavy-hex:2x2", 35, {"strategy": "spine"}),
     ("grid:3x3", 5, {"approx": 1, "gates": "logical", "format": "qasm2"}),
     (str(TOPOLOGIES / "harbor-ring-16.yaml"), 9, {"placement": [0, 1, 2, 3, 4, 5, 6, 7, 8]}),
     ("line:1", 1, {}),
