@@ -209,6 +209,8 @@ TEST_P(BundledDevice, EveryRegisterSize) {
     for (int variant = 0; variant < 2; ++variant) {
       PlanOptions opt;
       opt.spec.qubits = n;
+      // Correctness is the point here, not the best chain: keep the exhaustive placement search short.
+      opt.placement_search.work_budget = 200'000;
       if (variant == 1) {
         opt.spec.inverse = true;
         opt.spec.approx_degree = 3;

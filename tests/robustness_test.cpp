@@ -108,6 +108,25 @@ TEST(Regression, ErrorMessagesShowControlCharactersEscaped) {
   }
 }
 
+// The program itself on the malformed circuits (fuzz/corpus/qasm-check/bad-*.qasm: truncations, huge
+// indices and exponents, recursion, NUL bytes, a byte-order mark, ...) and on every saved crash input:
+// never a signal, always 0, 1 or 2, and at most one line on standard error.
+TEST(Catalogue, ProgramNeverCrashesOnMalformedFiles) {
+  std::vector<std::pair<std::string, fs::path>> runs;
+  for (const auto& f : files_in(source_dir() / "fuzz" / "corpus" / "qasm-check"))
+    if (f.filename().string().rfind("bad-", 0) == 0) runs.emplace_back("check", f);
+  for (const auto& f : files_in(source_dir() / "tests" / "data" / "regressions" / "qasm-check")) runs.emplace_back("check", f);
+  for (const auto& f : files_in(source_dir() / "tests" / "data" / "regressions" / "device-yaml")) runs.emplace_back("device", f);
+  ASSERT_GE(runs.size(), 30u);
+  for (const auto& [command, f] : runs) {
+    const std::string args = command == "check" ? "check " + std::string("'") + f.string() + "' --device grid:3x3 --qubits 3"
+                                                : "device '" + f.string() + "'";
+    const auto r = run_qftplan(args);
+    EXPECT_TRUE(r.status >= 0 && r.status <= 2) << f << " exit " << r.status << ": " << r.err;
+    EXPECT_LE(std::count(r.err.begin(), r.err.end(), '\n'), 1) << f << ": " << r.err;
+  }
+}
+
 // ---------------------------------------------------------------------------------------------
 // Atomic outputs. Tests run as root, where a chmod 0555 folder is still writable, so unwritable
 // places are a path below a regular file, and /proc.

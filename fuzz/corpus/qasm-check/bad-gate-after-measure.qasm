@@ -1,0 +1,8 @@
+OPENQASM 3.0;
+include "stdgates.inc";
+// device: grid:3x3
+// placement: 0,1,2
+// final_placement: 2,1,0
+bit[3] c;
+c[0] = measure $0;
+h $0;

@@ -1,0 +1,4 @@
+OPENQASM 3.0;
+// placement: 99999999999,1,2
+// final_placement: 2,1,0
+h $0;

@@ -1,0 +1,3 @@
+OPENQASM 3.0;
+include "mine.inc";
+h $0;
