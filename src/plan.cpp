@@ -344,7 +344,8 @@ static PreparedPlan prepare_spine(const Device& device, const PlanOptions& optio
   if (options.auto_approx) spec.approx_degree.reset();
   validate_spec(device, spec);
   if (options.placement) throw InputError("--placement pins a chain; the spine strategy chooses its own line");
-  const SpineLayout layout = make_spine_layout(device, spec.qubits, options.search.seed);
+  const SpineLayout layout = make_spine_layout(device, spec.qubits, options.search.seed, options.budget);
+  throw_if_interrupted(options.budget);
   if (layout.detours.empty() || static_cast<int>(layout.spine.size()) >= spec.qubits)
     throw PlanningError("the register fits on one chain: the chain strategy covers it");
   if (!options.auto_approx) return spine_plan(device, options, layout, spec);
@@ -483,7 +484,15 @@ static PreparedPlan prepare_auto(const Device& device, const PlanOptions& option
 
 PreparedPlan prepare_plan(const Device& device, const PlanOptions& options) {
   for (const auto& s : plan_strategies())
-    if (options.strategy == s.name) return s.prepare(device, options);
+    if (options.strategy == s.name) {
+      PreparedPlan p = s.prepare(device, options);
+      throw_if_interrupted(options.budget);
+      // A search that stopped at the deadline without saying so (it kept its best so far) still
+      // means the time limit decided: report it, so the command line exits 3.
+      if (p.cut_short.empty() && options.budget && options.budget->stop_reason() == StopReason::time_limit)
+        p.cut_short = "the searches";
+      return p;
+    }
   std::string names;
   for (const auto& s : plan_strategies()) names += std::string(names.empty() ? "" : ", ") + s.name;
   throw InputError("unknown strategy '" + options.strategy + "' (valid: " + names + ")");

@@ -18,9 +18,10 @@ namespace {
 // The register's starting region: the longest chain found (up to n qubits), then the nearest
 // qubits by breadth-first search from it. Returns the qubits in wire order: along the chain, each
 // added qubit right after the region qubit it hangs from, so consecutive wires start close.
-std::vector<int> starting_region(const Device& dev, int n, std::uint64_t seed) {
+std::vector<int> starting_region(const Device& dev, int n, std::uint64_t seed, const RunBudget* budget) {
   ChainSearchOptions cso;
   cso.seed = seed;
+  cso.budget = budget;  // out of time: start from the longest chain found so far
   cso.work_budget = 5'000'000;
   auto found = find_chain(dev, n, cso);
   std::vector<int> chain = found.chain.empty() ? found.longest : found.chain;
@@ -74,7 +75,7 @@ class Router {
       const auto d = dev_.distances_from(s);
       std::copy(d.begin(), d.end(), dist_.begin() + static_cast<std::size_t>(s) * N_);
     }
-    region_ = starting_region(dev_, n_, opt_.seed);
+    region_ = starting_region(dev_, n_, opt_.seed, opt_.budget);
     phys_of_.assign(n_, -1);
     wire_at_.assign(N_, -1);
     for (int w = 0; w < n_; ++w) {

@@ -9,10 +9,11 @@
 
 namespace qftplan {
 
-SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed) {
+SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, const RunBudget* budget) {
   SpineLayout out;
   ChainSearchOptions cso;
   cso.seed = seed;
+  cso.budget = budget;
   // Ask for a chain through the whole largest component: the search returns the longest it finds.
   auto [comp, count] = device.components();
   std::vector<int> size(count, 0);

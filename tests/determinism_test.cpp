@@ -79,6 +79,28 @@ std::vector<Case> cases() {
 INSTANTIATE_TEST_SUITE_P(Plans, SameRunTwice, ::testing::ValuesIn(cases()),
                          [](const auto& info) { return info.param.name; });
 
+// A survey (threads over runs) gives the same files whatever --jobs says, and again when repeated:
+// calibrated chips (placement search), --approx auto and every strategy, with --no-timing.
+TEST(Determinism, SurveyAcrossJobs) {
+  const auto dir = temp_dir();
+  const std::string base = "survey " + topo("harbor-noisy-20.yaml") + " " + topo("harbor-hex-21.yaml") +
+                           " 'grid:*' --qubits 4:16:4 --approx none,auto --strategy auto,chain,routed --seed 4 "
+                           "--no-timing --quiet";
+  std::string files[3];
+  const char* jobs[3] = {"1", "2", "2"};
+  for (int k = 0; k < 3; ++k) {
+    const auto p = dir / std::to_string(k);
+    const auto r = run_qftplan(base + " --jobs " + jobs[k] + " --csv '" + p.string() + ".csv' --jsonl '" + p.string() +
+                               ".jsonl' --svg '" + p.string() + ".svg'");
+    ASSERT_EQ(r.status, 0) << r.err;
+    files[k] = read_file(p.string() + ".csv") + read_file(p.string() + ".jsonl") + read_file(p.string() + ".svg");
+  }
+  EXPECT_FALSE(files[0].empty());
+  EXPECT_EQ(files[0], files[1]) << "--jobs 1 and --jobs 2 differ";
+  EXPECT_EQ(files[1], files[2]) << "two runs with --jobs 2 differ";
+  fs::remove_all(dir);
+}
+
 // Within one process: static caches (angle texts, networks) must not make a second plan differ.
 TEST(Determinism, SameProcessTwice) {
   const Device dev = load_device((source_dir() / "topologies" / "harbor-noisy-20.yaml").string());

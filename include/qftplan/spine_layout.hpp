@@ -10,6 +10,8 @@
 
 namespace qftplan {
 
+class RunBudget;
+
 /// A virtual line over the device: `line[p]` is a physical qubit; consecutive entries are either
 /// coupled or both coupled to a spine qubit listed in `detours` as (a, b, via).
 struct SpineLayout {
@@ -21,6 +23,7 @@ struct SpineLayout {
 /// Builds the layout: the longest chain found in the largest component, then every qubit one hop
 /// off the chain inserted after the chain qubit it hangs from. Truncated to `n` qubits; throws
 /// PlanningError when fewer than `n` qubits are within one hop of the spine.
-SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed);
+/// `budget` (may be null) bounds the chain search; out of time, the longest chain so far is the spine.
+SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, const RunBudget* budget = nullptr);
 
 }  // namespace qftplan

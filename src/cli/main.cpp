@@ -142,6 +142,7 @@ struct PlanArgs {
   bool measure = false;
   bool explain = false;
   std::string time_limit;
+  double effort = 1;
   std::string strategy = "auto";
   std::string objective = "esp";
   std::string end_order = "free";
@@ -166,6 +167,12 @@ int run_plan(const PlanArgs& a) {
   if (!a.gates.empty()) opt.gates = parse_gate_set(a.gates);
   if (!a.placement.empty()) opt.placement = parse_id_list(a.placement, "--placement");
   opt.search.seed = a.seed;
+  // --effort scales the work budgets of the chain and placement searches (not the time limit).
+  if (!(a.effort >= 0.01 && a.effort <= 1000))
+    throw InputError(fmt::format("--effort {} is outside 0.01 .. 1000", a.effort));
+  opt.search.work_budget = static_cast<long long>(static_cast<double>(opt.search.work_budget) * a.effort);
+  opt.placement_search.work_budget =
+      std::max(1LL, static_cast<long long>(static_cast<double>(opt.placement_search.work_budget) * a.effort));
   opt.strategy = a.strategy;
   opt.objective = parse_objective(a.objective);
   opt.end_order = parse_end_order(a.end_order);
@@ -544,6 +551,9 @@ int main(int argc, char** argv) {
   plan->add_flag("--explain", pa.explain, "print the chains considered and the degrees scored");
   plan->add_option("--time-limit", pa.time_limit,
                    "stop every search after SECONDS (from the start) and keep the best plan found; exit status 3");
+  plan->add_option("--effort", pa.effort,
+                   "scale the work budgets of the chain and placement searches (0.01 .. 1000; 10 = ten times longer)")
+      ->capture_default_str();
   {
     // One table (plan_strategies) drives this help text and the unknown-strategy error.
     std::string help = "planning strategy:";
