@@ -43,12 +43,15 @@ bool swaps(Kind k) { return k == Kind::swap || k == Kind::cp_swap; }
 QubitMaps emit_chain_qft(const QftSpec& spec, const QftNetwork& network, std::span<const int> chain, GateSink& sink) {
   QubitMaps maps = chain_maps(spec, network, chain);
   std::vector<NetworkOp> ops;
+  // Gates go to the sink in runs of about a thousand (one virtual call per run, not per gate).
+  GateRun out(sink);
   if (!spec.inverse) {
     auto pos = network.initial_positions();
     for (int c = 0; c < network.chunk_count(); ++c) {
       network.chunk(c, ops);
       for (const auto& op : ops) {
-        sink.gate(to_gate(op, spec, chain, pos));
+        out.put(to_gate(op, spec, chain, pos));
+        out.flush_if_full();
         if (swaps(op.kind)) std::swap(pos[op.i], pos[op.j]);
       }
     }
@@ -59,11 +62,13 @@ QubitMaps emit_chain_qft(const QftSpec& spec, const QftNetwork& network, std::sp
     for (int c = network.chunk_count(); c-- > 0;) {
       network.chunk(c, ops);
       for (auto it = ops.rbegin(); it != ops.rend(); ++it) {
-        sink.gate(to_gate(*it, spec, chain, pos));
+        out.put(to_gate(*it, spec, chain, pos));
+        out.flush_if_full();
         if (swaps(it->kind)) std::swap(pos[it->i], pos[it->j]);
       }
     }
   }
+  out.flush();
   return maps;
 }
 

@@ -4,25 +4,24 @@
 
 namespace qftplan {
 
-MetricsSink::MetricsSink(int qubits) : level_(qubits, 0), level_2q_(qubits, 0), used_(qubits, false) {}
+MetricsSink::MetricsSink(int qubits, bool unfused_depth)
+    : unfused_(unfused_depth),
+      level_(qubits, 0),
+      level_2q_(qubits, 0),
+      level_unfused_(unfused_depth ? qubits : 0, 0),
+      used_(qubits, 0) {}
 
-void MetricsSink::gate(const Gate& g) {
-  ++counts_[static_cast<int>(g.kind)];
-  ++total_;
-  used_[g.q0] = true;
-  if (is_two_qubit(g.kind)) {
-    ++two_qubit_;
-    used_[g.q1] = true;
-    const long long l = std::max(level_[g.q0], level_[g.q1]) + 1;
-    level_[g.q0] = level_[g.q1] = l;
-    depth_ = std::max(depth_, l);
-    const long long l2 = std::max(level_2q_[g.q0], level_2q_[g.q1]) + 1;
-    level_2q_[g.q0] = level_2q_[g.q1] = l2;
-    depth_2q_ = std::max(depth_2q_, l2);
-  } else {
-    const long long l = ++level_[g.q0];
-    depth_ = std::max(depth_, l);
-  }
+long long MetricsSink::two_qubit_count() const {
+  long long c = 0;
+  for (int k = 0; k < kGateKindCount; ++k)
+    if (is_two_qubit(static_cast<GateKind>(k))) c += counts_[k];
+  return c;
+}
+
+long long MetricsSink::total() const {
+  long long c = 0;
+  for (long long k : counts_) c += k;
+  return c;
 }
 
 std::map<std::string, long long> MetricsSink::counts_by_name() const {

@@ -19,12 +19,4 @@ std::string_view gate_name(GateKind k) {
   return "?";
 }
 
-bool is_two_qubit(GateKind k) {
-  return k == GateKind::cx || k == GateKind::cz || k == GateKind::cp || k == GateKind::swap || k == GateKind::cp_swap;
-}
-
-bool has_angle(GateKind k) {
-  return k == GateKind::rz || k == GateKind::p || k == GateKind::cp || k == GateKind::cp_swap;
-}
-
 }  // namespace qftplan

@@ -24,36 +24,44 @@ GateSet gate_set_of(TwoQubitGate g) { return g == TwoQubitGate::cz ? GateSet::cz
 
 void NativeDecomposer::cx(int c, int t) {
   if (target_ == TwoQubitGate::cx) {
-    out_.gate(make_gate(GateKind::cx, c, t));
+    out_.put(make_gate(GateKind::cx, c, t));
   } else {
-    out_.gate(make_gate(GateKind::h, t));
-    out_.gate(make_gate(GateKind::cz, c, t));
-    out_.gate(make_gate(GateKind::h, t));
+    out_.put(make_gate(GateKind::h, t));
+    out_.put(make_gate(GateKind::cz, c, t));
+    out_.put(make_gate(GateKind::h, t));
   }
 }
 
 void NativeDecomposer::cz(int a, int b) {
   if (target_ == TwoQubitGate::cz) {
-    out_.gate(make_gate(GateKind::cz, a, b));
+    out_.put(make_gate(GateKind::cz, a, b));
   } else {
-    out_.gate(make_gate(GateKind::h, b));
-    out_.gate(make_gate(GateKind::cx, a, b));
-    out_.gate(make_gate(GateKind::h, b));
+    out_.put(make_gate(GateKind::h, b));
+    out_.put(make_gate(GateKind::cx, a, b));
+    out_.put(make_gate(GateKind::h, b));
   }
 }
 
-void NativeDecomposer::gate(const Gate& g) {
+void NativeDecomposer::batch(std::span<const Gate> run) {
+  for (const Gate& g : run) {
+    rewrite(g);
+    out_.flush_if_full();
+  }
+  out_.flush();
+}
+
+void NativeDecomposer::rewrite(const Gate& g) {
   const int a = g.q0, b = g.q1;
   switch (g.kind) {
     case GateKind::cx: cx(a, b); return;
     case GateKind::cz: cz(a, b); return;
-    case GateKind::p: out_.gate(make_gate(GateKind::rz, a, -1, g.angle)); return;
+    case GateKind::p: out_.put(make_gate(GateKind::rz, a, -1, g.angle)); return;
     case GateKind::cp: {
       const Angle h = g.angle.half();
-      out_.gate(make_gate(GateKind::rz, a, -1, h));
-      out_.gate(make_gate(GateKind::rz, b, -1, h));
+      out_.put(make_gate(GateKind::rz, a, -1, h));
+      out_.put(make_gate(GateKind::rz, b, -1, h));
       cx(a, b);
-      out_.gate(make_gate(GateKind::rz, b, -1, -h));
+      out_.put(make_gate(GateKind::rz, b, -1, -h));
       cx(a, b);
       return;
     }
@@ -64,35 +72,43 @@ void NativeDecomposer::gate(const Gate& g) {
       return;
     case GateKind::cp_swap: {
       const Angle h = g.angle.half();
-      out_.gate(make_gate(GateKind::rz, a, -1, h));
-      out_.gate(make_gate(GateKind::rz, b, -1, h));
+      out_.put(make_gate(GateKind::rz, a, -1, h));
+      out_.put(make_gate(GateKind::rz, b, -1, h));
       cx(a, b);
-      out_.gate(make_gate(GateKind::rz, b, -1, -h));
+      out_.put(make_gate(GateKind::rz, b, -1, -h));
       cx(b, a);
       cx(a, b);
       return;
     }
-    default: out_.gate(g); return;
+    default: out_.put(g); return;
   }
 }
 
-void FusedBlockSplitter::gate(const Gate& g) {
-  if (g.kind != GateKind::cp_swap) {
-    out_.gate(g);
-    return;
+void FusedBlockSplitter::batch(std::span<const Gate> run) {
+  for (const Gate& g : run) {
+    if (g.kind != GateKind::cp_swap) {
+      out_.put(g);
+    } else {
+      out_.put(make_gate(GateKind::cp, g.q0, g.q1, g.angle));
+      out_.put(make_gate(GateKind::swap, g.q0, g.q1));
+    }
+    out_.flush_if_full();
   }
-  out_.gate(make_gate(GateKind::cp, g.q0, g.q1, g.angle));
-  out_.gate(make_gate(GateKind::swap, g.q0, g.q1));
+  out_.flush();
 }
 
-void SwapExpander::gate(const Gate& g) {
-  if (g.kind != GateKind::swap) {
-    out_.gate(g);
-    return;
+void SwapExpander::batch(std::span<const Gate> run) {
+  for (const Gate& g : run) {
+    if (g.kind != GateKind::swap) {
+      out_.put(g);
+    } else {
+      out_.put(make_gate(GateKind::cx, g.q0, g.q1));
+      out_.put(make_gate(GateKind::cx, g.q1, g.q0));
+      out_.put(make_gate(GateKind::cx, g.q0, g.q1));
+    }
+    out_.flush_if_full();
   }
-  out_.gate(make_gate(GateKind::cx, g.q0, g.q1));
-  out_.gate(make_gate(GateKind::cx, g.q1, g.q0));
-  out_.gate(make_gate(GateKind::cx, g.q0, g.q1));
+  out_.flush();
 }
 
 }  // namespace qftplan

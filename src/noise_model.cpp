@@ -24,7 +24,20 @@ NoiseSink::NoiseSink(const Device& device, std::vector<int> register_qubits)
   }
 }
 
-void NoiseSink::gate(const Gate& g) {
+void NoiseSink::batch(std::span<const Gate> run) {
+  for (const Gate& g : run) add(g);
+}
+
+int NoiseSink::coupler_of(int a, int b) {
+  // Decomposed blocks put several gates on one coupler in a row: remember the last lookup.
+  if ((a == last_a_ && b == last_b_) || (a == last_b_ && b == last_a_)) return last_coupler_;
+  last_a_ = a;
+  last_b_ = b;
+  last_coupler_ = dev_.coupler_index(a, b);
+  return last_coupler_;
+}
+
+void NoiseSink::add(const Gate& g) {
   const auto start_on = [&](std::initializer_list<int> qs, double duration) {
     double t = 0;
     for (int q : qs) t = std::max(t, ready_[q]);
@@ -54,7 +67,7 @@ void NoiseSink::gate(const Gate& g) {
     }
     default: {
       // Two-qubit gates; logical ones count as their native decomposition on the same coupler.
-      const int ci = dev_.coupler_index(g.q0, g.q1);
+      const int ci = coupler_of(g.q0, g.q1);
       const int natives = g.kind == GateKind::cp ? 2 : (g.kind == GateKind::swap || g.kind == GateKind::cp_swap) ? 3 : 1;
       // A gate off the couplers cannot run: it counts as certain failure.
       log_gates_ += ci >= 0 ? natives * log_keep_2q_[ci] : -INFINITY;

@@ -13,43 +13,62 @@ namespace qftplan {
 
 namespace {
 
-// Counts native gates per chain position (physical ids are positions on a canonical chain).
-class LoadCounter final : public GateSink {
- public:
-  explicit LoadCounter(int n, const RunBudget* budget = nullptr) : budget_(budget), poll_(budget, 65536) {
-    loads.edge_2q.assign(n > 1 ? n - 1 : 0, 0.0);
-    loads.pos_1q.assign(n, 0.0);
-  }
-  void gate(const Gate& g) override {
-    // A dry run of a big network is long and has no partial result worth keeping: throw.
-    if (poll_.stop()) throw_if_exhausted(budget_, "the ESP scoring of a network");
-    switch (g.kind) {
-      case GateKind::h:
-      case GateKind::x:
-      case GateKind::sx: loads.pos_1q[g.q0] += 1; break;
-      case GateKind::cx:
-      case GateKind::cz: loads.edge_2q[std::min(g.q0, g.q1)] += 1; break;
-      default: break;
-    }
-  }
-  ChainLoads loads;
-
- private:
-  const RunBudget* budget_;
-  BudgetPoll poll_;
+// The error-carrying native gates one network step becomes, by the step's two qubits: found by
+// running NativeDecomposer itself on the step, so the loads cannot drift from what is emitted.
+struct StepLoad {
+  double one_q[2] = {0, 0};  // h/x/sx on the step's first and second qubit
+  double two_q = 0;          // native two-qubit gates on its coupler
 };
+
+StepLoad step_load(NetworkOp::Kind kind, TwoQubitGate native) {
+  static constexpr GateKind kinds[] = {GateKind::h, GateKind::cp, GateKind::swap, GateKind::cp_swap};
+  const GateKind k = kinds[static_cast<int>(kind)];
+  VectorSink v;
+  NativeDecomposer dec(native, v);
+  dec.gate(make_gate(k, 0, k == GateKind::h ? -1 : 1));
+  StepLoad load;
+  for (const Gate& g : v.gates) {
+    if (is_two_qubit(g.kind)) load.two_q += 1;
+    else if (g.kind == GateKind::h || g.kind == GateKind::x || g.kind == GateKind::sx) load.one_q[g.q0] += 1;
+  }
+  return load;
+}
 
 }  // namespace
 
 ChainLoads chain_loads(const QftSpec& spec, const QftNetwork& network, TwoQubitGate native,
                        const RunBudget* budget) {
   const int n = spec.qubits;
-  std::vector<int> canonical(n);
-  for (int i = 0; i < n; ++i) canonical[i] = i;
-  LoadCounter counter(n, budget);
-  NativeDecomposer dec(native, counter);
-  emit_chain_qft(spec, network, canonical, dec);
-  return counter.loads;
+  ChainLoads loads;
+  loads.edge_2q.assign(n > 1 ? n - 1 : 0, 0.0);
+  loads.pos_1q.assign(n, 0.0);
+  StepLoad per_kind[4];
+  for (int k = 0; k < 4; ++k) per_kind[k] = step_load(static_cast<NetworkOp::Kind>(k), native);
+  // Every step acts on the same chain positions whether the network runs forwards or backwards (the
+  // inverse), so one forward pass counts both.
+  std::vector<int> pos = network.initial_positions();
+  std::vector<NetworkOp> ops;
+  std::size_t since_poll = 0;
+  for (int c = 0; c < network.chunk_count(); ++c) {
+    // A dry run of a big network is long and has no partial result worth keeping: throw.
+    if (since_poll >= 65536) {
+      since_poll = 0;
+      throw_if_exhausted(budget, "the ESP scoring of a network");
+    }
+    network.chunk(c, ops);
+    since_poll += ops.size();
+    for (const NetworkOp& op : ops) {
+      const StepLoad& l = per_kind[static_cast<int>(op.kind)];
+      const int a = pos[op.i];
+      loads.pos_1q[a] += l.one_q[0];
+      if (op.kind == NetworkOp::Kind::h) continue;
+      const int b = pos[op.j];
+      loads.pos_1q[b] += l.one_q[1];
+      loads.edge_2q[std::min(a, b)] += l.two_q;
+      if (op.kind != NetworkOp::Kind::cp) std::swap(pos[op.i], pos[op.j]);
+    }
+  }
+  return loads;
 }
 
 namespace {

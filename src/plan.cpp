@@ -507,18 +507,22 @@ PlanReport execute_plan(const Device& device, const PlanOptions& options, const 
     return r;
   }
   const int D = device.qubit_count();
-  MetricsSink logical(D), native(D), emitted(D);
   const TwoQubitGate native_gate = device.native_2q();
+  const bool emitted_is_native = plan.gates == gate_set_of(native_gate);
 
-  // Sinks: the fused stream feeds the logical counters and two decomposition paths; when the
-  // emitted gate set is the native one, one decomposition serves both.
+  // Sinks: the fused stream feeds the logical counters (which also count the depth the blocks
+  // would have unfused) and the native decomposition (counters and noise model). The emitted
+  // circuit is the native one when the gate set is native, so then those counters serve both;
+  // otherwise a second path rewrites the stream into the emitted gate set.
+  MetricsSink logical(D, /*unfused_depth=*/true), native(D);
+  std::optional<MetricsSink> emitted_counter;
+  if (!emitted_is_native) emitted_counter.emplace(D);
+  MetricsSink& emitted = emitted_is_native ? native : *emitted_counter;
   NoiseSink noise(device, plan.maps.placement);
   std::vector<GateSink*> native_targets{&native, &noise};
   std::vector<GateSink*> emitted_targets{&emitted};
-  if (output) emitted_targets.push_back(output);
+  if (output) (emitted_is_native ? native_targets : emitted_targets).push_back(output);
   TeeSink emitted_tee(emitted_targets);
-  const bool emitted_is_native = plan.gates == gate_set_of(native_gate);
-  if (emitted_is_native) native_targets.push_back(&emitted_tee);
   TeeSink native_tee(native_targets);
   NativeDecomposer to_native(native_gate, native_tee);
   std::unique_ptr<GateSink> emit_path, swap_expander;
@@ -533,9 +537,7 @@ PlanReport execute_plan(const Device& device, const PlanOptions& options, const 
     }
     else emit_path = std::make_unique<NativeDecomposer>(plan.gates == GateSet::cz ? TwoQubitGate::cz : TwoQubitGate::cx, emitted_tee);
   }
-  MetricsSink unfused(D);
-  FusedBlockSplitter split(unfused);
-  std::vector<GateSink*> top{&logical, &to_native, &split};
+  std::vector<GateSink*> top{&logical, &to_native};
   if (emit_path) top.push_back(emit_path.get());
   TeeSink all(top);
 
@@ -583,7 +585,7 @@ PlanReport execute_plan(const Device& device, const PlanOptions& options, const 
   // A chain the time limit left unscored gets the ESP just measured (the same quantity).
   if (!r.placement_choice.best.empty() && std::isnan(r.placement_choice.best.front().log_esp))
     r.placement_choice.best.front().log_esp = r.noise.log_esp;
-  r.depth_2q_unfused = unfused.depth_2q();
+  r.depth_2q_unfused = logical.depth_2q_unfused();
   // Lower bounds (ours). Blocks: every kept controlled phase needs a two-qubit gate of its own, and
   // a block carries at most one. Depth: the Hadamard of wire j waits for the rotation between wires
   // j-1 and j, which waits for the Hadamard of wire j-1, so the rotations (0,1), (1,2), ..., (n-2,n-1)

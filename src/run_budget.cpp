@@ -40,6 +40,15 @@ void InterruptCheckSink::gate(const Gate& g) {
   if (next_) next_->gate(g);
 }
 
+void InterruptCheckSink::batch(std::span<const Gate> run) {
+  count_ += static_cast<unsigned>(run.size());
+  if (count_ >= 4096u) {
+    count_ = 0;
+    throw_if_interrupted(budget_);
+  }
+  if (next_) next_->batch(run);
+}
+
 void InterruptCheckSink::finish() {
   throw_if_interrupted(budget_);
   if (next_) next_->finish();

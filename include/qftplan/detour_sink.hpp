@@ -18,12 +18,14 @@ class DetourSink final : public GateSink {
   /// Gates between `a` and `b` go through `via` (which must be coupled to both). `a` is the end
   /// that steps aside.
   void add(int a, int b, int via) { detours_[{std::min(a, b), std::max(a, b)}] = {a, via}; }
-  void gate(const Gate& g) override;
-  void finish() override { out_.finish(); }
+  void gate(const Gate& g) override { batch({&g, 1}); }
+  void batch(std::span<const Gate> run) override;
+  void finish() override { out_.out().finish(); }
   bool empty() const { return detours_.empty(); }
 
  private:
-  GateSink& out_;
+  void rewrite(const Gate& g);
+  GateRun out_;
   std::map<std::pair<int, int>, std::pair<int, int>> detours_;  // pair -> (end that steps aside, via)
 };
 

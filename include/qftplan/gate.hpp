@@ -3,6 +3,7 @@
 /// Gates on physical qubits, and the sink interface through which circuits stream.
 
 #include <cstdint>
+#include <span>
 #include <string_view>
 #include <vector>
 
@@ -29,9 +30,14 @@ inline constexpr int kGateKindCount = 11;
 
 /// OpenQASM-style lower-case name ("cp_swap" for the fused block).
 std::string_view gate_name(GateKind k);
-bool is_two_qubit(GateKind k);
+/// True for cx, cz, cp, swap and cp_swap.
+constexpr bool is_two_qubit(GateKind k) {
+  return k == GateKind::cx || k == GateKind::cz || k == GateKind::cp || k == GateKind::swap || k == GateKind::cp_swap;
+}
 /// True for gates with an angle parameter (rz, p, cp, cp_swap).
-bool has_angle(GateKind k);
+constexpr bool has_angle(GateKind k) {
+  return k == GateKind::rz || k == GateKind::p || k == GateKind::cp || k == GateKind::cp_swap;
+}
 
 /// One gate on physical qubits. For one-qubit gates q1 is unused; for measure, q1 is the bit index.
 struct Gate {
@@ -47,6 +53,12 @@ class GateSink {
  public:
   virtual ~GateSink() = default;
   virtual void gate(const Gate& g) = 0;
+  /// A run of consecutive gates, in order. The default hands them to gate() one by one; the sinks on
+  /// the hot path override it, so that a planner's chunk of a few hundred gates costs one virtual
+  /// call per sink instead of one per gate.
+  virtual void batch(std::span<const Gate> run) {
+    for (const Gate& g : run) gate(g);
+  }
   /// Called once after the last gate.
   virtual void finish() {}
 };
@@ -58,6 +70,10 @@ class TeeSink final : public GateSink {
   void gate(const Gate& g) override {
     for (auto* s : sinks_) s->gate(g);
   }
+  /// Each sink receives the whole run in turn (sinks are independent of one another).
+  void batch(std::span<const Gate> run) override {
+    for (auto* s : sinks_) s->batch(run);
+  }
   void finish() override {
     for (auto* s : sinks_) s->finish();
   }
@@ -66,10 +82,34 @@ class TeeSink final : public GateSink {
   std::vector<GateSink*> sinks_;
 };
 
+/// Collects the gates a rewriting sink produces and hands them on in runs of up to a thousand, so the
+/// sinks downstream see one batch() call per run (used by the rewriting sinks: native decomposition, detours).
+class GateRun {
+ public:
+  explicit GateRun(GateSink& out) : out_(out) { buf_.reserve(kCapacity + 8); }
+  void put(const Gate& g) { buf_.push_back(g); }
+  /// Hands on what is collected once it nears the capacity (a rewrite adds at most 8 gates).
+  void flush_if_full() {
+    if (buf_.size() >= kCapacity) flush();
+  }
+  void flush() {
+    if (buf_.empty()) return;
+    out_.batch(buf_);
+    buf_.clear();
+  }
+  GateSink& out() { return out_; }
+
+ private:
+  static constexpr std::size_t kCapacity = 1024;
+  GateSink& out_;
+  std::vector<Gate> buf_;
+};
+
 /// Keeps every gate (for tests, small circuits and checkers that need the whole list).
 class VectorSink final : public GateSink {
  public:
   void gate(const Gate& g) override { gates.push_back(g); }
+  void batch(std::span<const Gate> run) override { gates.insert(gates.end(), run.begin(), run.end()); }
   std::vector<Gate> gates;
 };
 

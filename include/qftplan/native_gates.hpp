@@ -2,7 +2,9 @@
 /// \file native_gates.hpp
 /// Decomposition of the planner's gates into a native two-qubit gate plus rz and h.
 
+#include <span>
 #include <string>
+#include <vector>
 
 #include "qftplan/device.hpp"
 #include "qftplan/gate.hpp"
@@ -29,36 +31,40 @@ GateSet gate_set_of(TwoQubitGate g);
 class NativeDecomposer final : public GateSink {
  public:
   NativeDecomposer(TwoQubitGate target, GateSink& out) : target_(target), out_(out) {}
-  void gate(const Gate& g) override;
-  void finish() override { out_.finish(); }
+  void gate(const Gate& g) override { batch({&g, 1}); }
+  void batch(std::span<const Gate> run) override;
+  void finish() override { out_.out().finish(); }
 
  private:
+  void rewrite(const Gate& g);
   void cx(int c, int t);
   void cz(int a, int b);
   TwoQubitGate target_;
-  GateSink& out_;
+  GateRun out_;
 };
 
 /// Splits each fused cp_swap into cp then swap (how the logical gate set is written).
 class FusedBlockSplitter final : public GateSink {
  public:
   explicit FusedBlockSplitter(GateSink& out) : out_(out) {}
-  void gate(const Gate& g) override;
-  void finish() override { out_.finish(); }
+  void gate(const Gate& g) override { batch({&g, 1}); }
+  void batch(std::span<const Gate> run) override;
+  void finish() override { out_.out().finish(); }
 
  private:
-  GateSink& out_;
+  GateRun out_;
 };
 
 /// Writes each swap as three cx (OpenQASM 2's qelib1.inc has no swap); other gates pass.
 class SwapExpander final : public GateSink {
  public:
   explicit SwapExpander(GateSink& out) : out_(out) {}
-  void gate(const Gate& g) override;
-  void finish() override { out_.finish(); }
+  void gate(const Gate& g) override { batch({&g, 1}); }
+  void batch(std::span<const Gate> run) override;
+  void finish() override { out_.out().finish(); }
 
  private:
-  GateSink& out_;
+  GateRun out_;
 };
 
 }  // namespace qftplan

@@ -13,6 +13,7 @@
 ///                    hold the input from the start), and from its first gate to the end for others.
 ///   esp_with_readout = esp * product over register qubits of (1 - error_readout), when measured.
 
+#include <span>
 #include <vector>
 
 #include "qftplan/device.hpp"
@@ -35,11 +36,14 @@ class NoiseSink final : public GateSink {
  public:
   /// `register_qubits`: the physical qubits holding the register from the start.
   NoiseSink(const Device& device, std::vector<int> register_qubits);
-  void gate(const Gate& g) override;
+  void gate(const Gate& g) override { add(g); }
+  void batch(std::span<const Gate> run) override;
   /// The figures so far (call after the last gate).
   NoiseFigures figures() const;
 
  private:
+  void add(const Gate& g);
+  int coupler_of(int a, int b);
   const Device& dev_;
   std::vector<int> register_;
   double log_gates_ = 0;
@@ -50,6 +54,7 @@ class NoiseSink final : public GateSink {
   std::vector<double> ready_;       // time each qubit becomes free, ns
   std::vector<double> first_use_;   // start of its first gate, ns; -1 when unused
   double makespan_ = 0;
+  int last_a_ = -1, last_b_ = -1, last_coupler_ = -1;
 };
 
 }  // namespace qftplan

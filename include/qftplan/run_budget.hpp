@@ -93,6 +93,7 @@ class InterruptCheckSink final : public GateSink {
   /// `budget` may be null (then it only forwards); `next` may be null.
   InterruptCheckSink(const RunBudget* budget, GateSink* next) : budget_(budget), next_(next) {}
   void gate(const Gate& g) override;
+  void batch(std::span<const Gate> run) override;
   void finish() override;
 
  private:
