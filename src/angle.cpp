@@ -24,9 +24,11 @@ Angle::Angle(std::int64_t num, std::uint32_t log2_den) : num_(num), log2_den_(lo
   if (log2_den_ < 62) {
     const std::int64_t turn = std::int64_t{1} << (log2_den_ + 1);
     const std::int64_t half_turn = turn / 2;
-    num_ %= turn;
-    if (num_ <= -half_turn) num_ += turn;
-    if (num_ > half_turn) num_ -= turn;
+    if (num_ <= -half_turn || num_ > half_turn) {  // the division only when needed (hot path)
+      num_ %= turn;
+      if (num_ <= -half_turn) num_ += turn;
+      if (num_ > half_turn) num_ -= turn;
+    }
     if (num_ == 0) log2_den_ = 0;
   }
 }

@@ -47,14 +47,13 @@ QubitMaps emit_chain_qft(const QftSpec& spec, const QftNetwork& network, std::sp
   GateRun out(sink);
   if (!spec.inverse) {
     auto pos = network.initial_positions();
-    for (int c = 0; c < network.chunk_count(); ++c) {
-      network.chunk(c, ops);
-      for (const auto& op : ops) {
+    network.for_each_chunk([&](std::span<const NetworkOp> steps) {
+      for (const auto& op : steps) {
         out.put(to_gate(op, spec, chain, pos));
         out.flush_if_full();
         if (swaps(op.kind)) std::swap(pos[op.i], pos[op.j]);
       }
-    }
+    });
   } else {
     // Backwards: positions are those after each step; a swap step acts on the same two positions
     // either way, and is undone after it is emitted.

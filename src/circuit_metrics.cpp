@@ -8,8 +8,13 @@ MetricsSink::MetricsSink(int qubits, bool unfused_depth)
     : unfused_(unfused_depth),
       level_(qubits, 0),
       level_2q_(qubits, 0),
-      level_unfused_(unfused_depth ? qubits : 0, 0),
-      used_(qubits, 0) {}
+      level_unfused_(unfused_depth ? qubits : 0, 0) {}
+
+static long long largest(const std::vector<long long>& v) { return v.empty() ? 0 : *std::max_element(v.begin(), v.end()); }
+
+long long MetricsSink::depth() const { return largest(level_); }
+long long MetricsSink::depth_2q() const { return largest(level_2q_); }
+long long MetricsSink::depth_2q_unfused() const { return largest(level_unfused_); }
 
 long long MetricsSink::two_qubit_count() const {
   long long c = 0;
@@ -33,8 +38,8 @@ std::map<std::string, long long> MetricsSink::counts_by_name() const {
 
 std::vector<int> MetricsSink::used_qubits() const {
   std::vector<int> out;
-  for (int q = 0; q < static_cast<int>(used_.size()); ++q)
-    if (used_[q]) out.push_back(q);
+  for (int q = 0; q < static_cast<int>(level_.size()); ++q)
+    if (level_[q] > 0) out.push_back(q);
   return out;
 }
 

@@ -226,11 +226,9 @@ long long end_swap_count(const QftNetwork& network) {
 
 long long network_native_cost(const QftNetwork& network) {
   long long cost = 0;
-  std::vector<NetworkOp> ops;
-  for (int c = 0; c < network.chunk_count(); ++c) {
-    network.chunk(c, ops);
+  network.for_each_chunk([&cost](std::span<const NetworkOp> ops) {
     for (const auto& op : ops) cost += op.kind == Kind::cp ? 2 : is_swap(op.kind) ? 3 : 0;
-  }
+  });
   return cost;
 }
 

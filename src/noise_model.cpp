@@ -38,42 +38,35 @@ int NoiseSink::coupler_of(int a, int b) {
 }
 
 void NoiseSink::add(const Gate& g) {
-  const auto start_on = [&](std::initializer_list<int> qs, double duration) {
-    double t = 0;
-    for (int q : qs) t = std::max(t, ready_[q]);
-    for (int q : qs) {
-      if (first_use_[q] < 0) first_use_[q] = t;
-      ready_[q] = t + duration;
-    }
-    makespan_ = std::max(makespan_, t + duration);
-  };
+  const int a = g.q0;
+  if (is_two_qubit(g.kind)) {
+    // Logical two-qubit gates count as their native decomposition on the same coupler.
+    const int b = g.q1;
+    const int ci = coupler_of(a, b);
+    const double natives = g.kind == GateKind::cp ? 2 : (g.kind == GateKind::swap || g.kind == GateKind::cp_swap) ? 3 : 1;
+    // A gate off the couplers cannot run: it counts as certain failure.
+    log_gates_ += ci >= 0 ? natives * log_keep_2q_[ci] : -INFINITY;
+    const double t = std::max(ready_[a], ready_[b]);
+    if (first_use_[a] < 0) first_use_[a] = t;
+    if (first_use_[b] < 0) first_use_[b] = t;
+    ready_[a] = ready_[b] = t + (ci >= 0 ? natives * dur_2q_[ci] : 0.0);
+    return;
+  }
   switch (g.kind) {
     case GateKind::rz:
     case GateKind::p:
       // Virtual Z: no error, no time; but the qubit is in use from here on.
-      if (first_use_[g.q0] < 0) first_use_[g.q0] = ready_[g.q0];
+      if (first_use_[a] < 0) first_use_[a] = ready_[a];
       return;
-    case GateKind::h:
-    case GateKind::x:
-    case GateKind::sx: {
-      log_gates_ += log_keep_1q_[g.q0];
-      start_on({g.q0}, dur_1q_[g.q0]);
-      return;
-    }
-    case GateKind::measure: {
-      log_readout_ += std::log1p(-dev_.qubit_calibration(g.q0).error_readout);
+    case GateKind::measure:
+      log_readout_ += std::log1p(-dev_.qubit_calibration(a).error_readout);
       measured_ = true;
       return;
-    }
-    default: {
-      // Two-qubit gates; logical ones count as their native decomposition on the same coupler.
-      const int ci = coupler_of(g.q0, g.q1);
-      const int natives = g.kind == GateKind::cp ? 2 : (g.kind == GateKind::swap || g.kind == GateKind::cp_swap) ? 3 : 1;
-      // A gate off the couplers cannot run: it counts as certain failure.
-      log_gates_ += ci >= 0 ? natives * log_keep_2q_[ci] : -INFINITY;
-      start_on({g.q0, g.q1}, ci >= 0 ? natives * dur_2q_[ci] : 0.0);
+    default:  // h, x, sx
+      log_gates_ += log_keep_1q_[a];
+      if (first_use_[a] < 0) first_use_[a] = ready_[a];
+      ready_[a] += dur_1q_[a];
       return;
-    }
   }
 }
 
@@ -81,13 +74,15 @@ NoiseFigures NoiseSink::figures() const {
   NoiseFigures f;
   f.log_esp = log_gates_;
   f.esp = std::exp(log_gates_);
-  f.duration_ns = makespan_;
+  // Ready times only grow, so the schedule ends at the latest one.
+  const double makespan = ready_.empty() ? 0.0 : *std::max_element(ready_.begin(), ready_.end());
+  f.duration_ns = makespan;
   std::vector<bool> in_register(dev_.qubit_count(), false);
   for (int q : register_) in_register[q] = true;
   double log_idle = 0;
   for (int q = 0; q < dev_.qubit_count(); ++q) {
     if (!in_register[q] && first_use_[q] < 0) continue;
-    const double t_ns = in_register[q] ? makespan_ : makespan_ - first_use_[q];
+    const double t_ns = in_register[q] ? makespan : makespan - first_use_[q];
     const auto c = dev_.qubit_calibration(q);
     // T1 and T2 are in microseconds; an unknown time is +infinity and contributes nothing.
     log_idle -= t_ns / (1000.0 * c.t1_us) + t_ns / (1000.0 * c.t2_us);

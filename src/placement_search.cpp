@@ -47,15 +47,13 @@ ChainLoads chain_loads(const QftSpec& spec, const QftNetwork& network, TwoQubitG
   // Every step acts on the same chain positions whether the network runs forwards or backwards (the
   // inverse), so one forward pass counts both.
   std::vector<int> pos = network.initial_positions();
-  std::vector<NetworkOp> ops;
   std::size_t since_poll = 0;
-  for (int c = 0; c < network.chunk_count(); ++c) {
+  network.for_each_chunk([&](std::span<const NetworkOp> ops) {
     // A dry run of a big network is long and has no partial result worth keeping: throw.
     if (since_poll >= 65536) {
       since_poll = 0;
       throw_if_exhausted(budget, "the ESP scoring of a network");
     }
-    network.chunk(c, ops);
     since_poll += ops.size();
     for (const NetworkOp& op : ops) {
       const StepLoad& l = per_kind[static_cast<int>(op.kind)];
@@ -67,7 +65,7 @@ ChainLoads chain_loads(const QftSpec& spec, const QftNetwork& network, TwoQubitG
       loads.edge_2q[std::min(a, b)] += l.two_q;
       if (op.kind != NetworkOp::Kind::cp) std::swap(pos[op.i], pos[op.j]);
     }
-  }
+  });
   return loads;
 }
 

@@ -1,5 +1,6 @@
 #include "qftplan/plan.hpp"
 
+#include <algorithm>
 #include <chrono>
 #include <cmath>
 #include <limits>
@@ -415,31 +416,37 @@ bool better(const StrategyOutcome& a, const StrategyOutcome& b, Objective o) {
 }  // namespace
 
 static PreparedPlan prepare_auto(const Device& device, const PlanOptions& options) {
-  std::optional<PreparedPlan> best;
-  StrategyOutcome best_outcome;
+  struct Candidate {
+    PreparedPlan plan;
+    std::size_t outcome;  // index in `outcomes`
+  };
+  std::vector<Candidate> prepared;
   std::vector<StrategyOutcome> outcomes;
   std::string first_error;
   bool timed_out = false;
+  const auto planned = [&prepared](const char* name) {
+    return std::any_of(prepared.begin(), prepared.end(), [name](const Candidate& c) { return c.plan.strategy == name; });
+  };
   for (const auto& s : plan_strategies()) {
     if (std::string(s.name) == "auto") continue;
     StrategyOutcome o;
     o.strategy = s.name;
     // The spine is for registers no chain holds: when the chain strategy planned, it is not needed.
-    if (std::string(s.name) == "spine" && best && best->strategy == "chain") {
+    if (std::string(s.name) == "spine" && planned("chain")) {
       o.reason = "not needed: a chain holds the register";
       outcomes.push_back(o);
       continue;
     }
     // The router costs O(n^2) SWAP decisions: as a comparison it runs only on registers of at most
     // kRoutedCompareLimit qubits; beyond that it runs only when nothing structured could plan.
-    if (std::string(s.name) == "routed" && best && options.spec.qubits > kRoutedCompareLimit) {
+    if (std::string(s.name) == "routed" && !prepared.empty() && options.spec.qubits > kRoutedCompareLimit) {
       o.reason = fmt::format("not tried: registers above {} qubits are routed only when no chain exists",
                              kRoutedCompareLimit);
       outcomes.push_back(o);
       continue;
     }
     // Out of time (or interrupted): keep the best strategy so far rather than start another.
-    if (best && options.budget && options.budget->exhausted()) {
+    if (!prepared.empty() && options.budget && options.budget->exhausted()) {
       o.reason = "not tried: the time limit ran out";
       outcomes.push_back(o);
       timed_out = true;
@@ -447,24 +454,15 @@ static PreparedPlan prepare_auto(const Device& device, const PlanOptions& option
     }
     try {
       PreparedPlan p = s.prepare(device, options);
-      const PlanReport r = execute_plan(device, options, p, nullptr);
       o.ok = true;
-      o.network = r.network;
-      o.cx_count = r.cx_count;
-      o.depth_2q = r.depth_2q;
-      o.swaps = r.swaps;
-      o.log_esp = r.noise.log_esp;
-      if (!best || better(o, best_outcome, options.objective)) {
-        p.evaluated = std::make_shared<const PlanReport>(r);
-        best = std::move(p);
-        best_outcome = o;
-      }
+      o.network = p.routed ? "routed" : p.network->name();
+      prepared.push_back({std::move(p), outcomes.size()});
     } catch (const PlanningError& e) {
       o.reason = e.what();
       if (first_error.empty()) first_error = e.what();
     } catch (const TimeLimitReached& e) {
       // Out of time in this strategy: keep an earlier strategy's plan when there is one.
-      if (!best) throw;
+      if (prepared.empty()) throw;
       o.reason = std::string("cut short: ") + e.what();
       timed_out = true;
     } catch (const InputError& e) {
@@ -476,10 +474,27 @@ static PreparedPlan prepare_auto(const Device& device, const PlanOptions& option
     outcomes.push_back(o);
   }
   throw_if_interrupted(options.budget);
-  if (!best) throw PlanningError(first_error.empty() ? "no strategy could plan this request" : first_error);
-  best->alternatives = outcomes;
-  if (timed_out) best->cut_short += std::string(best->cut_short.empty() ? "" : ", ") + "the strategy comparison";
-  return std::move(*best);
+  if (prepared.empty()) throw PlanningError(first_error.empty() ? "no strategy could plan this request" : first_error);
+  // Several plans: stream each through the counters (no output) and keep the best by the objective;
+  // the figures are kept, so a report-only run does not stream the chosen plan again. A single plan
+  // needs no comparison: execute_plan fills in its outcome.
+  std::size_t pick = 0;
+  if (prepared.size() > 1) {
+    for (std::size_t i = 0; i < prepared.size(); ++i) {
+      const PlanReport r = execute_plan(device, options, prepared[i].plan, nullptr);
+      StrategyOutcome& o = outcomes[prepared[i].outcome];
+      o.cx_count = r.cx_count;
+      o.depth_2q = r.depth_2q;
+      o.swaps = r.swaps;
+      o.log_esp = r.noise.log_esp;
+      prepared[i].plan.evaluated = std::make_shared<const PlanReport>(r);
+      if (i > 0 && better(o, outcomes[prepared[pick].outcome], options.objective)) pick = i;
+    }
+  }
+  PreparedPlan best = std::move(prepared[pick].plan);
+  best.alternatives = outcomes;
+  if (timed_out) best.cut_short += std::string(best.cut_short.empty() ? "" : ", ") + "the strategy comparison";
+  return best;
 }
 
 PreparedPlan prepare_plan(const Device& device, const PlanOptions& options) {
@@ -498,12 +513,25 @@ PreparedPlan prepare_plan(const Device& device, const PlanOptions& options) {
   throw InputError("unknown strategy '" + options.strategy + "' (valid: " + names + ")");
 }
 
+// The chosen strategy's row of the comparison gets the report's own figures (the same plan), also
+// when it was the only strategy that could plan and so was never streamed for a comparison.
+static void fill_chosen_outcome(PlanReport& r) {
+  for (auto& o : r.alternatives)
+    if (o.ok && o.strategy == r.strategy) {
+      o.cx_count = r.cx_count;
+      o.depth_2q = r.depth_2q;
+      o.swaps = r.swaps;
+      o.log_esp = r.noise.log_esp;
+    }
+}
+
 PlanReport execute_plan(const Device& device, const PlanOptions& options, const PreparedPlan& plan, GateSink* output) {
   const auto t0 = std::chrono::steady_clock::now();
   if (!output && plan.evaluated) {
     // --strategy auto already streamed this plan through the counters while choosing it.
     PlanReport r = *plan.evaluated;
     r.alternatives = plan.alternatives;
+    fill_chosen_outcome(r);
     return r;
   }
   const int D = device.qubit_count();
@@ -593,6 +621,7 @@ PlanReport execute_plan(const Device& device, const PlanOptions& options, const 
   r.lower_bound_blocks = plan.spec.kept_rotations();
   r.lower_bound_depth_2q = plan.spec.qubits >= 2 && plan.spec.max_distance() >= 1 ? plan.spec.qubits - 1 : 0;
   r.alternatives = plan.alternatives;
+  fill_chosen_outcome(r);
   r.end_order = end_order_name(options.end_order);
   r.end_swaps = plan.end_swaps;
   r.elapsed_ms = std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - t0).count();

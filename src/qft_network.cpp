@@ -1,6 +1,7 @@
 #include "qftplan/qft_network.hpp"
 
 #include <algorithm>
+#include <mutex>
 #include <numeric>
 #include <stdexcept>
 
@@ -14,34 +15,36 @@ std::vector<int> QftNetwork::initial_positions() const {
   return pos;
 }
 
-std::vector<int> QftNetwork::final_positions() const {
-  std::vector<int> pos = initial_positions();
+void QftNetwork::for_each_chunk(const std::function<void(std::span<const NetworkOp>)>& visit) const {
   std::vector<NetworkOp> ops;
   for (int c = 0; c < chunk_count(); ++c) {
     chunk(c, ops);
+    visit(ops);
+  }
+}
+
+std::vector<int> QftNetwork::final_positions() const {
+  std::vector<int> pos = initial_positions();
+  for_each_chunk([&pos](std::span<const NetworkOp> ops) {
     for (const auto& op : ops)
       if (op.kind == Kind::swap || op.kind == Kind::cp_swap) std::swap(pos[op.i], pos[op.j]);
-  }
+  });
   return pos;
 }
 
 long long QftNetwork::block_count() const {
   long long n = 0;
-  std::vector<NetworkOp> ops;
-  for (int c = 0; c < chunk_count(); ++c) {
-    chunk(c, ops);
+  for_each_chunk([&n](std::span<const NetworkOp> ops) {
     for (const auto& op : ops) n += op.kind != Kind::h;
-  }
+  });
   return n;
 }
 
 long long QftNetwork::swap_count() const {
   long long n = 0;
-  std::vector<NetworkOp> ops;
-  for (int c = 0; c < chunk_count(); ++c) {
-    chunk(c, ops);
+  for_each_chunk([&n](std::span<const NetworkOp> ops) {
     for (const auto& op : ops) n += op.kind == Kind::swap || op.kind == Kind::cp_swap;
-  }
+  });
   return n;
 }
 
@@ -99,35 +102,61 @@ class LeapfrogNetwork final : public QftNetwork {
  public:
   LeapfrogNetwork(int n, int d) : QftNetwork(n, d) {
     if (d < 1) throw std::invalid_argument("leapfrog network needs d >= 1");
+    simulate([this](std::span<const NetworkOp> ops) { blocks_ += static_cast<long long>(ops.size()) - 1; });
+  }
+  std::string name() const override { return "leapfrog"; }
+  long long block_count() const override { return blocks_; }
+  int chunk_count() const override { return wires_; }
+  void chunk(int c, std::vector<NetworkOp>& out) const override {
+    std::call_once(kept_, [this] {
+      ops_.reserve(static_cast<std::size_t>(blocks_ + wires_));
+      start_.reserve(static_cast<std::size_t>(wires_) + 1);
+      start_.push_back(0);
+      simulate([this](std::span<const NetworkOp> ops) {
+        ops_.insert(ops_.end(), ops.begin(), ops.end());
+        start_.push_back(ops_.size());
+      });
+    });
+    out.assign(ops_.begin() + static_cast<std::ptrdiff_t>(start_[c]),
+               ops_.begin() + static_cast<std::ptrdiff_t>(start_[c + 1]));
+  }
+  void for_each_chunk(const std::function<void(std::span<const NetworkOp>)>& visit) const override {
+    simulate(visit);
+  }
+
+ private:
+  // Runs the travels; chunk j (wire j's Hadamard and journey) goes to `visit`.
+  template <class Visit>
+  void simulate(Visit&& visit) const {
+    const int n = wires_, d = d_;
     std::vector<int> at(n), pos(n);  // at[p]: wire at chain position p
     for (int i = 0; i < n; ++i) at[i] = pos[i] = i;
-    start_.push_back(0);
+    std::vector<NetworkOp> ops;
+    ops.reserve(2 * static_cast<std::size_t>(d) + 1);
     for (int j = 0; j < n; ++j) {
-      ops_.push_back({Kind::h, j, -1});
+      ops.clear();
+      ops.push_back({Kind::h, j, -1});
       const int last = std::min(j + d, n - 1);
       bool passed_last = j == last;
       while (!passed_last) {
         const int p = pos[j];
         const int q = at[p + 1];
         const bool needed = q > j && q - j <= d;
-        ops_.push_back({needed ? Kind::cp_swap : Kind::swap, std::min(j, q), std::max(j, q)});
+        ops.push_back({needed ? Kind::cp_swap : Kind::swap, std::min(j, q), std::max(j, q)});
         std::swap(at[p], at[p + 1]);
         pos[at[p]] = p;
         pos[at[p + 1]] = p + 1;
         passed_last = q == last;
       }
-      start_.push_back(static_cast<long long>(ops_.size()));
+      visit(std::span<const NetworkOp>(ops));
     }
   }
-  std::string name() const override { return "leapfrog"; }
-  int chunk_count() const override { return wires_; }
-  void chunk(int c, std::vector<NetworkOp>& out) const override {
-    out.assign(ops_.begin() + start_[c], ops_.begin() + start_[c + 1]);
-  }
 
- private:
-  std::vector<NetworkOp> ops_;
-  std::vector<long long> start_;
+  long long blocks_ = 0;
+  // Kept on the first call of chunk() (random access); thread-safe.
+  mutable std::once_flag kept_;
+  mutable std::vector<NetworkOp> ops_;
+  mutable std::vector<std::size_t> start_;
 };
 
 class AdjacentNetwork final : public QftNetwork {

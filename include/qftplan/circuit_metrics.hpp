@@ -28,44 +28,38 @@ class MetricsSink final : public GateSink {
   long long two_qubit_count() const;
   long long total() const;
   /// Layers of all gates (measurements included).
-  long long depth() const { return depth_; }
+  long long depth() const;
   /// Layers of two-qubit gates only (one-qubit gates take no layer).
-  long long depth_2q() const { return depth_2q_; }
+  long long depth_2q() const;
   /// Layers of two-qubit gates when each fused cp_swap is written as cp then swap (two layers);
   /// 0 unless constructed with `unfused_depth`.
-  long long depth_2q_unfused() const { return depth_2q_unfused_; }
+  long long depth_2q_unfused() const;
   /// Counts by gate name, leaving out kinds that never occurred.
   std::map<std::string, long long> counts_by_name() const;
   /// Physical qubits touched by at least one gate.
   std::vector<int> used_qubits() const;
 
  private:
+  // Levels only grow, so the depths are the largest final levels (computed when asked). Written
+  // without branches on the kind: a one-qubit gate is a "two-qubit gate" on (q0, q0) that adds no
+  // two-qubit layer.
   void add(const Gate& g) {
     ++counts_[static_cast<int>(g.kind)];
-    used_[g.q0] = 1;
-    if (is_two_qubit(g.kind)) {
-      used_[g.q1] = 1;
-      const long long l = std::max(level_[g.q0], level_[g.q1]) + 1;
-      level_[g.q0] = level_[g.q1] = l;
-      depth_ = std::max(depth_, l);
-      const long long l2 = std::max(level_2q_[g.q0], level_2q_[g.q1]) + 1;
-      level_2q_[g.q0] = level_2q_[g.q1] = l2;
-      depth_2q_ = std::max(depth_2q_, l2);
-      if (unfused_) {
-        const long long lu = std::max(level_unfused_[g.q0], level_unfused_[g.q1]) + (g.kind == GateKind::cp_swap ? 2 : 1);
-        level_unfused_[g.q0] = level_unfused_[g.q1] = lu;
-        depth_2q_unfused_ = std::max(depth_2q_unfused_, lu);
-      }
-    } else {
-      const long long l = ++level_[g.q0];
-      depth_ = std::max(depth_, l);
+    const bool two = is_two_qubit(g.kind);
+    const int a = g.q0, b = two ? g.q1 : g.q0;
+    const long long l = std::max(level_[a], level_[b]) + 1;
+    level_[a] = level_[b] = l;
+    const long long l2 = std::max(level_2q_[a], level_2q_[b]) + (two ? 1 : 0);
+    level_2q_[a] = level_2q_[b] = l2;
+    if (unfused_) {
+      const long long lu = std::max(level_unfused_[a], level_unfused_[b]) + (two ? 1 : 0) +
+                           (g.kind == GateKind::cp_swap ? 1 : 0);
+      level_unfused_[a] = level_unfused_[b] = lu;
     }
   }
   std::array<long long, kGateKindCount> counts_{};
-  long long depth_ = 0, depth_2q_ = 0, depth_2q_unfused_ = 0;
   bool unfused_;
-  std::vector<long long> level_, level_2q_, level_unfused_;
-  std::vector<unsigned char> used_;
+  std::vector<long long> level_, level_2q_, level_unfused_;  // per qubit; level_ > 0 iff used
 };
 
 }  // namespace qftplan

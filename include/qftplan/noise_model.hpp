@@ -53,7 +53,6 @@ class NoiseSink final : public GateSink {
   std::vector<double> log_keep_1q_, dur_1q_, log_keep_2q_, dur_2q_;
   std::vector<double> ready_;       // time each qubit becomes free, ns
   std::vector<double> first_use_;   // start of its first gate, ns; -1 when unused
-  double makespan_ = 0;
   int last_a_ = -1, last_b_ = -1, last_coupler_ = -1;
 };
 

@@ -4,7 +4,9 @@
 /// wires meet, in what order, and whether they swap. A network knows nothing of the device; the
 /// chain planner maps positions on the chain to physical qubits.
 
+#include <functional>
 #include <memory>
+#include <span>
 #include <string>
 #include <vector>
 
@@ -31,12 +33,16 @@ class QftNetwork {
   virtual int chunk_count() const = 0;
   /// Appends the steps of chunk `c` in forward order to `out` (which is cleared first).
   virtual void chunk(int c, std::vector<NetworkOp>& out) const = 0;
+  /// Streams the steps forwards to `visit`, one chunk at a time (the chunks of chunk(), in order).
+  /// The default walks chunk(); a network that computes its steps by simulation streams them
+  /// without keeping them all.
+  virtual void for_each_chunk(const std::function<void(std::span<const NetworkOp>)>& visit) const;
   /// Chain position of every wire at the start (identity for all our networks).
   std::vector<int> initial_positions() const;
   /// Chain position of every wire at the end (by a dry run of the steps).
   std::vector<int> final_positions() const;
   /// Number of two-wire steps (blocks) and of those that swap.
-  long long block_count() const;
+  virtual long long block_count() const;
   long long swap_count() const;
   int wires() const { return wires_; }
   int max_distance() const { return d_; }
@@ -54,7 +60,8 @@ std::unique_ptr<QftNetwork> make_reversal_network(int wires, int max_distance);
 
 /// Our network for the approximate QFT with kept distance d: each wire travels right past the d
 /// wires it must meet, leapfrogging the wires that have finished (at most 2d blocks per wire,
-/// linear depth). Its steps are computed once by simulation and kept (O(n d) memory).
+/// linear depth). Its steps are computed by simulation: streamed forwards without being kept, and
+/// kept (O(n d) memory) once chunk() asks for random access (the inverse runs it backwards).
 std::unique_ptr<QftNetwork> make_leapfrog_network(int wires, int max_distance);
 
 /// Distance d = 1: wires stay in order and only neighbours interact (n-1 controlled phases, no SWAP).
