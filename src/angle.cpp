@@ -1,12 +1,16 @@
 #include "qftplan/angle.hpp"
 
+#include <algorithm>
 #include <charconv>
 #include <cmath>
 #include <mutex>
 #include <numbers>
 #include <stdexcept>
+#include <string_view>
 #include <unordered_map>
 #include <vector>
+
+#include "qftplan/decimal_digits.hpp"
 
 namespace qftplan {
 
@@ -71,19 +75,26 @@ void append_numerator(std::string& out, std::int64_t num) {
 
 }  // namespace
 
-void Angle::append_qasm3(std::string& out) const {
+char* Angle::write_qasm3(char* out) const {
+  // Longest: "-9223372036854775807*pi/2**4294967295" (37 characters).
+  auto put = [&out](std::string_view s) { out = std::copy(s.begin(), s.end(), out); };
   if (num_ == 0) {
-    out += '0';
-    return;
+    *out++ = '0';
+    return out;
   }
-  append_numerator(out, num_);
-  if (log2_den_ == 0) return;
+  if (num_ == -1) put("-pi");
+  else if (num_ == 1) put("pi");
+  else {
+    out = std::to_chars(out, out + 24, num_).ptr;
+    put("*pi");
+  }
+  if (log2_den_ == 0) return out;
   if (log2_den_ == 1) {
-    out += "/2";
-    return;
+    put("/2");
+    return out;
   }
-  out += "/2**";
-  append_int(out, log2_den_);
+  put("/2**");
+  return write_decimal(out, log2_den_);
 }
 
 void Angle::append_qasm2(std::string& out) const {
@@ -98,9 +109,8 @@ void Angle::append_qasm2(std::string& out) const {
 }
 
 std::string Angle::qasm3() const {
-  std::string s;
-  append_qasm3(s);
-  return s;
+  char buf[kMaxQasm3Chars];
+  return std::string(buf, write_qasm3(buf));
 }
 
 std::string Angle::qasm2() const {

@@ -1,6 +1,7 @@
 #include "qftplan/circuit_metrics.hpp"
 
 #include <algorithm>
+#include <tuple>
 
 namespace qftplan {
 
@@ -9,6 +10,19 @@ MetricsSink::MetricsSink(int qubits, bool unfused_depth)
       level_(qubits, 0),
       level_2q_(qubits, 0),
       level_unfused_(unfused_depth ? qubits : 0, 0) {}
+
+void MetricsSink::replay(const GateProgram& program, int q0, int q1) {
+  // The unfused depth and gates on one qubit take the plain path; otherwise the program's max-plus
+  // matrices move both levels at once.
+  if (unfused_ || !program.two_qubit() || q0 == q1) {
+    for (const ProgramStep& s : program.view())
+      add(make_gate(s.kind, GateProgram::qubit(s.a, q0, q1), GateProgram::qubit(s.b, q0, q1)));
+    return;
+  }
+  for (const auto& [kind, count] : program.kind_counts()) counts_[static_cast<int>(kind)] += count;
+  std::tie(level_[q0], level_[q1]) = program.levels().apply(level_[q0], level_[q1]);
+  std::tie(level_2q_[q0], level_2q_[q1]) = program.levels_2q().apply(level_2q_[q0], level_2q_[q1]);
+}
 
 static long long largest(const std::vector<long long>& v) { return v.empty() ? 0 : *std::max_element(v.begin(), v.end()); }
 

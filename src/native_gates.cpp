@@ -1,5 +1,6 @@
 #include "qftplan/native_gates.hpp"
 
+#include "qftplan/circuit_metrics.hpp"
 #include "qftplan/input_error.hpp"
 
 namespace qftplan {
@@ -82,6 +83,46 @@ void NativeDecomposer::rewrite(const Gate& g) {
     }
     default: out_.put(g); return;
   }
+}
+
+GateProgram native_program(TwoQubitGate target, GateKind k) {
+  VectorSink v;
+  NativeDecomposer dec(target, v);
+  // A generic angle: no rewrite may depend on its value for the counts to hold for every angle.
+  dec.gate(make_gate(k, 0, is_two_qubit(k) ? 1 : -1, Angle(3, 5)));
+  std::vector<ProgramStep> steps;
+  for (const Gate& g : v.gates) {
+    const auto a = static_cast<std::uint8_t>(g.q0);
+    steps.push_back({g.kind, a, is_two_qubit(g.kind) ? static_cast<std::uint8_t>(g.q1) : a});
+  }
+  return GateProgram(steps);
+}
+
+NativeReplay::NativeReplay(TwoQubitGate target, MetricsSink& metrics, NoiseSink& noise)
+    : metrics_(metrics), noise_(noise) {
+  for (int k = 0; k < kGateKindCount; ++k)
+    if (static_cast<GateKind>(k) != GateKind::measure) {
+      programs_[k] = native_program(target, static_cast<GateKind>(k));
+      costs_[k] = NoiseSink::cost_of(programs_[k]);
+    }
+}
+
+void NativeReplay::batch(std::span<const Gate> run) {
+  for (const Gate& g : run) {
+    if (g.kind == GateKind::measure) {
+      metrics_.gate(g);
+      noise_.gate(g);
+      continue;
+    }
+    const GateProgram& p = programs_[static_cast<int>(g.kind)];
+    metrics_.replay(p, g.q0, g.q1);
+    noise_.replay(p, costs_[static_cast<int>(g.kind)], g.q0, g.q1);
+  }
+}
+
+void NativeReplay::finish() {
+  metrics_.finish();
+  noise_.finish();
 }
 
 void FusedBlockSplitter::batch(std::span<const Gate> run) {

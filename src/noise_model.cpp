@@ -37,37 +37,101 @@ int NoiseSink::coupler_of(int a, int b) {
   return last_coupler_;
 }
 
-void NoiseSink::add(const Gate& g) {
-  const int a = g.q0;
-  if (is_two_qubit(g.kind)) {
+namespace {
+
+double natives_of(GateKind k) {
+  return k == GateKind::cp ? 2 : (k == GateKind::swap || k == GateKind::cp_swap) ? 3 : 1;
+}
+
+}  // namespace
+
+inline void NoiseSink::step(GateKind k, int qa, int ci, double& ra, double& fa, double& rb, double& fb) {
+  if (is_two_qubit(k)) {
     // Logical two-qubit gates count as their native decomposition on the same coupler.
-    const int b = g.q1;
-    const int ci = coupler_of(a, b);
-    const double natives = g.kind == GateKind::cp ? 2 : (g.kind == GateKind::swap || g.kind == GateKind::cp_swap) ? 3 : 1;
+    const double natives = natives_of(k);
     // A gate off the couplers cannot run: it counts as certain failure.
     log_gates_ += ci >= 0 ? natives * log_keep_2q_[ci] : -INFINITY;
-    const double t = std::max(ready_[a], ready_[b]);
-    if (first_use_[a] < 0) first_use_[a] = t;
-    if (first_use_[b] < 0) first_use_[b] = t;
-    ready_[a] = ready_[b] = t + (ci >= 0 ? natives * dur_2q_[ci] : 0.0);
+    const double t = std::max(ra, rb);
+    if (fa < 0) fa = t;
+    if (fb < 0) fb = t;
+    ra = rb = t + (ci >= 0 ? natives * dur_2q_[ci] : 0.0);
     return;
   }
-  switch (g.kind) {
-    case GateKind::rz:
-    case GateKind::p:
-      // Virtual Z: no error, no time; but the qubit is in use from here on.
-      if (first_use_[a] < 0) first_use_[a] = ready_[a];
-      return;
-    case GateKind::measure:
-      log_readout_ += std::log1p(-dev_.qubit_calibration(a).error_readout);
-      measured_ = true;
-      return;
-    default:  // h, x, sx
-      log_gates_ += log_keep_1q_[a];
-      if (first_use_[a] < 0) first_use_[a] = ready_[a];
-      ready_[a] += dur_1q_[a];
-      return;
+  if (fa < 0) fa = ra;  // the qubit is in use from here on
+  if (k == GateKind::rz || k == GateKind::p) return;  // virtual Z: no error, no time
+  // h, x, sx
+  log_gates_ += log_keep_1q_[qa];
+  ra += dur_1q_[qa];
+}
+
+void NoiseSink::add(const Gate& g) {
+  const int a = g.q0;
+  if (g.kind == GateKind::measure) {
+    log_readout_ += std::log1p(-dev_.qubit_calibration(a).error_readout);
+    measured_ = true;
+    return;
   }
+  if (is_two_qubit(g.kind)) {
+    const int b = g.q1;
+    step(g.kind, a, coupler_of(a, b), ready_[a], first_use_[a], ready_[b], first_use_[b]);
+  } else {
+    step(g.kind, a, -1, ready_[a], first_use_[a], ready_[a], first_use_[a]);
+  }
+}
+
+
+NoiseSink::ProgramCost NoiseSink::cost_of(const GateProgram& program) {
+  ProgramCost c;
+  c.segments.emplace_back();
+  bool synced = false;
+  for (const ProgramStep& s : program.view()) {
+    if (is_two_qubit(s.kind)) {
+      c.natives_2q += static_cast<int>(natives_of(s.kind));
+      c.segments.back().syncs += static_cast<int>(natives_of(s.kind));
+      synced = true;
+      continue;
+    }
+    if (!synced) c.used_early[s.a] = true;
+    if (s.kind == GateKind::rz || s.kind == GateKind::p) continue;  // virtual Z: no error, no time
+    ++c.errors_1q[s.a];
+    // A timed gate after two-qubit gates starts a new segment.
+    if (c.segments.back().syncs > 0) c.segments.emplace_back();
+    ++c.segments.back().timed[s.a];
+  }
+  return c;
+}
+
+void NoiseSink::replay(const GateProgram& program, const ProgramCost& cost, int q0, int q1) {
+  if (!program.two_qubit() || q0 == q1) {
+    for (const ProgramStep& s : program.view())
+      add(make_gate(s.kind, GateProgram::qubit(s.a, q0, q1), GateProgram::qubit(s.b, q0, q1)));
+    return;
+  }
+  const int ci = coupler_of(q0, q1);
+  // A gate off the couplers cannot run: it counts as certain failure and takes no time.
+  const double keep_2q = ci >= 0 ? log_keep_2q_[ci] : -INFINITY, dur_2q = ci >= 0 ? dur_2q_[ci] : 0.0;
+  log_gates_ += cost.errors_1q[0] * log_keep_1q_[q0] + cost.errors_1q[1] * log_keep_1q_[q1] + cost.natives_2q * keep_2q;
+  const double d0 = dur_1q_[q0], d1 = dur_1q_[q1];
+  double r0 = ready_[q0], r1 = ready_[q1];
+  // First use: at the start when the slot has a gate before the first two-qubit gate, else when
+  // that gate starts.
+  if (first_use_[q0] < 0 && cost.used_early[0]) first_use_[q0] = r0;
+  if (first_use_[q1] < 0 && cost.used_early[1]) first_use_[q1] = r1;
+  bool first_sync = true;
+  for (const ProgramCost::Segment& seg : cost.segments) {
+    r0 += seg.timed[0] * d0;
+    r1 += seg.timed[1] * d1;
+    if (seg.syncs == 0) continue;
+    const double t = std::max(r0, r1);
+    if (first_sync) {
+      if (first_use_[q0] < 0) first_use_[q0] = t;
+      if (first_use_[q1] < 0) first_use_[q1] = t;
+      first_sync = false;
+    }
+    r0 = r1 = t + seg.syncs * dur_2q;
+  }
+  ready_[q0] = r0;
+  ready_[q1] = r1;
 }
 
 NoiseFigures NoiseSink::figures() const {

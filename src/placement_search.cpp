@@ -45,7 +45,10 @@ ChainLoads chain_loads(const QftSpec& spec, const QftNetwork& network, TwoQubitG
   StepLoad per_kind[4];
   for (int k = 0; k < 4; ++k) per_kind[k] = step_load(static_cast<NetworkOp::Kind>(k), native);
   // Every step acts on the same chain positions whether the network runs forwards or backwards (the
-  // inverse), so one forward pass counts both.
+  // inverse), so one forward pass counts both. Only the orientation differs: run backwards, a swapping
+  // step is emitted from the positions after it, so its first qubit is the forward step's second
+  // (which matters where the decomposition is not symmetric, as the Hadamards around CZ are).
+  const bool flipped = spec.inverse;
   std::vector<int> pos = network.initial_positions();
   std::size_t since_poll = 0;
   network.for_each_chunk([&](std::span<const NetworkOp> ops) {
@@ -58,10 +61,14 @@ ChainLoads chain_loads(const QftSpec& spec, const QftNetwork& network, TwoQubitG
     for (const NetworkOp& op : ops) {
       const StepLoad& l = per_kind[static_cast<int>(op.kind)];
       const int a = pos[op.i];
-      loads.pos_1q[a] += l.one_q[0];
-      if (op.kind == NetworkOp::Kind::h) continue;
+      if (op.kind == NetworkOp::Kind::h) {
+        loads.pos_1q[a] += l.one_q[0];
+        continue;
+      }
       const int b = pos[op.j];
-      loads.pos_1q[b] += l.one_q[1];
+      const bool flip = flipped && op.kind != NetworkOp::Kind::cp;
+      loads.pos_1q[a] += l.one_q[flip ? 1 : 0];
+      loads.pos_1q[b] += l.one_q[flip ? 0 : 1];
       loads.edge_2q[std::min(a, b)] += l.two_q;
       if (op.kind != NetworkOp::Kind::cp) std::swap(pos[op.i], pos[op.j]);
     }
@@ -165,6 +172,19 @@ class Exhaustive {
 
 double chain_log_esp(const Device& device, const ChainLoads& loads, std::span<const int> chain) {
   return Scorer(device, loads).chain(chain);
+}
+
+double uniform_log_esp(const Device& device, const QftNetwork& network, TwoQubitGate native) {
+  const auto counts = network.step_counts();
+  double one_q = 0, two_q = 0;  // native gates that carry an error
+  for (int k = 0; k < 4; ++k) {
+    const StepLoad l = step_load(static_cast<NetworkOp::Kind>(k), native);
+    one_q += static_cast<double>(counts[k]) * (l.one_q[0] + l.one_q[1]);
+    two_q += static_cast<double>(counts[k]) * l.two_q;
+  }
+  const double log_1q = device.qubit_count() > 0 ? std::log1p(-device.qubit_calibration(0).error_1q) : 0.0;
+  const double log_2q = device.coupler_count() > 0 ? std::log1p(-device.coupler_calibration(0).error) : 0.0;
+  return (one_q > 0 ? one_q * log_1q : 0.0) + (two_q > 0 ? two_q * log_2q : 0.0);
 }
 
 PlacementChoice best_chain(const Device& device, const ChainLoads& loads, const std::vector<int>& fallback,

@@ -97,14 +97,16 @@ bool uniform_errors(const Device& device) {
 // Largest network (in blocks) whose ESP we evaluate by a dry run during --approx auto.
 constexpr long long kMaxScoredBlocks = 4'000'000;
 
-DegreeCandidate score_degree(const Device& device, const QftSpec& base, std::optional<int> degree,
+DegreeCandidate score_degree(const Device& device, bool uniform, const QftSpec& base, std::optional<int> degree,
                              const std::vector<int>& chain, EndOrder end_order, const RunBudget* budget = nullptr) {
   QftSpec spec = base;
   spec.approx_degree = degree;
   const auto net = choose_network(spec, end_order);
   DegreeCandidate c;
   c.degree = degree;
-  c.log_esp = chain_log_esp(device, chain_loads(spec, *net, device.native_2q(), budget), chain);
+  // Uniform errors: the ESP follows from the numbers of gates (no dry run of the whole network).
+  c.log_esp = uniform ? uniform_log_esp(device, *net, device.native_2q())
+                      : chain_log_esp(device, chain_loads(spec, *net, device.native_2q(), budget), chain);
   c.error_bound = approx_error_bound(spec.qubits, degree);
   c.fidelity_bound = approx_fidelity_lower_bound(c.error_bound);
   c.score = std::exp(c.log_esp) * c.fidelity_bound;
@@ -118,13 +120,14 @@ DegreeChoice choose_degree(const Device& device, const QftSpec& base, const std:
                            EndOrder end_order, const RunBudget* budget = nullptr, bool* cut = nullptr) {
   DegreeChoice out;
   const int n = base.qubits;
+  const bool uniform = uniform_errors(device);
   try {
     for (int m = 1; m < n; ++m) {
-      out.considered.push_back(score_degree(device, base, m, chain, end_order, budget));
+      out.considered.push_back(score_degree(device, uniform, base, m, chain, end_order, budget));
       if (out.considered.back().fidelity_bound >= 1.0 - 1e-12) break;
     }
     if (static_cast<long long>(n) * (n - 1) / 2 <= kMaxScoredBlocks || out.considered.empty())
-      out.considered.push_back(score_degree(device, base, std::nullopt, chain, end_order, budget));
+      out.considered.push_back(score_degree(device, uniform, base, std::nullopt, chain, end_order, budget));
   } catch (const TimeLimitReached&) {
     // Out of time: choose among the degrees scored so far (exact when none was).
     if (cut) *cut = true;
@@ -217,16 +220,9 @@ static PreparedPlan prepare_chain(const Device& device, const PlanOptions& optio
   }
   throw_if_interrupted(options.budget);
   if (plan.placement.best.empty()) {
-    plan.placement.best.push_back({chain, 0.0});
-    const auto net = choose_network(plan.spec, options.end_order);
-    try {
-      plan.placement.best.front().log_esp =
-          chain_log_esp(device, chain_loads(plan.spec, *net, device.native_2q(), options.budget), chain);
-    } catch (const TimeLimitReached&) {
-      // Not scored in time: execute_plan fills in the ESP it measures while streaming.
-      plan.placement.best.front().log_esp = std::numeric_limits<double>::quiet_NaN();
-      note_cut("the ESP scoring of the chain");
-    }
+    // One chain, not chosen by score: its ESP is the plan's own, which execute_plan measures while
+    // streaming (a dry run here would stream the whole network once more).
+    plan.placement.best.push_back({chain, std::numeric_limits<double>::quiet_NaN()});
     plan.placement.chains_scored = 1;
   }
   plan.network = choose_network(plan.spec, options.end_order);
@@ -539,34 +535,39 @@ PlanReport execute_plan(const Device& device, const PlanOptions& options, const 
   const bool emitted_is_native = plan.gates == gate_set_of(native_gate);
 
   // Sinks: the fused stream feeds the logical counters (which also count the depth the blocks
-  // would have unfused) and the native decomposition (counters and noise model). The emitted
-  // circuit is the native one when the gate set is native, so then those counters serve both;
-  // otherwise a second path rewrites the stream into the emitted gate set.
+  // would have unfused) and, replayed as native programs, the native counters and the noise model
+  // (the native gates themselves are made only for a writer of them). The emitted circuit is the
+  // native one when the gate set is native, so then those counters serve both; otherwise a second
+  // path rewrites the stream into the emitted gate set.
   MetricsSink logical(D, /*unfused_depth=*/true), native(D);
   std::optional<MetricsSink> emitted_counter;
   if (!emitted_is_native) emitted_counter.emplace(D);
-  MetricsSink& emitted = emitted_is_native ? native : *emitted_counter;
   NoiseSink noise(device, plan.maps.placement);
-  std::vector<GateSink*> native_targets{&native, &noise};
-  std::vector<GateSink*> emitted_targets{&emitted};
-  if (output) (emitted_is_native ? native_targets : emitted_targets).push_back(output);
-  TeeSink emitted_tee(emitted_targets);
-  TeeSink native_tee(native_targets);
-  NativeDecomposer to_native(native_gate, native_tee);
+  NativeReplay to_native(native_gate, native, noise);
+  std::vector<GateSink*> emitted_targets;
+  if (emitted_counter) emitted_targets.push_back(&*emitted_counter);
+  if (output) emitted_targets.push_back(output);
   std::unique_ptr<GateSink> emit_path, swap_expander;
-  if (!emitted_is_native) {
-    if (plan.gates == GateSet::logical) {
-      if (options.swap_as_cx) {
-        swap_expander = std::make_unique<SwapExpander>(emitted_tee);
-        emit_path = std::make_unique<FusedBlockSplitter>(*swap_expander);
-      } else {
-        emit_path = std::make_unique<FusedBlockSplitter>(emitted_tee);
-      }
+  TeeSink emitted_tee(emitted_targets);
+  if (emitted_is_native) {
+    if (output) emit_path = std::make_unique<NativeDecomposer>(native_gate, emitted_tee);
+  } else if (plan.gates == GateSet::logical) {
+    if (options.swap_as_cx) {
+      swap_expander = std::make_unique<SwapExpander>(emitted_tee);
+      emit_path = std::make_unique<FusedBlockSplitter>(*swap_expander);
+    } else {
+      emit_path = std::make_unique<FusedBlockSplitter>(emitted_tee);
     }
-    else emit_path = std::make_unique<NativeDecomposer>(plan.gates == GateSet::cz ? TwoQubitGate::cz : TwoQubitGate::cx, emitted_tee);
+  } else {
+    emit_path = std::make_unique<NativeDecomposer>(plan.gates == GateSet::cz ? TwoQubitGate::cz : TwoQubitGate::cx,
+                                                   emitted_tee);
   }
+  MetricsSink& emitted = emitted_counter ? *emitted_counter : native;
   std::vector<GateSink*> top{&logical, &to_native};
   if (emit_path) top.push_back(emit_path.get());
+  // Ctrl-C stops a long stream (every 4096 gates; the deadline is not checked: this is no search).
+  InterruptCheckSink interrupt(options.budget, nullptr);
+  if (options.budget) top.push_back(&interrupt);
   TeeSink all(top);
 
   if (plan.routed) {

@@ -32,20 +32,22 @@ std::vector<int> QftNetwork::final_positions() const {
   return pos;
 }
 
-long long QftNetwork::block_count() const {
-  long long n = 0;
-  for_each_chunk([&n](std::span<const NetworkOp> ops) {
-    for (const auto& op : ops) n += op.kind != Kind::h;
+std::array<long long, 4> QftNetwork::step_counts() const {
+  std::array<long long, 4> counts{};
+  for_each_chunk([&counts](std::span<const NetworkOp> ops) {
+    for (const auto& op : ops) ++counts[static_cast<int>(op.kind)];
   });
-  return n;
+  return counts;
+}
+
+long long QftNetwork::block_count() const {
+  const auto c = step_counts();
+  return c[1] + c[2] + c[3];
 }
 
 long long QftNetwork::swap_count() const {
-  long long n = 0;
-  for_each_chunk([&n](std::span<const NetworkOp> ops) {
-    for (const auto& op : ops) n += op.kind == Kind::swap || op.kind == Kind::cp_swap;
-  });
-  return n;
+  const auto c = step_counts();
+  return c[2] + c[3];
 }
 
 namespace {
@@ -85,6 +87,20 @@ class ReversalNetwork final : public QftNetwork {
     out.clear();
     layers_.chunk(c, out);
   }
+  // Every pair of wires meets once and every block swaps: the register ends reversed.
+  std::vector<int> final_positions() const override {
+    std::vector<int> pos(wires_);
+    for (int w = 0; w < wires_; ++w) pos[w] = wires_ - 1 - w;
+    return pos;
+  }
+  // n Hadamards; every pair of wires meets once, fused when its distance is at most d (n - delta
+  // pairs at distance delta), as a plain SWAP otherwise.
+  std::array<long long, 4> step_counts() const override {
+    const long long n = wires_;
+    long long fused = 0;
+    for (long long delta = 1; delta <= std::min<long long>(d_, n - 1); ++delta) fused += n - delta;
+    return {n, 0, n * (n - 1) / 2 - fused, fused};
+  }
 
  private:
   ReversalLayers layers_;
@@ -102,14 +118,16 @@ class LeapfrogNetwork final : public QftNetwork {
  public:
   LeapfrogNetwork(int n, int d) : QftNetwork(n, d) {
     if (d < 1) throw std::invalid_argument("leapfrog network needs d >= 1");
-    simulate([this](std::span<const NetworkOp> ops) { blocks_ += static_cast<long long>(ops.size()) - 1; });
+    simulate([this](std::span<const NetworkOp> ops) {
+      for (const auto& op : ops) ++counts_[static_cast<int>(op.kind)];
+    });
   }
   std::string name() const override { return "leapfrog"; }
-  long long block_count() const override { return blocks_; }
+  std::array<long long, 4> step_counts() const override { return counts_; }
   int chunk_count() const override { return wires_; }
   void chunk(int c, std::vector<NetworkOp>& out) const override {
     std::call_once(kept_, [this] {
-      ops_.reserve(static_cast<std::size_t>(blocks_ + wires_));
+      ops_.reserve(static_cast<std::size_t>(block_count() + wires_));
       start_.reserve(static_cast<std::size_t>(wires_) + 1);
       start_.push_back(0);
       simulate([this](std::span<const NetworkOp> ops) {
@@ -152,7 +170,7 @@ class LeapfrogNetwork final : public QftNetwork {
     }
   }
 
-  long long blocks_ = 0;
+  std::array<long long, 4> counts_{};  // steps of each kind, counted when built
   // Kept on the first call of chunk() (random access); thread-safe.
   mutable std::once_flag kept_;
   mutable std::vector<NetworkOp> ops_;

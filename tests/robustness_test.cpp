@@ -471,13 +471,21 @@ struct Spawned {
 // report nor any temporary is left.
 TEST(RunBudget, CtrlCWhileWritingLeavesNoFiles) {
   const auto dir = temp_dir(), logs = temp_dir();
-  Spawned p({"plan", "--device", "line:2000", "--qubits", "2000", "--strategy", "chain", "--gates", "logical",
+  // 8 million blocks, about 400 MB of text: seconds of writing on any machine we run on.
+  Spawned p({"plan", "--device", "line:4000", "--qubits", "4000", "--strategy", "chain", "--gates", "logical",
              "--output", (dir / "c.qasm").string(), "--report", (dir / "r.json").string()},
             logs / "err");
-  // Wait for the temporary to appear (the stream has started), then interrupt.
-  for (int i = 0; i < 400 && listing(dir).empty(); ++i) std::this_thread::sleep_for(std::chrono::milliseconds(25));
-  ASSERT_FALSE(listing(dir).empty()) << "the plan never started writing";
-  std::this_thread::sleep_for(std::chrono::milliseconds(200));
+  // Wait for the temporary to hold text (the stream has started and flushed once), then interrupt.
+  const auto writing = [&dir] {
+    std::error_code ec;
+    for (const auto& e : fs::directory_iterator(dir, ec)) {
+      const auto size = fs::file_size(e.path(), ec);
+      if (!ec && size > 0) return true;
+    }
+    return false;
+  };
+  for (int i = 0; i < 2000 && !writing(); ++i) std::this_thread::sleep_for(std::chrono::milliseconds(5));
+  ASSERT_TRUE(writing()) << "the plan never started writing";
   ::kill(p.pid, SIGINT);
   EXPECT_EQ(p.wait_status(), 130);
   EXPECT_EQ(read_file(logs / "err"), "qftplan: interrupted; no output written\n");

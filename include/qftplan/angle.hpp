@@ -3,6 +3,7 @@
 /// Exact rotation angles of the form num * pi / 2^k, so that QFTs of thousands of qubits
 /// (angles down to pi/2^4095) lose nothing.
 
+#include <cstddef>
 #include <cstdint>
 #include <string>
 
@@ -34,8 +35,11 @@ class Angle {
   std::string qasm3() const;
   /// OpenQASM 2 text with a decimal power-of-two denominator: "pi/4", "-3*pi/32".
   std::string qasm2() const;
-  /// Appends qasm3() to `out` without allocating a temporary (hot path of the writers).
-  void append_qasm3(std::string& out) const;
+  /// The most characters write_qasm3() writes.
+  static constexpr std::size_t kMaxQasm3Chars = 48;
+  /// Writes qasm3() at `out` (room for kMaxQasm3Chars) and returns the end (hot path of the writer).
+  char* write_qasm3(char* out) const;
+  /// Appends qasm2() to `out` without allocating a temporary.
   void append_qasm2(std::string& out) const;
 
  private:

@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "qftplan/gate.hpp"
+#include "qftplan/gate_program.hpp"
 
 namespace qftplan {
 
@@ -23,6 +24,8 @@ class MetricsSink final : public GateSink {
   void batch(std::span<const Gate> run) override {
     for (const Gate& g : run) add(g);
   }
+  /// Counts `program` as if its gates came one by one on (q0, q1): the same counts and depths.
+  void replay(const GateProgram& program, int q0, int q1);
 
   long long count(GateKind k) const { return counts_[static_cast<int>(k)]; }
   long long two_qubit_count() const;
@@ -47,15 +50,19 @@ class MetricsSink final : public GateSink {
     ++counts_[static_cast<int>(g.kind)];
     const bool two = is_two_qubit(g.kind);
     const int a = g.q0, b = two ? g.q1 : g.q0;
-    const long long l = std::max(level_[a], level_[b]) + 1;
-    level_[a] = level_[b] = l;
-    const long long l2 = std::max(level_2q_[a], level_2q_[b]) + (two ? 1 : 0);
-    level_2q_[a] = level_2q_[b] = l2;
+    step(two, level_[a], level_[b], level_2q_[a], level_2q_[b]);
     if (unfused_) {
       const long long lu = std::max(level_unfused_[a], level_unfused_[b]) + (two ? 1 : 0) +
                            (g.kind == GateKind::cp_swap ? 1 : 0);
       level_unfused_[a] = level_unfused_[b] = lu;
     }
+  }
+  // One gate's effect on the levels of its qubits (for a one-qubit gate both pairs name one qubit).
+  static void step(bool two, long long& la, long long& lb, long long& ma, long long& mb) {
+    const long long l = std::max(la, lb) + 1;
+    la = lb = l;
+    const long long l2 = std::max(ma, mb) + (two ? 1 : 0);
+    ma = mb = l2;
   }
   std::array<long long, kGateKindCount> counts_{};
   bool unfused_;

@@ -2,14 +2,19 @@
 /// \file native_gates.hpp
 /// Decomposition of the planner's gates into a native two-qubit gate plus rz and h.
 
+#include <array>
 #include <span>
 #include <string>
 #include <vector>
 
 #include "qftplan/device.hpp"
 #include "qftplan/gate.hpp"
+#include "qftplan/gate_program.hpp"
+#include "qftplan/noise_model.hpp"
 
 namespace qftplan {
+
+class MetricsSink;
 
 /// The gate set of an emitted circuit.
 enum class GateSet { logical, cx, cz };
@@ -41,6 +46,28 @@ class NativeDecomposer final : public GateSink {
   void cz(int a, int b);
   TwoQubitGate target_;
   GateRun out_;
+};
+
+/// The program NativeDecomposer makes of one gate of kind `k` on qubits 0 and 1 (found by running
+/// it, so the program cannot drift from what is emitted). Not for measurements.
+GateProgram native_program(TwoQubitGate target, GateKind k);
+
+/// Feeds the native circuit of a logical stream to a counter and the noise model without writing
+/// it out: each gate replays its kind's native_program on its own qubits. The counts and depths are
+/// those of NativeDecomposer feeding the same sinks, and the noise figures equal to rounding. The
+/// planner counts every plan this way, whether or not a writer also receives the native gates.
+class NativeReplay final : public GateSink {
+ public:
+  NativeReplay(TwoQubitGate target, MetricsSink& metrics, NoiseSink& noise);
+  void gate(const Gate& g) override { batch({&g, 1}); }
+  void batch(std::span<const Gate> run) override;
+  void finish() override;
+
+ private:
+  std::array<GateProgram, kGateKindCount> programs_;
+  std::array<NoiseSink::ProgramCost, kGateKindCount> costs_;
+  MetricsSink& metrics_;
+  NoiseSink& noise_;
 };
 
 /// Splits each fused cp_swap into cp then swap (how the logical gate set is written).

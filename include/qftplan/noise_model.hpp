@@ -18,6 +18,7 @@
 
 #include "qftplan/device.hpp"
 #include "qftplan/gate.hpp"
+#include "qftplan/gate_program.hpp"
 
 namespace qftplan {
 
@@ -38,11 +39,31 @@ class NoiseSink final : public GateSink {
   NoiseSink(const Device& device, std::vector<int> register_qubits);
   void gate(const Gate& g) override { add(g); }
   void batch(std::span<const Gate> run) override;
+  /// What a program costs in this model, found once per program: its timed one-qubit gates (h, x,
+  /// sx) counted between its two-qubit gates, so that replaying it is a handful of additions.
+  struct ProgramCost {
+    /// `timed[s]` one-qubit gates that take time on slot s, then `syncs` two-qubit gates.
+    struct Segment {
+      int timed[2] = {0, 0};
+      int syncs = 0;
+    };
+    std::vector<Segment> segments;
+    int errors_1q[2] = {0, 0};   ///< h, x, sx on each slot
+    int natives_2q = 0;          ///< native two-qubit gates (cp counts 2, swap and cp_swap 3)
+    bool used_early[2] = {false, false};  ///< slot has a gate before the first two-qubit gate
+  };
+  static ProgramCost cost_of(const GateProgram& program);
+  /// Counts `program` on (q0, q1) as if its gates came one by one (equal to rounding: each term is
+  /// added as a multiple, not once per gate). `cost` is cost_of(program).
+  void replay(const GateProgram& program, const ProgramCost& cost, int q0, int q1);
   /// The figures so far (call after the last gate).
   NoiseFigures figures() const;
 
  private:
   void add(const Gate& g);
+  // One gate that is not a measurement: `ra`/`fa` are the ready time and first use of its first
+  // qubit `qa`, `rb`/`fb` of its second (two-qubit gates, on coupler `ci`, -1 when not coupled).
+  void step(GateKind k, int qa, int ci, double& ra, double& fa, double& rb, double& fb);
   int coupler_of(int a, int b);
   const Device& dev_;
   std::vector<int> register_;

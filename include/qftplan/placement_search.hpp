@@ -28,6 +28,10 @@ ChainLoads chain_loads(const QftSpec& spec, const QftNetwork& network, TwoQubitG
 /// ln(ESP) of the planned circuit on `chain` (exactly the noise model's esp, before idling).
 double chain_log_esp(const Device& device, const ChainLoads& loads, std::span<const int> chain);
 
+/// The same ln(ESP) on a device whose qubits all share one error_1q and whose couplers all share
+/// one error (any chain then scores alike): from the network's step counts, without a dry run.
+double uniform_log_esp(const Device& device, const QftNetwork& network, TwoQubitGate native);
+
 /// Settings of the placement search.
 struct PlacementSearchOptions {
   std::uint64_t seed = 1;

@@ -3,6 +3,7 @@
 /// OpenQASM 3 and 2 text output of a gate stream, buffered for speed.
 
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "qftplan/atomic_file.hpp"
@@ -36,14 +37,26 @@ class QasmWriter final : public GateSink {
   void gate(const Gate& g) override;
   void finish() override;
   /// Bytes written so far.
-  long long bytes() const { return bytes_ + static_cast<long long>(buf_.size()); }
+  long long bytes() const { return bytes_ + static_cast<long long>(len_); }
 
  private:
-  void qubit(int q);
-  void flush_if_full();
+  // The text goes into a fixed buffer through a cursor (no per-append capacity checks); room() makes
+  // sure a whole gate's line fits, handing the buffer on when it is full.
+  char* room(std::size_t n);
+  char* qubit(char* p, int q) const;
+  char* angle(char* p, const Angle& a);
+  void append(std::string_view text);
+  void flush();
   QasmVersion version_;
   TextOutput& out_;
-  std::string buf_;
+  std::vector<char> buf_;
+  std::size_t len_ = 0;
+  std::string angle2_;  // an OpenQASM 2 angle (its denominator can have thousands of digits)
+  // Each gate names one or two qubits and most angles are +-pi/2^k, so their texts are made once:
+  // 16-byte slots holding the length then the characters ("$17", "q[17]"; "pi/2**5", "-pi/2**5").
+  static constexpr std::size_t kSlot = 16;
+  std::vector<char> qubit_text_;
+  std::vector<char> angle_text_;  // OpenQASM 3: slot 2k for pi/2^k, 2k+1 for -pi/2^k
   long long bytes_ = 0;
 };
 

@@ -4,6 +4,7 @@
 /// wires meet, in what order, and whether they swap. A network knows nothing of the device; the
 /// chain planner maps positions on the chain to physical qubits.
 
+#include <array>
 #include <functional>
 #include <memory>
 #include <span>
@@ -39,10 +40,13 @@ class QftNetwork {
   virtual void for_each_chunk(const std::function<void(std::span<const NetworkOp>)>& visit) const;
   /// Chain position of every wire at the start (identity for all our networks).
   std::vector<int> initial_positions() const;
-  /// Chain position of every wire at the end (by a dry run of the steps).
-  std::vector<int> final_positions() const;
+  /// Chain position of every wire at the end (by a dry run of the steps, unless a network knows it).
+  virtual std::vector<int> final_positions() const;
+  /// Steps of each kind, indexed by NetworkOp::Kind (h, cp, swap, cp_swap): by a dry run of the
+  /// steps, unless the network knows them.
+  virtual std::array<long long, 4> step_counts() const;
   /// Number of two-wire steps (blocks) and of those that swap.
-  virtual long long block_count() const;
+  long long block_count() const;
   long long swap_count() const;
   int wires() const { return wires_; }
   int max_distance() const { return d_; }

@@ -197,10 +197,10 @@ int run_plan(const PlanArgs& a) {
     h.measured_bits = opt.measure ? opt.spec.qubits : 0;
     writer = std::make_unique<QasmWriter>(version, h, circuit_dest->sink());
   }
-  // Ctrl-C while the circuit streams stops it here (the writer's temporary is then removed). With
-  // no circuit to write, a plan already streamed while choosing the strategy is not streamed again.
-  InterruptCheckSink guarded(&budget, writer.get());
-  PlanReport r = execute_plan(dev, opt, plan, writer || !plan.evaluated ? &guarded : nullptr);
+  // Ctrl-C while the circuit streams stops it (execute_plan polls opt.budget; the writer's temporary
+  // is then removed). With no circuit to write, a plan already streamed while choosing the strategy
+  // is not streamed again.
+  PlanReport r = execute_plan(dev, opt, plan, writer.get());
   r.elapsed_ms = std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - t0).count();
   if (writer) r.output_bytes = writer->bytes();
   if (report_dest) report_dest->sink().write(report_to_json_text(r));

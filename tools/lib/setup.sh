@@ -5,7 +5,7 @@
 QFTPLAN_BUILD_PACKAGES=(cmake g++ make pkg-config libboost-graph-dev libeigen3-dev libyaml-cpp-dev libcli11-dev
   libfmt-dev nlohmann-json3-dev
   pybind11-dev python3-dev)  # the Python module (skipped by the build when these are missing)
-QFTPLAN_TEST_PACKAGES=(libgtest-dev libfftw3-dev nodejs
+QFTPLAN_TEST_PACKAGES=(libgtest-dev libfftw3-dev nodejs libbenchmark-dev
   librsvg2-bin libxml2-utils  # independent SVG renderer and XML checker used by the drawing tests
   python3-pytest python3-numpy python3-jsonschema)  # the Python module's tests and the schema checks
 
