@@ -97,6 +97,20 @@ TEST(Streaming, LeapfrogStreamedEqualsLeapfrogKept) {
   }
 }
 
+// The leapfrog network's step counts come from a formula (qft_network.cpp): it must equal a count
+// of the steps it streams, for every register below 200 qubits and every kept distance.
+TEST(Streaming, LeapfrogCountsEqualItsSteps) {
+  for (int n = 3; n < 200; ++n)
+    for (int d = 1; d < n - 1; ++d) {
+      const auto net = make_leapfrog_network(n, d);
+      std::array<long long, 4> streamed{};
+      net->for_each_chunk([&](std::span<const NetworkOp> ops) {
+        for (const auto& op : ops) ++streamed[static_cast<int>(op.kind)];
+      });
+      ASSERT_EQ(net->step_counts(), streamed) << "n=" << n << " d=" << d;
+    }
+}
+
 // What the reversal network knows of itself equals a dry run of its steps (the base class's way).
 TEST(Streaming, ReversalShortcutsEqualADryRun) {
   for (int n : {1, 2, 3, 8, 31})
