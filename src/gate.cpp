@@ -15,6 +15,7 @@ std::string_view gate_name(GateKind k) {
     case GateKind::swap: return "swap";
     case GateKind::cp_swap: return "cp_swap";
     case GateKind::measure: return "measure";
+    case GateKind::parity_step: return "parity_step";
   }
   return "?";
 }

@@ -81,15 +81,20 @@ void NativeDecomposer::rewrite(const Gate& g) {
       cx(a, b);
       return;
     }
+    case GateKind::parity_step:
+      cx(b, a);
+      if (!g.angle.is_zero()) out_.put(make_gate(GateKind::rz, a, -1, g.angle));
+      cx(a, b);
+      return;
     default: out_.put(g); return;
   }
 }
 
-GateProgram native_program(TwoQubitGate target, GateKind k) {
+GateProgram native_program(TwoQubitGate target, GateKind k, bool zero_angle) {
   VectorSink v;
   NativeDecomposer dec(target, v);
-  // A generic angle: no rewrite may depend on its value for the counts to hold for every angle.
-  dec.gate(make_gate(k, 0, is_two_qubit(k) ? 1 : -1, Angle(3, 5)));
+  // A generic nonzero angle: no rewrite may depend on its value beyond being zero or not.
+  dec.gate(make_gate(k, 0, is_two_qubit(k) ? 1 : -1, zero_angle ? Angle{} : Angle(3, 5)));
   std::vector<ProgramStep> steps;
   for (const Gate& g : v.gates) {
     const auto a = static_cast<std::uint8_t>(g.q0);
@@ -100,11 +105,12 @@ GateProgram native_program(TwoQubitGate target, GateKind k) {
 
 NativeReplay::NativeReplay(TwoQubitGate target, MetricsSink& metrics, NoiseSink& noise)
     : metrics_(metrics), noise_(noise) {
-  for (int k = 0; k < kGateKindCount; ++k)
-    if (static_cast<GateKind>(k) != GateKind::measure) {
-      programs_[k] = native_program(target, static_cast<GateKind>(k));
-      costs_[k] = NoiseSink::cost_of(programs_[k]);
-    }
+  for (int z = 0; z < 2; ++z)
+    for (int k = 0; k < kGateKindCount; ++k)
+      if (static_cast<GateKind>(k) != GateKind::measure) {
+        programs_[z][k] = native_program(target, static_cast<GateKind>(k), z == 1);
+        costs_[z][k] = NoiseSink::cost_of(programs_[z][k]);
+      }
 }
 
 void NativeReplay::batch(std::span<const Gate> run) {
@@ -114,9 +120,9 @@ void NativeReplay::batch(std::span<const Gate> run) {
       noise_.gate(g);
       continue;
     }
-    const GateProgram& p = programs_[static_cast<int>(g.kind)];
-    metrics_.replay(p, g.q0, g.q1);
-    noise_.replay(p, costs_[static_cast<int>(g.kind)], g.q0, g.q1);
+    const int z = g.angle.is_zero() ? 1 : 0, k = static_cast<int>(g.kind);
+    metrics_.replay(programs_[z][k], g.q0, g.q1);
+    noise_.replay(programs_[z][k], costs_[z][k], g.q0, g.q1);
   }
 }
 
@@ -127,11 +133,15 @@ void NativeReplay::finish() {
 
 void FusedBlockSplitter::batch(std::span<const Gate> run) {
   for (const Gate& g : run) {
-    if (g.kind != GateKind::cp_swap) {
-      out_.put(g);
-    } else {
+    if (g.kind == GateKind::cp_swap) {
       out_.put(make_gate(GateKind::cp, g.q0, g.q1, g.angle));
       out_.put(make_gate(GateKind::swap, g.q0, g.q1));
+    } else if (g.kind == GateKind::parity_step) {
+      out_.put(make_gate(GateKind::cx, g.q1, g.q0));
+      if (!g.angle.is_zero()) out_.put(make_gate(GateKind::rz, g.q0, -1, g.angle));
+      out_.put(make_gate(GateKind::cx, g.q0, g.q1));
+    } else {
+      out_.put(g);
     }
     out_.flush_if_full();
   }

@@ -40,7 +40,7 @@ int NoiseSink::coupler_of(int a, int b) {
 namespace {
 
 double natives_of(GateKind k) {
-  return k == GateKind::cp ? 2 : (k == GateKind::swap || k == GateKind::cp_swap) ? 3 : 1;
+  return k == GateKind::cp || k == GateKind::parity_step ? 2 : (k == GateKind::swap || k == GateKind::cp_swap) ? 3 : 1;
 }
 
 }  // namespace

@@ -6,6 +6,7 @@
 #include <set>
 
 #include "qftplan/chain_qft.hpp"
+#include "qftplan/gate_program.hpp"
 #include "qftplan/native_gates.hpp"
 #include "qftplan/run_budget.hpp"
 
@@ -13,26 +14,58 @@ namespace qftplan {
 
 namespace {
 
-// The error-carrying native gates one network step becomes, by the step's two qubits: found by
-// running NativeDecomposer itself on the step, so the loads cannot drift from what is emitted.
+// The error-carrying native gates of one gate of kind k, by the gate's two qubits: from the native
+// program the planner's counters replay, so the loads cannot drift from what is emitted.
 struct StepLoad {
-  double one_q[2] = {0, 0};  // h/x/sx on the step's first and second qubit
+  double one_q[2] = {0, 0};  // h/x/sx on the gate's first and second qubit
   double two_q = 0;          // native two-qubit gates on its coupler
 };
 
-StepLoad step_load(NetworkOp::Kind kind, TwoQubitGate native) {
-  static constexpr GateKind kinds[] = {GateKind::h, GateKind::cp, GateKind::swap, GateKind::cp_swap};
-  const GateKind k = kinds[static_cast<int>(kind)];
-  VectorSink v;
-  NativeDecomposer dec(native, v);
-  dec.gate(make_gate(k, 0, k == GateKind::h ? -1 : 1));
-  StepLoad load;
-  for (const Gate& g : v.gates) {
-    if (is_two_qubit(g.kind)) load.two_q += 1;
-    else if (g.kind == GateKind::h || g.kind == GateKind::x || g.kind == GateKind::sx) load.one_q[g.q0] += 1;
+StepLoad kind_load(TwoQubitGate native, GateKind k) {
+  StepLoad l;
+  for (const ProgramStep& s : native_program(native, k).view()) {
+    if (is_two_qubit(s.kind)) l.two_q += 1;
+    else if (s.kind == GateKind::h || s.kind == GateKind::x || s.kind == GateKind::sx) l.one_q[s.a] += 1;
   }
-  return load;
+  return l;
 }
+
+}  // namespace
+
+namespace {
+
+// Counts the error-carrying native gates of a logical stream on the chain 0..n-1 by position and
+// edge, replaying each gate's native program (the same programs the planner's counters replay).
+class LoadSink final : public GateSink {
+ public:
+  LoadSink(TwoQubitGate native, ChainLoads& loads, const RunBudget* budget) : loads_(loads), budget_(budget) {
+    for (int k = 0; k < kGateKindCount; ++k)
+      if (static_cast<GateKind>(k) != GateKind::measure) per_kind_[k] = kind_load(native, static_cast<GateKind>(k));
+  }
+  void gate(const Gate& g) override { batch({&g, 1}); }
+  void batch(std::span<const Gate> run) override {
+    // A dry run of a big network is long and has no partial result worth keeping: throw.
+    since_poll_ += run.size();
+    if (since_poll_ >= 65536) {
+      since_poll_ = 0;
+      throw_if_exhausted(budget_, "the ESP scoring of a network");
+    }
+    for (const Gate& g : run) {
+      if (g.kind == GateKind::measure) continue;
+      const StepLoad& l = per_kind_[static_cast<int>(g.kind)];
+      loads_.pos_1q[g.q0] += l.one_q[0];
+      if (!is_two_qubit(g.kind)) continue;
+      loads_.pos_1q[g.q1] += l.one_q[1];
+      loads_.edge_2q[std::min(g.q0, g.q1)] += l.two_q;
+    }
+  }
+
+ private:
+  StepLoad per_kind_[kGateKindCount];
+  ChainLoads& loads_;
+  const RunBudget* budget_;
+  std::size_t since_poll_ = 0;
+};
 
 }  // namespace
 
@@ -42,37 +75,12 @@ ChainLoads chain_loads(const QftSpec& spec, const QftNetwork& network, TwoQubitG
   ChainLoads loads;
   loads.edge_2q.assign(n > 1 ? n - 1 : 0, 0.0);
   loads.pos_1q.assign(n, 0.0);
-  StepLoad per_kind[4];
-  for (int k = 0; k < 4; ++k) per_kind[k] = step_load(static_cast<NetworkOp::Kind>(k), native);
-  // Every step acts on the same chain positions whether the network runs forwards or backwards (the
-  // inverse), so one forward pass counts both. Only the orientation differs: run backwards, a swapping
-  // step is emitted from the positions after it, so its first qubit is the forward step's second
-  // (which matters where the decomposition is not symmetric, as the Hadamards around CZ are).
-  const bool flipped = spec.inverse;
-  std::vector<int> pos = network.initial_positions();
-  std::size_t since_poll = 0;
-  network.for_each_chunk([&](std::span<const NetworkOp> ops) {
-    // A dry run of a big network is long and has no partial result worth keeping: throw.
-    if (since_poll >= 65536) {
-      since_poll = 0;
-      throw_if_exhausted(budget, "the ESP scoring of a network");
-    }
-    since_poll += ops.size();
-    for (const NetworkOp& op : ops) {
-      const StepLoad& l = per_kind[static_cast<int>(op.kind)];
-      const int a = pos[op.i];
-      if (op.kind == NetworkOp::Kind::h) {
-        loads.pos_1q[a] += l.one_q[0];
-        continue;
-      }
-      const int b = pos[op.j];
-      const bool flip = flipped && op.kind != NetworkOp::Kind::cp;
-      loads.pos_1q[a] += l.one_q[flip ? 1 : 0];
-      loads.pos_1q[b] += l.one_q[flip ? 0 : 1];
-      loads.edge_2q[std::min(a, b)] += l.two_q;
-      if (op.kind != NetworkOp::Kind::cp) std::swap(pos[op.i], pos[op.j]);
-    }
-  });
+  // The network emitted on the chain 0..n-1 itself (positions are qubits), so the loads follow
+  // whatever the network emits, forwards or backwards, fused or parity.
+  std::vector<int> chain(n);
+  for (int p = 0; p < n; ++p) chain[p] = p;
+  LoadSink sink(native, loads, budget);
+  emit_chain_qft(spec, network, chain, sink);
   return loads;
 }
 
@@ -175,12 +183,24 @@ double chain_log_esp(const Device& device, const ChainLoads& loads, std::span<co
 }
 
 double uniform_log_esp(const Device& device, const QftNetwork& network, TwoQubitGate native) {
-  const auto counts = network.step_counts();
   double one_q = 0, two_q = 0;  // native gates that carry an error
-  for (int k = 0; k < 4; ++k) {
-    const StepLoad l = step_load(static_cast<NetworkOp::Kind>(k), native);
-    one_q += static_cast<double>(counts[k]) * (l.one_q[0] + l.one_q[1]);
-    two_q += static_cast<double>(counts[k]) * l.two_q;
+  if (network.parity()) {
+    // Parity steps are not the network's step kinds: count what it emits.
+    QftSpec spec;
+    spec.qubits = network.wires();
+    spec.approx_degree = network.max_distance() + 1;
+    const ChainLoads loads = chain_loads(spec, network, native);
+    for (double l : loads.pos_1q) one_q += l;
+    for (double l : loads.edge_2q) two_q += l;
+  } else {
+    // The fused networks' steps are gates of these kinds, one each.
+    static constexpr GateKind kinds[] = {GateKind::h, GateKind::cp, GateKind::swap, GateKind::cp_swap};
+    const auto counts = network.step_counts();
+    for (int k = 0; k < 4; ++k) {
+      const StepLoad l = kind_load(native, kinds[k]);
+      one_q += static_cast<double>(counts[k]) * (l.one_q[0] + l.one_q[1]);
+      two_q += static_cast<double>(counts[k]) * l.two_q;
+    }
   }
   const double log_1q = device.qubit_count() > 0 ? std::log1p(-device.qubit_calibration(0).error_1q) : 0.0;
   const double log_2q = device.coupler_count() > 0 ? std::log1p(-device.coupler_calibration(0).error) : 0.0;

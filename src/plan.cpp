@@ -98,10 +98,11 @@ bool uniform_errors(const Device& device) {
 constexpr long long kMaxScoredBlocks = 4'000'000;
 
 DegreeCandidate score_degree(const Device& device, bool uniform, const QftSpec& base, std::optional<int> degree,
-                             const std::vector<int>& chain, EndOrder end_order, const RunBudget* budget = nullptr) {
+                             const std::vector<int>& chain, EndOrder end_order, NetworkChoice network,
+                             const RunBudget* budget = nullptr) {
   QftSpec spec = base;
   spec.approx_degree = degree;
-  const auto net = choose_network(spec, end_order);
+  const auto net = choose_network(spec, end_order, network);
   DegreeCandidate c;
   c.degree = degree;
   // Uniform errors: the ESP follows from the numbers of gates (no dry run of the whole network).
@@ -117,17 +118,18 @@ DegreeCandidate score_degree(const Device& device, bool uniform, const QftSpec& 
 // add gates), plus the exact transform when small enough to score, and keeps the best score;
 // near-ties (within 1e-12 relative) go to the smaller degree, which has fewer gates.
 DegreeChoice choose_degree(const Device& device, const QftSpec& base, const std::vector<int>& chain,
-                           EndOrder end_order, const RunBudget* budget = nullptr, bool* cut = nullptr) {
+                           EndOrder end_order, NetworkChoice network, const RunBudget* budget = nullptr,
+                           bool* cut = nullptr) {
   DegreeChoice out;
   const int n = base.qubits;
   const bool uniform = uniform_errors(device);
   try {
     for (int m = 1; m < n; ++m) {
-      out.considered.push_back(score_degree(device, uniform, base, m, chain, end_order, budget));
+      out.considered.push_back(score_degree(device, uniform, base, m, chain, end_order, network, budget));
       if (out.considered.back().fidelity_bound >= 1.0 - 1e-12) break;
     }
     if (static_cast<long long>(n) * (n - 1) / 2 <= kMaxScoredBlocks || out.considered.empty())
-      out.considered.push_back(score_degree(device, uniform, base, std::nullopt, chain, end_order, budget));
+      out.considered.push_back(score_degree(device, uniform, base, std::nullopt, chain, end_order, network, budget));
   } catch (const TimeLimitReached&) {
     // Out of time: choose among the degrees scored so far (exact when none was).
     if (cut) *cut = true;
@@ -159,7 +161,7 @@ static PreparedPlan prepare_chain(const Device& device, const PlanOptions& optio
   if (options.placement) {
     // The pin is of input bits; which chain that is depends on the network, so for --approx auto
     // we re-derive it once the degree is known.
-    chain = chain_from_pin(device, plan.spec, *choose_network(plan.spec, options.end_order), *options.placement);
+    chain = chain_from_pin(device, plan.spec, *choose_network(plan.spec, options.end_order, options.network), *options.placement);
     plan.placement.method = "pinned";
   } else {
     ChainSearchOptions cso = options.search;
@@ -190,14 +192,14 @@ static PreparedPlan prepare_chain(const Device& device, const PlanOptions& optio
   for (int round = 0; round < 2; ++round) {
     if (options.auto_approx) {
       bool cut = false;
-      plan.degree_choice = choose_degree(device, plan.spec, chain, options.end_order, options.budget, &cut);
+      plan.degree_choice = choose_degree(device, plan.spec, chain, options.end_order, options.network, options.budget, &cut);
       if (cut) note_cut("the approximation-degree scoring");
       plan.spec.approx_degree = plan.degree_choice->chosen;
       if (options.placement)
-        chain = chain_from_pin(device, plan.spec, *choose_network(plan.spec, options.end_order), *options.placement);
+        chain = chain_from_pin(device, plan.spec, *choose_network(plan.spec, options.end_order, options.network), *options.placement);
     }
     if (!choose_chain || !plan.cut_short.empty()) break;
-    const auto net = choose_network(plan.spec, options.end_order);
+    const auto net = choose_network(plan.spec, options.end_order, options.network);
     ChainLoads loads;
     try {
       loads = chain_loads(plan.spec, *net, device.native_2q(), options.budget);
@@ -225,7 +227,7 @@ static PreparedPlan prepare_chain(const Device& device, const PlanOptions& optio
     plan.placement.best.push_back({chain, std::numeric_limits<double>::quiet_NaN()});
     plan.placement.chains_scored = 1;
   }
-  plan.network = choose_network(plan.spec, options.end_order);
+  plan.network = choose_network(plan.spec, options.end_order, options.network);
   plan.end_swaps = end_swap_count(*plan.network);
   plan.chain = chain;
   plan.maps = chain_maps(plan.spec, *plan.network, plan.chain);
@@ -328,7 +330,7 @@ static PreparedPlan spine_plan(const Device& device, const PlanOptions& options,
   plan.spec = spec;
   plan.strategy = "spine";
   plan.gates = options.gates.value_or(gate_set_of(device.native_2q()));
-  plan.network = choose_network(plan.spec);
+  plan.network = choose_network(plan.spec, options.network);
   plan.chain = layout.line;
   plan.detours = layout.detours;
   plan.maps = chain_maps(plan.spec, *plan.network, plan.chain);
@@ -599,7 +601,10 @@ PlanReport execute_plan(const Device& device, const PlanOptions& options, const 
   r.chain = plan.routed ? plan.routed->region : plan.chain;
   r.two_qubit_blocks = logical.two_qubit_count();
   r.swaps = logical.count(GateKind::swap) + logical.count(GateKind::cp_swap);
-  r.rotations = logical.count(GateKind::cp) + logical.count(GateKind::cp_swap);
+  // The parity network has no controlled-phase gates: each kept rotation is the parity phase of
+  // one meeting (parity_qft.hpp).
+  const bool parity = !plan.routed && plan.network->parity();
+  r.rotations = parity ? plan.spec.kept_rotations() : logical.rotations();
   r.depth_2q = logical.depth_2q();
   r.depth = emitted.depth();
   r.cx_count = native.two_qubit_count();

@@ -205,6 +205,14 @@ void QasmWriter::gate(const Gate& g) {
         two("cx ", g.q0, g.q1);
       }
       break;
+    case GateKind::parity_step:
+      two("cx ", g.q1, g.q0);
+      if (!g.angle.is_zero()) {
+        p = angle(put(p, "rz"), g.angle);
+        one("", g.q0);
+      }
+      two("cx ", g.q0, g.q1);
+      break;
     case GateKind::measure:
       if (v3) {
         p = put(p, "c[");

@@ -73,6 +73,104 @@ std::optional<Angle> scale_angle(const Angle& a, std::int64_t c) {
   return reduce128(static_cast<i128>(a.num()) * c, k);
 }
 
+// A sum of angles num * pi / 2^k with any spread of k, kept exactly as a binary fraction of a turn:
+// N / 2^K turns with K = 64 * (number of words), the words little-endian. The one-bit phases of the
+// output variables need it: in the parity network they gather pi/2 and pi/2^300 alike and cancel
+// only at the end, so no partial sum fits one 64-bit numerator.
+class WideAngle {
+ public:
+  void add(const Angle& a) {
+    // While the sum fits one exact Angle it stays one (the common case, no allocation).
+    if (!wide_) {
+      if (const auto s = add_angles(small_, a)) {
+        small_ = *s;
+        return;
+      }
+      wide_ = true;
+      add_wide(small_);
+    }
+    add_wide(a);
+  }
+  bool is_zero() const {
+    if (!wide_) return small_.is_zero();
+    return std::all_of(w_.begin(), w_.end(), [](std::uint64_t x) { return x == 0; });
+  }
+  // The same angle as an Angle, when its reduced numerator (or that of its negative) fits.
+  std::optional<Angle> narrow() const {
+    if (!wide_) return small_;
+    return narrow_wide();
+  }
+
+ private:
+  void add_wide(const Angle& a) {
+    if (a.is_zero()) return;
+    // a = num / 2^(k+1) turns: make room for k+1 bits, then add num * 2^(K-k-1) mod 2^K.
+    const std::uint64_t bits = std::uint64_t{a.log2_den()} + 1;
+    const std::size_t need = static_cast<std::size_t>((bits + 63) / 64);
+    if (need > w_.size()) w_.insert(w_.begin(), need - w_.size(), 0);
+    const std::uint64_t p = 64 * static_cast<std::uint64_t>(w_.size()) - bits;
+    const bool negative = a.num() < 0;
+    const std::uint64_t mag = negative ? 0 - static_cast<std::uint64_t>(a.num()) : static_cast<std::uint64_t>(a.num());
+    const std::size_t i = static_cast<std::size_t>(p / 64);
+    const unsigned s = static_cast<unsigned>(p % 64);
+    const std::uint64_t lo = mag << s, hi = s ? mag >> (64 - s) : 0;
+    if (!negative) {
+      unsigned __int128 carry = 0;
+      for (std::size_t j = i; j < w_.size() && (j <= i + 1 || carry); ++j) {
+        const unsigned __int128 sum = static_cast<unsigned __int128>(w_[j]) + (j == i ? lo : j == i + 1 ? hi : 0) + carry;
+        w_[j] = static_cast<std::uint64_t>(sum);
+        carry = sum >> 64;
+      }
+    } else {
+      std::uint64_t borrow = 0;
+      for (std::size_t j = i; j < w_.size() && (j <= i + 1 || borrow); ++j) {
+        const std::uint64_t sub = (j == i ? lo : j == i + 1 ? hi : 0);
+        const std::uint64_t before = w_[j];
+        w_[j] = before - sub - borrow;
+        borrow = (before < sub || (before == sub && borrow)) ? 1 : 0;
+      }
+    }
+  }
+  std::optional<Angle> narrow_wide() const {
+    if (is_zero()) return Angle{};
+    for (int sign : {1, -1}) {
+      std::vector<std::uint64_t> v = w_;
+      if (sign < 0) {  // two's complement: 2^K - N
+        bool carry = true;
+        for (auto& x : v) {
+          x = ~x + (carry ? 1 : 0);
+          carry = carry && x == 0;
+        }
+      }
+      // Drop trailing zero bits, then the value must sit in the low 63 bits.
+      std::size_t first = 0;
+      while (v[first] == 0) ++first;  // v is not zero
+      const std::size_t low = 64 * first + static_cast<std::size_t>(std::countr_zero(v[first]));
+      const std::size_t total = 64 * v.size();
+      std::uint64_t num = 0;
+      bool fits = true;
+      for (std::size_t b = low; b < total; ++b)
+        if ((v[b / 64] >> (b % 64)) & 1) {
+          if (b - low >= 63) {
+            fits = false;
+            break;
+          }
+          num |= std::uint64_t{1} << (b - low);
+        }
+      if (!fits) continue;
+      // N / 2^K turns = N pi / 2^(K-1); after dropping `low` bits the exponent is K-1-low.
+      const auto k = static_cast<std::int64_t>(total) - 1 - static_cast<std::int64_t>(low);
+      if (k < 0 || k > static_cast<std::int64_t>(UINT32_MAX)) continue;
+      return Angle(sign * static_cast<std::int64_t>(num), static_cast<std::uint32_t>(k));
+    }
+    return std::nullopt;
+  }
+
+  Angle small_;
+  bool wide_ = false;
+  std::vector<std::uint64_t> w_;
+};
+
 // ---------------------------------------------------------------------------------------------
 
 constexpr int kMaxParity = 4;
@@ -113,7 +211,10 @@ struct StructuralChecker::Impl {
 
   std::vector<Parity> par;        // per physical qubit
   std::vector<int> occ;           // per variable: how many qubits' parities contain it
-  std::vector<Term> single;       // per variable: coefficient of the degree-1 monomial
+  // Per variable: coefficient of the degree-1 monomial (of any spread: WideAngle), and the last
+  // gate that changed it.
+  std::vector<WideAngle> single;
+  std::vector<int> single_line;
   std::unordered_map<std::uint64_t, Term> pairs;  // degree-2 monomials
   std::vector<std::vector<int>> partners;         // per variable: possible pair partners (may be stale)
   std::vector<char> h_done;       // per wire
@@ -150,7 +251,8 @@ struct StructuralChecker::Impl {
       return;
     }
     occ.assign(2 * n, 0);
-    single.assign(2 * n, Term{});
+    single.assign(2 * n, WideAngle{});
+    single_line.assign(2 * n, 0);
     partners.assign(2 * n, {});
     h_done.assign(n, 0);
     h_line.assign(n, 0);
@@ -334,6 +436,11 @@ struct StructuralChecker::Impl {
         phase2(g.q0, g.q1, g.angle, line);
         std::swap(par[g.q0], par[g.q1]);
         return;
+      case GateKind::parity_step:
+        xor_into(g.q0, g.q1, line);
+        phase1(g.q0, g.angle, line);
+        xor_into(g.q1, g.q0, line);
+        return;
       case GateKind::measure: return;
     }
   }
@@ -370,13 +477,14 @@ struct StructuralChecker::Impl {
   }
 
   void add_single(int v, const Angle& a, int line) {
-    auto s = add_angles(single[v].angle, a);
-    if (!s) {
-      cannot_prove("phase sum with denominators too far apart", line);
-      return;
-    }
-    single[v].angle = *s;
-    single[v].line = line;
+    single[v].add(a);
+    single_line[v] = line;
+  }
+
+  // Text of a one-bit coefficient for messages.
+  static std::string single_text(const WideAngle& s) {
+    const auto a = s.narrow();
+    return a ? angle_text(*a) : std::string("more than 62 binary digits of pi");
   }
 
   void add_pair(int u, int v, const Angle& a, int line) {
@@ -487,13 +595,29 @@ struct StructuralChecker::Impl {
 
   void hadamard(int q, int line) {
     const Parity p = par[q];
-    if (p.size != 1) {
+    if (p.size == 0) {
       cannot_prove("Hadamard on qubit " + std::to_string(q) + ", which holds " + describe(p) +
                        " rather than one register wire",
                    line);
       return;
     }
-    const int v = p.v[0];
+    // The wire whose input this Hadamard consumes: the qubit's only variable, or, when it holds a
+    // parity x XOR L (the parity network), the one input x that no other qubit holds.
+    int v = p.v[0];
+    if (p.size > 1) {
+      int found = 0;
+      for (int i = 0; i < p.size; ++i)
+        if (p.v[i] < n && occ[p.v[i]] == 1) {
+          v = p.v[i];
+          ++found;
+        }
+      if (found != 1) {
+        cannot_prove("Hadamard on qubit " + std::to_string(q) + ", which holds " + describe(p) +
+                         " rather than one register wire",
+                     line);
+        return;
+      }
+    }
     if (v >= n) {
       const int w = v - n;
       fail("second Hadamard on the wire of " + lq(w) + " (qubit " + std::to_string(q) + "; the first was" +
@@ -506,12 +630,24 @@ struct StructuralChecker::Impl {
       cannot_prove("Hadamard on " + lq(w) + " while another qubit still holds a parity containing its input", line);
       return;
     }
-    if (!single[v].angle.is_zero()) {
-      fail("a phase of " + angle_text(single[v].angle) + " acts on " + lq(w) +
+    if (!single[v].is_zero()) {
+      fail("a phase of " + single_text(single[v]) + " acts on " + lq(w) +
                " before its Hadamard; the QFT has no such phase" + at_line(line) ,
-           single[v].line > 0 ? single[v].line : line);
+           single_line[v] > 0 ? single_line[v] : line);
       return;
     }
+
+    // A parity x XOR L (+ c) on the qubit. Name the new output variable y so that the qubit holds
+    // y XOR L afterwards (a change of summation variables, v' = y XOR L, triangular in the order of
+    // the Hadamards, hence a bijection). The Hadamard's phase pi (x XOR L XOR c)(y XOR L) expands mod 2
+    // into x y + x L + L y + (1 + c) L + c y; the x y term is the one every Hadamard makes; the x L
+    // terms (pi on x and each variable of L) are terms of x and belong to the closing check below.
+    int rest[kMaxParity];
+    int rest_size = 0;
+    for (int i = 0; i < p.size; ++i)
+      if (p.v[i] != v) rest[rest_size++] = p.v[i];
+    for (int i = 0; i < rest_size; ++i) add_pair(v, rest[i], Angle(1, 0), line);
+    if (failed) return;
 
     // The controlled phases this Hadamard must close (forward: with the outputs of the wires
     // k in [w-d, w); inverse: with the outputs of the wires j in (w, w+d]).
@@ -561,7 +697,7 @@ struct StructuralChecker::Impl {
       pairs.erase(it);
     }
     std::vector<int>().swap(partners[v]);
-    single[v] = Term{};
+    single[v] = WideAngle{};
 
     // |v> -> sum_y (-1)^(v y) |y>: the new output variable; a constant 1 on v adds pi * y.
     h_done[w] = 1;
@@ -570,9 +706,19 @@ struct StructuralChecker::Impl {
     --occ[v];
     const int y = n + w;
     ++occ[y];
-    par[q].v[0] = y;
-    par[q].c = 0;
+    // The qubit now holds y XOR L (kept sorted).
+    Parity np;
+    np.c = 0;
+    for (int i = 0; i < rest_size; ++i) np.v[np.size++] = rest[i];
+    np.v[np.size++] = y;
+    std::sort(np.v, np.v + np.size);
+    par[q] = np;
     if (p.c) add_single(y, Angle(1, 0), line);
+    // The remaining terms of the parity case: pi L y, and pi L when c = 0.
+    for (int i = 0; i < rest_size; ++i) {
+      add_pair(rest[i], y, Angle(1, 0), line);
+      if (!p.c) add_single(rest[i], Angle(1, 0), line);
+    }
   }
 
   CheckResult finish(const std::vector<int>& final_placement) {
@@ -600,10 +746,10 @@ struct StructuralChecker::Impl {
     for (int w = 0; w < n; ++w)
       if (!h_done[w]) return fail("the wire of " + lq(w) + " never gets its Hadamard", 0);
     for (int v = 0; v < 2 * n; ++v)
-      if (!single[v].angle.is_zero())
-        return fail("a phase of " + angle_text(single[v].angle) + " is left on " + var_name(v) +
-                        ", which the QFT does not have" + at_line(single[v].line),
-                    single[v].line);
+      if (!single[v].is_zero())
+        return fail("a phase of " + single_text(single[v]) + " is left on " + var_name(v) +
+                        ", which the QFT does not have" + at_line(single_line[v]),
+                    single_line[v]);
     for (const auto& [key, t] : pairs) {
       const int a = static_cast<int>(key >> 32), b = static_cast<int>(key & 0xffffffffu);
       return fail("a controlled phase of " + angle_text(t.angle) + " is left between " + var_name(a) + " and " +

@@ -5,6 +5,8 @@
 #include <numeric>
 #include <stdexcept>
 
+#include "qftplan/input_error.hpp"
+
 namespace qftplan {
 
 using Kind = NetworkOp::Kind;
@@ -78,7 +80,7 @@ struct ReversalLayers {
   }
 };
 
-class ReversalNetwork final : public QftNetwork {
+class ReversalNetwork : public QftNetwork {
  public:
   ReversalNetwork(int n, int d) : QftNetwork(n, d), layers_{0, n, d} {}
   std::string name() const override { return "reversal"; }
@@ -104,6 +106,14 @@ class ReversalNetwork final : public QftNetwork {
 
  private:
   ReversalLayers layers_;
+};
+
+// The parity network: the reversal network's steps, rendered as parity steps (parity_qft.hpp).
+class ParityNetwork final : public ReversalNetwork {
+ public:
+  using ReversalNetwork::ReversalNetwork;
+  std::string name() const override { return "parity"; }
+  bool parity() const override { return true; }
 };
 
 // Leapfrog network (ours) for kept distance d < n-1. Wires start in order along the chain. Wire j,
@@ -215,8 +225,16 @@ std::unique_ptr<QftNetwork> make_reversal_network(int wires, int max_distance) {
 std::unique_ptr<QftNetwork> make_leapfrog_network(int wires, int max_distance) {
   return std::make_unique<LeapfrogNetwork>(wires, max_distance);
 }
+std::unique_ptr<QftNetwork> make_parity_network(int wires, int max_distance) {
+  return std::make_unique<ParityNetwork>(wires, max_distance);
+}
 std::unique_ptr<QftNetwork> make_adjacent_network(int wires) { return std::make_unique<AdjacentNetwork>(wires); }
 std::unique_ptr<QftNetwork> make_hadamard_network(int wires) { return std::make_unique<HadamardNetwork>(wires); }
+
+// The leapfrog network's steps take 12 bytes each when kept (the inverse): past 2^25 steps (400 MB)
+// the reversal network streams instead, which would otherwise exhaust memory on big registers with
+// big degrees.
+constexpr long long kMaxLeapfrogSteps = 1LL << 25;
 
 std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec) {
   const int n = spec.qubits, d = spec.max_distance();
@@ -226,14 +244,47 @@ std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec) {
   // The leapfrog network has at most 2 d blocks per wire; build it only when that can beat the
   // reversal network's n(n-1)/2 (it holds its n*2d steps in memory).
   const long long reversal = static_cast<long long>(n) * (n - 1) / 2;
-  // Its steps take 12 bytes each: past 2^25 steps (400 MB) stream the reversal network instead,
-  // which would otherwise exhaust memory on big registers with big degrees.
-  constexpr long long kMaxLeapfrogSteps = 1LL << 25;
   if (2LL * n * d < 2 * reversal && 2LL * n * d <= kMaxLeapfrogSteps) {
     auto leap = make_leapfrog_network(n, d);
     if (leap->block_count() < reversal) return leap;
   }
   return make_reversal_network(n, d);
+}
+
+const char* network_choice_name(NetworkChoice c) {
+  switch (c) {
+    case NetworkChoice::automatic: return "auto";
+    case NetworkChoice::reversal: return "reversal";
+    case NetworkChoice::leapfrog: return "leapfrog";
+    case NetworkChoice::parity: return "parity";
+  }
+  return "?";
+}
+
+NetworkChoice parse_network_choice(const std::string& text) {
+  for (NetworkChoice c : {NetworkChoice::automatic, NetworkChoice::reversal, NetworkChoice::leapfrog, NetworkChoice::parity})
+    if (text == network_choice_name(c)) return c;
+  throw InputError("unknown network '" + text + "' (valid: auto, reversal, leapfrog, parity)");
+}
+
+std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec, NetworkChoice choice) {
+  const int n = spec.qubits, d = spec.max_distance();
+  if (choice == NetworkChoice::automatic || n <= 1) return choose_network(spec);
+  if (!spec.effectively_exact() && d == 0) return make_hadamard_network(n);
+  if (!spec.effectively_exact() && d == 1) return make_adjacent_network(n);
+  switch (choice) {
+    case NetworkChoice::reversal: return make_reversal_network(n, d);
+    case NetworkChoice::parity: return make_parity_network(n, d);
+    case NetworkChoice::leapfrog:
+      if (spec.effectively_exact())
+        throw InputError("the leapfrog network is for the approximate QFT (degrees 3 .. n-1); use --approx or another --network");
+      if (2LL * n * d > kMaxLeapfrogSteps)
+        throw InputError("the leapfrog network of " + std::to_string(n) + " qubits at degree " + std::to_string(d + 1) +
+                         " is too big to keep (more than 2^25 steps); use a smaller degree or another --network");
+      return make_leapfrog_network(n, d);
+    case NetworkChoice::automatic: break;
+  }
+  return choose_network(spec);
 }
 
 }  // namespace qftplan

@@ -100,6 +100,12 @@ void StateVector::apply(const Gate& g) {
       for_each_pair(size, g.q0, [&](std::size_t, std::size_t i1) { a[i1] = cmul(e1, a[i1]); });
       return;
     }
+    case GateKind::parity_step:
+      // The parity block is its three gates (gate.hpp).
+      apply(make_gate(GateKind::cx, g.q1, g.q0));
+      apply(make_gate(GateKind::rz, g.q0, -1, g.angle));
+      apply(make_gate(GateKind::cx, g.q0, g.q1));
+      return;
     default:
       break;
   }

@@ -113,6 +113,7 @@ struct Case {
   std::optional<int> approx;
   bool inverse;
   GateSet gates;
+  NetworkChoice network = NetworkChoice::automatic;
 };
 
 class PlanAgainstFftw : public ::testing::TestWithParam<Case> {};
@@ -123,7 +124,12 @@ TEST_P(PlanAgainstFftw, UnitaryMatchesTheReference) {
   PlanOptions opt;
   opt.spec = QftSpec{c.n, c.approx, c.inverse};
   opt.gates = c.gates;
+  opt.network = c.network;
+  // A named network is the chain strategy's: plan with it, so that the network itself is tested.
+  if (c.network != NetworkChoice::automatic) opt.strategy = "chain";
   const auto plan = prepare_plan(dev, opt);
+  if (c.network == NetworkChoice::parity && c.n >= 2 && (!c.approx || *c.approx >= 3))
+    EXPECT_EQ(plan.network->name(), "parity");
   VectorSink out;
   execute_plan(dev, opt, plan, &out);
   const Matrix got = simulate(dev, opt, plan, out.gates);
@@ -141,6 +147,20 @@ std::vector<Case> cases() {
   for (int n : {4, 6, 8})
     for (int M : {1, 2, 3, 4})
       for (bool inv : {false, true}) v.push_back({"line:8", n, M, inv, GateSet::cx});
+  // The parity network (ours, parity_qft.hpp), exact and approximate, both directions, every gate set.
+  for (const auto& d : {"line:9", "grid:3x3", "heavy-hex:1x1"})
+    for (int n : {2, 3, 5, 8})
+      for (bool inv : {false, true})
+        for (GateSet g : {GateSet::logical, GateSet::cx, GateSet::cz})
+          v.push_back({d, n, std::nullopt, inv, g, NetworkChoice::parity});
+  for (int n : {5, 8})
+    for (int M : {3, 4, 6})
+      for (bool inv : {false, true}) v.push_back({"line:8", n, M, inv, GateSet::cx, NetworkChoice::parity});
+  // The fused networks asked for by name.
+  for (bool inv : {false, true}) {
+    v.push_back({"line:8", 8, 4, inv, GateSet::cx, NetworkChoice::reversal});
+    v.push_back({"line:8", 8, 4, inv, GateSet::logical, NetworkChoice::leapfrog});
+  }
   return v;
 }
 

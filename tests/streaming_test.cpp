@@ -153,6 +153,9 @@ TEST(Streaming, NativeReplayEqualsTheDecomposedStream) {
         logical.gates.push_back(make_gate(GateKind::cx, 0, 1));
         logical.gates.push_back(make_gate(GateKind::cz, 1, 2));
         logical.gates.push_back(make_gate(GateKind::swap, 2, 3));
+        // Parity steps with and without an angle (the rewrite leaves out an rz of angle 0).
+        logical.gates.push_back(make_gate(GateKind::parity_step, 3, 4));
+        logical.gates.push_back(make_gate(GateKind::parity_step, 8, 9, Angle(1, 3)));
         logical.gates.push_back(make_gate(GateKind::cp, 0, 19, Angle(1, 2)));
         for (int k = 0; k < 12; ++k) logical.gates.push_back(make_gate(GateKind::measure, maps.final_placement[k], k));
 
@@ -349,8 +352,10 @@ TEST(Scale, TwoThousandQubitPlansPassTheStructuralProof) {
     std::string device;
     bool inverse;
     std::optional<int> degree;
+    NetworkChoice network = NetworkChoice::automatic;
   };
-  for (const Case& c : {Case{"grid:46x46", false, std::nullopt}, Case{"heavy-hex:24x24", true, 6}}) {
+  for (const Case& c : {Case{"grid:46x46", false, std::nullopt}, Case{"heavy-hex:24x24", true, 6},
+                        Case{"grid:46x46", true, std::nullopt, NetworkChoice::parity}}) {
     const Device dev = load_device(c.device);
     PlanOptions opt;
     opt.spec.qubits = 2048;
@@ -358,13 +363,16 @@ TEST(Scale, TwoThousandQubitPlansPassTheStructuralProof) {
     opt.spec.approx_degree = c.degree;
     opt.strategy = "chain";
     opt.gates = GateSet::cx;
+    opt.network = c.network;
     const PreparedPlan plan = prepare_plan(dev, opt);
     StructuralChecker proof(dev, plan.spec, plan.maps.placement);
     const PlanReport r = execute_plan(dev, opt, plan, &proof);
     const CheckResult res = proof.finish(r.final_placement);
     EXPECT_TRUE(res.ok && res.structural_proved) << c.device << ": " << res.message;
     EXPECT_EQ(proof.gate_count(), r.gate_counts.at("cx") + r.gate_counts.at("rz") + r.gate_counts.at("h")) << c.device;
-    if (!c.degree) {
+    if (c.network == NetworkChoice::parity) {
+      EXPECT_EQ(r.cx_count, 2048LL * 2048 - 1);  // parity_qft.hpp: n^2 - 1
+    } else if (!c.degree) {
       EXPECT_EQ(r.two_qubit_blocks, 2048LL * 2047 / 2);
       EXPECT_EQ(r.cx_count, 3LL * 2048 * 2047 / 2);
       EXPECT_EQ(r.depth_2q, 2 * 2048 - 3);

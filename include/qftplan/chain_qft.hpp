@@ -21,8 +21,8 @@ struct QubitMaps {
 QubitMaps chain_maps(const QftSpec& spec, const QftNetwork& network, std::span<const int> chain);
 
 /// Streams the QFT of `spec` on `chain` (chain[p] = physical qubit at position p, consecutive ones
-/// coupled) into `sink` as h, cp, swap and cp_swap gates; the inverse runs the network backwards
-/// with negated angles. Returns the qubit maps.
+/// coupled) into `sink` as h, cp, swap and cp_swap gates (the parity network: parity_qft.hpp); the
+/// inverse runs the network backwards with negated angles. Returns the qubit maps.
 QubitMaps emit_chain_qft(const QftSpec& spec, const QftNetwork& network, std::span<const int> chain, GateSink& sink);
 
 }  // namespace qftplan

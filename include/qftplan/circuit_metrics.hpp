@@ -28,13 +28,16 @@ class MetricsSink final : public GateSink {
   void replay(const GateProgram& program, int q0, int q1);
 
   long long count(GateKind k) const { return counts_[static_cast<int>(k)]; }
+  /// Two-qubit gates that are controlled phases: cp and cp_swap.
+  long long rotations() const { return count(GateKind::cp) + count(GateKind::cp_swap); }
   long long two_qubit_count() const;
   long long total() const;
   /// Layers of all gates (measurements included).
   long long depth() const;
   /// Layers of two-qubit gates only (one-qubit gates take no layer).
   long long depth_2q() const;
-  /// Layers of two-qubit gates when each fused cp_swap is written as cp then swap (two layers);
+  /// Layers of two-qubit gates when each fused cp_swap is written as cp then swap, and each
+  /// parity_step as its two cx (two layers each);
   /// 0 unless constructed with `unfused_depth`.
   long long depth_2q_unfused() const;
   /// Counts by gate name, leaving out kinds that never occurred.
@@ -53,7 +56,7 @@ class MetricsSink final : public GateSink {
     step(two, level_[a], level_[b], level_2q_[a], level_2q_[b]);
     if (unfused_) {
       const long long lu = std::max(level_unfused_[a], level_unfused_[b]) + (two ? 1 : 0) +
-                           (g.kind == GateKind::cp_swap ? 1 : 0);
+                           (g.kind == GateKind::cp_swap || g.kind == GateKind::parity_step ? 1 : 0);
       level_unfused_[a] = level_unfused_[b] = lu;
     }
   }

@@ -24,19 +24,24 @@ enum class GateKind : std::uint8_t {
   swap,     ///< SWAP
   cp_swap,  ///< fused block: controlled phase then SWAP (one two-qubit block)
   measure,  ///< measurement of q0 into bit q1
+  /// parity block (ours, the parity network): cx q1,q0; rz(t) q0; cx q0,q1. With values (A, B) on
+  /// (q0, q1) it leaves (A xor B, A) and the phase t on A xor B (one two-qubit block, 2 CX).
+  parity_step,
 };
 
-inline constexpr int kGateKindCount = 11;
+inline constexpr int kGateKindCount = 12;
 
-/// OpenQASM-style lower-case name ("cp_swap" for the fused block).
+/// OpenQASM-style lower-case name ("cp_swap" and "parity_step" for the blocks, which writers expand).
 std::string_view gate_name(GateKind k);
-/// True for cx, cz, cp, swap and cp_swap.
+/// True for cx, cz, cp, swap, cp_swap and parity_step.
 constexpr bool is_two_qubit(GateKind k) {
-  return k == GateKind::cx || k == GateKind::cz || k == GateKind::cp || k == GateKind::swap || k == GateKind::cp_swap;
+  return k == GateKind::cx || k == GateKind::cz || k == GateKind::cp || k == GateKind::swap || k == GateKind::cp_swap ||
+         k == GateKind::parity_step;
 }
-/// True for gates with an angle parameter (rz, p, cp, cp_swap).
+/// True for gates with an angle parameter (rz, p, cp, cp_swap, parity_step).
 constexpr bool has_angle(GateKind k) {
-  return k == GateKind::rz || k == GateKind::p || k == GateKind::cp || k == GateKind::cp_swap;
+  return k == GateKind::rz || k == GateKind::p || k == GateKind::cp || k == GateKind::cp_swap ||
+         k == GateKind::parity_step;
 }
 
 /// One gate on physical qubits. For one-qubit gates q1 is unused; for measure, q1 is the bit index.

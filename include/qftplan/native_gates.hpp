@@ -31,6 +31,7 @@ GateSet gate_set_of(TwoQubitGate g);
 ///   cp_swap(t) a,b -> rz(t/2) a; rz(t/2) b; cx a,b; rz(-t/2) b; cx b,a; cx a,b  (3 CX: the CP's last CX
 ///                     cancels the SWAP's first; Vidal and Dawson, PRA 69, 010301, 2004 bound any
 ///                     two-qubit gate by 3 CX)
+///   parity_step(t) a,b -> cx b,a; rz(t) a; cx a,b                             (2 CX; no rz when t = 0)
 ///   p(t)           -> rz(t) (equal up to global phase)
 /// For the cz target every cx c,t becomes h t; cz c,t; h t. Gates already native pass through.
 class NativeDecomposer final : public GateSink {
@@ -49,8 +50,9 @@ class NativeDecomposer final : public GateSink {
 };
 
 /// The program NativeDecomposer makes of one gate of kind `k` on qubits 0 and 1 (found by running
-/// it, so the program cannot drift from what is emitted). Not for measurements.
-GateProgram native_program(TwoQubitGate target, GateKind k);
+/// it, so the program cannot drift from what is emitted), for a nonzero angle or, with `zero_angle`,
+/// for the angle 0 (a rewrite may leave out an rz of angle 0). Not for measurements.
+GateProgram native_program(TwoQubitGate target, GateKind k, bool zero_angle = false);
 
 /// Feeds the native circuit of a logical stream to a counter and the noise model without writing
 /// it out: each gate replays its kind's native_program on its own qubits. The counts and depths are
@@ -64,13 +66,15 @@ class NativeReplay final : public GateSink {
   void finish() override;
 
  private:
-  std::array<GateProgram, kGateKindCount> programs_;
-  std::array<NoiseSink::ProgramCost, kGateKindCount> costs_;
+  // Per kind, for a nonzero angle [0] and for the angle 0 [1].
+  std::array<GateProgram, kGateKindCount> programs_[2];
+  std::array<NoiseSink::ProgramCost, kGateKindCount> costs_[2];
   MetricsSink& metrics_;
   NoiseSink& noise_;
 };
 
-/// Splits each fused cp_swap into cp then swap (how the logical gate set is written).
+/// Splits each fused cp_swap into cp then swap, and each parity_step into its cx, rz, cx (how the
+/// logical gate set is written).
 class FusedBlockSplitter final : public GateSink {
  public:
   explicit FusedBlockSplitter(GateSink& out) : out_(out) {}

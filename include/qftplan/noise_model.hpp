@@ -32,7 +32,8 @@ struct NoiseFigures {
 };
 
 /// Accumulates the noise figures of a native gate stream (h, x, sx, rz, p, cx, cz, measure; the
-/// logical cp/swap/cp_swap are counted as their 2/3/3 native two-qubit gates on the same coupler).
+/// logical cp/swap/cp_swap/parity_step are counted as their 2/3/3/2 native two-qubit gates on the same
+/// coupler).
 class NoiseSink final : public GateSink {
  public:
   /// `register_qubits`: the physical qubits holding the register from the start.

@@ -55,6 +55,7 @@ struct PlanOptions {
   Objective objective = Objective::esp;          ///< what --strategy auto maximises or minimises
   RoutingOptions routing;                        ///< settings of the routed strategy
   EndOrder end_order = EndOrder::free;           ///< same: SWAPs at the end make final_placement == placement
+  NetworkChoice network = NetworkChoice::automatic;  ///< chain network of the chain and spine strategies
 };
 
 /// One approximation degree considered by the automatic choice.

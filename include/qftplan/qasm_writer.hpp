@@ -30,7 +30,8 @@ struct CircuitHeader {
 
 /// Writes gates as OpenQASM text. Version 3 addresses physical qubits as $k with stdgates.inc
 /// names; version 2 declares qreg q[D] with qelib1.inc names (cu1 for cp, u1 for p, three cx for
-/// swap). A cp_swap is written as cp then swap. Angles are exact (pi/2**k, or pi/K in version 2).
+/// swap). A cp_swap is written as cp then swap, a parity_step as cx, rz, cx. Angles are exact (pi/2**k,
+/// or pi/K in version 2).
 class QasmWriter final : public GateSink {
  public:
   QasmWriter(QasmVersion version, const CircuitHeader& header, TextOutput& out);

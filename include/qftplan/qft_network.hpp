@@ -48,6 +48,9 @@ class QftNetwork {
   /// Number of two-wire steps (blocks) and of those that swap.
   long long block_count() const;
   long long swap_count() const;
+  /// True for the parity network: the chain planner turns its steps into parity steps
+  /// (parity_qft.hpp) instead of fused blocks.
+  virtual bool parity() const { return false; }
   int wires() const { return wires_; }
   int max_distance() const { return d_; }
 
@@ -68,14 +71,34 @@ std::unique_ptr<QftNetwork> make_reversal_network(int wires, int max_distance);
 /// kept (O(n d) memory) once chunk() asks for random access (the inverse runs it backwards).
 std::unique_ptr<QftNetwork> make_leapfrog_network(int wires, int max_distance);
 
+/// Ours: the reversal network's meetings as parity steps of 2 CX each (parity_qft.hpp); n^2 - 1 CX
+/// for the exact QFT. Its steps, counts and positions are the reversal network's.
+std::unique_ptr<QftNetwork> make_parity_network(int wires, int max_distance);
+
 /// Distance d = 1: wires stay in order and only neighbours interact (n-1 controlled phases, no SWAP).
 std::unique_ptr<QftNetwork> make_adjacent_network(int wires);
 
 /// Distance d = 0: Hadamards only.
 std::unique_ptr<QftNetwork> make_hadamard_network(int wires);
 
+/// Which chain network to plan with (--network).
+enum class NetworkChoice {
+  automatic,  ///< reversal when exact, else reversal or leapfrog, whichever has fewer blocks
+  reversal,   ///< the fused reversal network
+  leapfrog,   ///< the fused leapfrog network (approximate degrees 3 .. n-1 only)
+  parity,     ///< the parity network
+};
+/// "auto", "reversal", "leapfrog", "parity".
+const char* network_choice_name(NetworkChoice c);
+/// Parses a --network value; InputError listing the valid ones otherwise.
+NetworkChoice parse_network_choice(const std::string& text);
+
 /// The network qftplan uses for a spec: reversal when exact; otherwise the one of fewer blocks
 /// (ties go to the reversal network, which has the lower depth).
 std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec);
+/// The network of `choice` for a spec. Degrees 1 and 2 need no meetings and always get the
+/// hadamard-only and adjacent networks; `leapfrog` on a spec without a leapfrog network (exact, or
+/// registers too small for the degree) is an InputError.
+std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec, NetworkChoice choice);
 
 }  // namespace qftplan

@@ -146,6 +146,7 @@ struct PlanArgs {
   std::string strategy = "auto";
   std::string objective = "esp";
   std::string end_order = "free";
+  std::string network = "auto";
 };
 
 int run_plan(const PlanArgs& a) {
@@ -176,6 +177,7 @@ int run_plan(const PlanArgs& a) {
   opt.strategy = a.strategy;
   opt.objective = parse_objective(a.objective);
   opt.end_order = parse_end_order(a.end_order);
+  opt.network = parse_network_choice(a.network);
   opt.measure = a.measure;
   const QasmVersion version = parse_qasm_version(a.format);
   opt.swap_as_cx = version == QasmVersion::v2;
@@ -566,6 +568,10 @@ int main(int argc, char** argv) {
   plan->add_option("--end-order", pa.end_order,
                    "free: output bits end where the plan leaves them; same: SWAPs at the end put output bit k on "
                    "the qubit that held input bit k")
+      ->capture_default_str();
+  plan->add_option("--network", pa.network,
+                   "chain network: auto (reversal when exact, else reversal or leapfrog, fewer blocks), reversal, "
+                   "leapfrog, or parity (ours: n^2-1 CX for the exact QFT instead of 3n(n-1)/2)")
       ->capture_default_str();
 
   CheckArgs ca;
