@@ -25,9 +25,15 @@ void check_rate(const std::optional<double>& v, const std::string& what) {
   if (v && !(*v >= 0.0 && *v <= 1.0))
     throw InputError(fmt::format("{} must be a probability in [0, 1], got {}", what, *v));
 }
-void check_positive(const std::optional<double>& v, const std::string& what) {
-  if (v && !(*v > 0.0 && std::isfinite(*v)))
-    throw InputError(fmt::format("{} must be a positive number, got {}", what, *v));
+// A gate time in ns: positive, and at most kMaxGateDurationNs so that schedules stay finite.
+void check_duration(const std::optional<double>& v, const std::string& what) {
+  if (v && !(*v > 0.0 && *v <= kMaxGateDurationNs))
+    throw InputError(fmt::format("{} must be a positive number of ns, at most 1e9 (one second), got {}", what, *v));
+}
+// A T1 or T2 time: positive, infinite for a qubit that does not decay.
+void check_lifetime(const std::optional<double>& v, const std::string& what) {
+  if (v && !(*v > 0.0))
+    throw InputError(fmt::format("{} must be a positive number (or infinite), got {}", what, *v));
 }
 
 }  // namespace
@@ -40,10 +46,10 @@ Device::Device(DeviceDescription description) : d_(std::move(description)) {
   check_rate(d_.calibration.error_1q, "calibration.error_1q");
   check_rate(d_.calibration.error_2q, "calibration.error_2q");
   check_rate(d_.calibration.error_readout, "calibration.error_readout");
-  check_positive(d_.calibration.duration_1q_ns, "calibration.duration_1q_ns");
-  check_positive(d_.calibration.duration_2q_ns, "calibration.duration_2q_ns");
-  check_positive(d_.calibration.t1_us, "calibration.t1_us");
-  check_positive(d_.calibration.t2_us, "calibration.t2_us");
+  check_duration(d_.calibration.duration_1q_ns, "calibration.duration_1q_ns");
+  check_duration(d_.calibration.duration_2q_ns, "calibration.duration_2q_ns");
+  check_lifetime(d_.calibration.t1_us, "calibration.t1_us");
+  check_lifetime(d_.calibration.t2_us, "calibration.t2_us");
 
   std::vector<int> deg(n, 0);
   for (auto& c : d_.couplers) {
@@ -52,7 +58,7 @@ Device::Device(DeviceDescription description) : d_(std::move(description)) {
     if (c.a == c.b) throw InputError(fmt::format("coupler [{}, {}] joins a qubit to itself", c.a, c.b));
     if (c.a > c.b) std::swap(c.a, c.b);
     check_rate(c.error, fmt::format("error of coupler [{}, {}]", c.a, c.b));
-    check_positive(c.duration_ns, fmt::format("duration_ns of coupler [{}, {}]", c.a, c.b));
+    check_duration(c.duration_ns, fmt::format("duration_ns of coupler [{}, {}]", c.a, c.b));
     ++deg[c.a];
     ++deg[c.b];
   }
@@ -92,9 +98,9 @@ Device::Device(DeviceDescription description) : d_(std::move(description)) {
     const auto what = fmt::format("qubit_calibration of qubit {}", o.id);
     check_rate(o.error_1q, what + ": error_1q");
     check_rate(o.error_readout, what + ": error_readout");
-    check_positive(o.duration_1q_ns, what + ": duration_1q_ns");
-    check_positive(o.t1_us, what + ": t1_us");
-    check_positive(o.t2_us, what + ": t2_us");
+    check_duration(o.duration_1q_ns, what + ": duration_1q_ns");
+    check_lifetime(o.t1_us, what + ": t1_us");
+    check_lifetime(o.t2_us, what + ": t2_us");
   }
   if (!d_.positions.empty() && static_cast<int>(d_.positions.size()) != n)
     throw InputError(fmt::format("positions must list one entry per qubit ({}), got {}", n, d_.positions.size()));

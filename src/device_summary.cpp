@@ -143,8 +143,9 @@ void widen(Range& r, double v, bool first) {
   r.max = std::max(r.max, v);
 }
 
+/// Only T1 and T2 can be infinite: not given anywhere, or given as .inf (no decay).
 std::string number(double v) {
-  if (std::isinf(v)) return "unset";
+  if (std::isinf(v)) return "infinite";
   return fmt::format("{:g}", v);
 }
 
@@ -216,10 +217,11 @@ std::string format_summary(const DeviceSummary& s) {
   if (s.components <= 1)
     rows.emplace_back("components", "1 (connected)");
   else
-    rows.emplace_back("components",
-                      fmt::format("{}, largest {} qubits — disconnected: {} qubit{} cannot reach the largest component",
-                                  s.components, s.largest_component, s.qubits - s.largest_component,
-                                  s.qubits - s.largest_component == 1 ? "" : "s"));
+    rows.emplace_back(
+        "components",
+        fmt::format("{}, largest {} qubit{} — disconnected: {} qubit{} cannot reach the largest component",
+                    s.components, s.largest_component, s.largest_component == 1 ? "" : "s",
+                    s.qubits - s.largest_component, s.qubits - s.largest_component == 1 ? "" : "s"));
   rows.emplace_back("bipartite", s.bipartite ? "yes" : "no");
   rows.emplace_back("native 2q gate", s.native_2q);
   if (!s.calibrated) {

@@ -6,6 +6,7 @@
 #include <charconv>
 #include <cmath>
 #include <cstdint>
+#include <cstdio>
 #include <cstring>
 #include <filesystem>
 #include <fstream>
@@ -37,6 +38,10 @@ constexpr std::uintmax_t kMaxDeviceFileMiB = 128;
 constexpr std::uintmax_t kMaxDeviceFileBytes = kMaxDeviceFileMiB << 20;
 /// Upper bound on YAML nodes (and alias uses) in one file: bounds memory and work whatever the text.
 constexpr long long kMaxVisitedNodes = 20'000'000;
+/// Deepest nesting of flow collections ([ and {) accepted. yaml-cpp scans a whole run of open brackets
+/// before its own depth check fires (2,000,000 of them cost about 470 MB and seconds), so the raw text is
+/// checked first. Device files need 3 levels (positions: [{id: 0, at: [0, 0]}]).
+constexpr int kMaxFlowDepth = 64;
 
 const std::vector<std::string> kTopKeys = {"name",      "qubits",   "couplers", "calibration", "qubit_calibration",
                                            "positions", "native_2q"};
@@ -137,7 +142,65 @@ std::optional<long long> parse_integer(std::string_view s, bool& overflow) {
   return v;
 }
 
-/// Parses a YAML core-schema number (integers, decimals, exponents, .inf, .nan).
+/// Whether `s` is a number in the YAML 1.2 core schema's float syntax (YAML 1.2.2, section 10.3.2:
+/// [-+]? ( \. [0-9]+ | [0-9]+ ( \. [0-9]* )? ) ( [eE] [-+]? [0-9]+ )?). Words such as "nan" or "inf"
+/// are text there, unlike in std::from_chars.
+bool core_number_syntax(std::string_view s) {
+  std::size_t i = 0;
+  const auto digits = [&] {
+    const std::size_t start = i;
+    while (i < s.size() && s[i] >= '0' && s[i] <= '9') ++i;
+    return i > start;
+  };
+  if (i < s.size() && (s[i] == '+' || s[i] == '-')) ++i;
+  if (i < s.size() && s[i] == '.') {
+    ++i;
+    if (!digits()) return false;
+  } else {
+    if (!digits()) return false;
+    if (i < s.size() && s[i] == '.') {
+      ++i;
+      digits();
+    }
+  }
+  if (i < s.size() && (s[i] == 'e' || s[i] == 'E')) {
+    ++i;
+    if (i < s.size() && (s[i] == '+' || s[i] == '-')) ++i;
+    if (!digits()) return false;
+  }
+  return i == s.size();
+}
+
+/// For a number in core syntax too large or too small for a double: true when its magnitude is
+/// above 1 (it overflows), false when below (it underflows). Exponents saturate, so any length works.
+bool overflows(std::string_view s) {
+  std::size_t i = (s[0] == '+' || s[0] == '-') ? 1 : 0;
+  bool seen = false, point = false;
+  long long int_digits = 0, frac_zeros = 0;
+  for (; i < s.size() && s[i] != 'e' && s[i] != 'E'; ++i) {
+    if (s[i] == '.') {
+      point = true;
+    } else if (!seen && s[i] == '0') {
+      if (point) ++frac_zeros;
+    } else {
+      seen = true;
+      if (!point) ++int_digits;
+    }
+  }
+  const long long order = int_digits > 0 ? int_digits - 1 : -(frac_zeros + 1);  // of the first non-zero digit
+  long long exponent = 0;
+  if (i < s.size()) {
+    ++i;
+    const bool negative = s[i] == '-';
+    if (s[i] == '+' || s[i] == '-') ++i;
+    for (; i < s.size(); ++i) exponent = std::min<long long>(exponent * 10 + (s[i] - '0'), 1'000'000'000);
+    if (negative) exponent = -exponent;
+  }
+  return order + exponent > 0;
+}
+
+/// Parses a YAML core-schema number (integers, decimals, exponents, .inf, .nan) to the nearest double:
+/// a value too small for a double becomes 0 (keeping its sign), one too large becomes infinite.
 std::optional<double> parse_number(std::string_view s) {
   static const std::pair<std::string_view, double> special[] = {
       {".inf", HUGE_VAL},   {".Inf", HUGE_VAL},  {".INF", HUGE_VAL},   {"+.inf", HUGE_VAL},
@@ -145,10 +208,16 @@ std::optional<double> parse_number(std::string_view s) {
       {"-.INF", -HUGE_VAL}, {".nan", NAN},       {".NaN", NAN},        {".NAN", NAN}};
   for (const auto& [text, value] : special)
     if (s == text) return value;
-  if (s.size() > 1 && s[0] == '+' && s[1] != '-' && s[1] != '+') s.remove_prefix(1);
+  if (!core_number_syntax(s)) return std::nullopt;
+  const bool negative = s[0] == '-';
+  const std::string_view body = (s[0] == '+') ? s.substr(1) : s;
   double v = 0;
-  const auto [p, ec] = std::from_chars(s.data(), s.data() + s.size(), v, std::chars_format::general);
-  if (ec != std::errc{} || p != s.data() + s.size() || s.empty()) return std::nullopt;
+  const auto [p, ec] = std::from_chars(body.data(), body.data() + body.size(), v, std::chars_format::general);
+  if (ec == std::errc::result_out_of_range) {
+    const double magnitude = overflows(s) ? HUGE_VAL : 0.0;
+    return negative ? -magnitude : magnitude;
+  }
+  if (ec != std::errc{} || p != body.data() + body.size()) return std::nullopt;
   return v;
 }
 
@@ -158,12 +227,293 @@ struct Pos {
   int column = 0;
 };
 
+/// The text as yaml-cpp should see it, or nullopt when it needs no change: every line break YAML 1.2
+/// knows (section 5.4: CRLF, CR, LF) becomes LF, which keeps line numbers and columns (yaml-cpp itself
+/// reads a lone CR as part of the line), and a leading UTF-8 byte order mark is dropped (yaml-cpp counts
+/// it neither in columns nor in offsets, so offsets into the text stay right).
+std::optional<std::string> normalized_text(std::string_view text) {
+  const bool bom = text.starts_with("\xEF\xBB\xBF");
+  if (!bom && text.find('\r') == std::string::npos) return std::nullopt;
+  std::string out;
+  out.reserve(text.size());
+  for (std::size_t i = bom ? 3 : 0; i < text.size(); ++i) {
+    if (text[i] != '\r') {
+      out += text[i];
+    } else {
+      out += '\n';
+      if (i + 1 < text.size() && text[i + 1] == '\n') ++i;
+    }
+  }
+  return out;
+}
+
+/// One pass over the raw text before yaml-cpp parses it, in O(size) without allocation: the text must be
+/// UTF-8 (RFC 3629), hold only characters YAML 1.2 allows (section 5.1: no C0 control but tab and line
+/// break anywhere; outside quoted scalars, where the JSON-compatible set applies, also no DEL, C1 control
+/// but NEL, U+FFFE or U+FFFF), and nest flow collections at most kMaxFlowDepth deep. Quoted scalars,
+/// comments, block scalars and plain scalars are told apart from structure by a light reading of the
+/// syntax; where it could misread a file, it errs towards not counting a bracket.
+class RawTextCheck {
+ public:
+  RawTextCheck(std::string_view text, const std::string& source) : s_(text), source_(source) {}
+
+  void run() {
+    check_encoding();
+    while (i_ < s_.size()) {
+      const auto c = static_cast<unsigned char>(s_[i_]);
+      std::size_t len = 1;
+      char32_t cp = c;
+      if (c >= 0x80) cp = decode(len);
+      check_character(cp);
+      if (c == '\n') {
+        new_line();
+      } else if (line_begin_ && c == ' ') {
+        ++indent_;
+      } else if (line_begin_ && begin_content()) {
+        len = 3;  // a document marker, read as a blank
+      } else if (c < 0x80 || st_ == State::token || st_ == State::done || st_ == State::double_quoted) {
+        step(c);  // (begin_content has cleared line_begin_ when it returned false)
+      }
+      i_ += len;
+    }
+  }
+
+ private:
+  enum class State : std::uint8_t { token, plain, done, property, single_quoted, double_quoted, comment, block };
+
+  [[noreturn]] void fail(std::size_t at, const std::string& message) const {
+    throw InputError(source_, line_, static_cast<int>(at - line_start_ + 1), message);
+  }
+
+  /// UTF-16 and UTF-32 (YAML 1.2, section 5.2) are told by their byte order marks or by zero bytes
+  /// among the first ones; yaml-cpp would read them, but device files are UTF-8.
+  void check_encoding() const {
+    const auto b = [&](std::size_t k) { return k < s_.size() ? static_cast<unsigned char>(s_[k]) : 0x100u; };
+    if ((b(0) == 0xFF && b(1) == 0xFE) || (b(0) == 0xFE && b(1) == 0xFF) || (b(0) == 0 && b(1) != 0x100u) ||
+        (b(0) != 0x100u && b(0) != 0 && b(1) == 0))
+      fail(0, "the file is UTF-16 or UTF-32 text; device files must be UTF-8");
+  }
+
+  /// Decodes the character at i_ (a byte of 0x80 or more), refusing what RFC 3629 (section 3) forbids.
+  char32_t decode(std::size_t& len) const {
+    const auto at = [&](std::size_t k) { return static_cast<unsigned char>(s_[i_ + k]); };
+    const unsigned lead = at(0);
+    const std::string_view bad = "the file is not valid UTF-8: ";  // no allocation unless it fails
+    if (lead < 0xC0) fail(i_, fmt::format("{}byte 0x{:02x} continues a character that never started", bad, lead));
+    if (lead > 0xF7) fail(i_, fmt::format("{}byte 0x{:02x} never occurs in UTF-8", bad, lead));
+    len = lead < 0xE0 ? 2 : lead < 0xF0 ? 3 : 4;
+    char32_t cp = lead & (lead < 0xE0 ? 0x1F : lead < 0xF0 ? 0x0F : 0x07);
+    for (std::size_t k = 1; k < len; ++k) {
+      if (i_ + k >= s_.size() || (at(k) & 0xC0) != 0x80)
+        fail(i_, fmt::format("{}the character starting with byte 0x{:02x} is cut short", bad, lead));
+      cp = (cp << 6) | (at(k) & 0x3F);
+    }
+    static constexpr char32_t kLeast[] = {0, 0, 0x80, 0x800, 0x10000};
+    if (cp < kLeast[len]) fail(i_, fmt::format("{}an overlong encoding of U+{:04X}", bad, static_cast<unsigned>(cp)));
+    if (cp >= 0xD800 && cp <= 0xDFFF)
+      fail(i_,
+           fmt::format("{}an encoded surrogate U+{:04X}, which is not a character", bad, static_cast<unsigned>(cp)));
+    if (cp > 0x10FFFF) fail(i_, fmt::format("{}a code point above U+10FFFF", bad));
+    return cp;
+  }
+
+  void check_character(char32_t cp) const {
+    if (cp == 0) fail(i_, "a NUL byte is not allowed in a YAML file");
+    if (cp < 0x20 && cp != '\t' && cp != '\n')
+      fail(i_, fmt::format("control character U+{:04X} is not allowed in a YAML file (write \\x{:02x} inside double "
+                           "quotes)",
+                           static_cast<unsigned>(cp), static_cast<unsigned>(cp)));
+    if (st_ == State::single_quoted || st_ == State::double_quoted) return;
+    if (cp == 0x7F || (cp >= 0x80 && cp <= 0x9F && cp != 0x85) || cp == 0xFFFE || cp == 0xFFFF)
+      fail(i_, fmt::format("character U+{:04X} is not allowed outside quoted text in YAML (write {} inside double "
+                           "quotes)",
+                           static_cast<unsigned>(cp),
+                           cp <= 0xFF ? fmt::format("\\x{:02x}", static_cast<unsigned>(cp))
+                                      : fmt::format("\\u{:04x}", static_cast<unsigned>(cp))));
+  }
+
+  void new_line() {
+    // A plain scalar, comment or property ends at the line break; quoted text goes on.
+    if (st_ != State::single_quoted && st_ != State::double_quoted && st_ != State::block) st_ = State::token;
+    if (block_header_) {
+      block_header_ = false;
+      st_ = State::block;
+    }
+    escaped_ = false;
+    ++line_;
+    line_start_ = i_ + 1;
+    line_begin_ = true;
+    indent_ = 0;
+  }
+
+  /// The first character of a line after its indentation; true for a document marker (--- or ...).
+  bool begin_content() {
+    line_begin_ = false;
+    const std::string_view rest = s_.substr(i_);
+    const bool marker = indent_ == 0 && (rest.starts_with("---") || rest.starts_with("...")) &&
+                        (rest.size() == 3 || space(rest[3]) || rest[3] == '\n');
+    if (st_ == State::block && !marker) {
+      // Block scalar content is every more indented line; a line of blanks stays inside.
+      if (indent_ > block_indent_) return false;
+      std::size_t k = i_;
+      while (k < s_.size() && space(s_[k])) ++k;
+      if (k == s_.size() || s_[k] == '\n') return false;
+    }
+    if (st_ == State::block) st_ = State::token;
+    if (st_ != State::token || indent_ != 0 || depth_ != 0) return false;
+    if (marker) {
+      marker_line_ = line_;
+      return true;
+    }
+    if (rest[0] == '%') st_ = State::comment;  // a directive
+    return false;
+  }
+
+  static bool space(char c) { return c == ' ' || c == '\t'; }
+  static bool flow_indicator(char c) { return c == ',' || c == '[' || c == ']' || c == '{' || c == '}'; }
+  char next() const { return i_ + 1 < s_.size() ? s_[i_ + 1] : '\n'; }
+  bool after_space() const { return i_ == line_start_ || space(s_[i_ - 1]); }
+
+  void step(unsigned char uc) {
+    const char c = static_cast<char>(uc);
+    switch (st_) {
+      case State::comment:
+      case State::block:
+        return;
+      case State::single_quoted:
+        if (c == '\'') {
+          if (next() == '\'')
+            ++i_;  // '' stands for one quote
+          else
+            st_ = State::done;
+        }
+        return;
+      case State::double_quoted:
+        if (escaped_)
+          escaped_ = false;
+        else if (c == '\\')
+          escaped_ = true;
+        else if (c == '"')
+          st_ = State::done;
+        return;
+      case State::property:
+        if (verbatim_) {
+          if (c == '>') verbatim_ = false;
+          return;
+        }
+        if (space(c)) {
+          st_ = State::token;
+          return;
+        }
+        // Anchor and tag names never hold flow indicators (YAML 1.2, sections 6.9.1 and 6.9.2): one ends
+        // the property and is read as structure.
+        if (!flow_indicator(c)) return;
+        st_ = State::token;
+        break;
+      default:
+        break;
+    }
+    if (space(c)) return;
+    if (c == '#' && after_space()) {
+      st_ = State::comment;
+      return;
+    }
+    switch (c) {
+      case '[':
+      case '{':
+        // In block context a bracket inside a plain scalar is text; in flow context it always opens.
+        if (st_ == State::token || depth_ > 0) {
+          if (++depth_ > kMaxFlowDepth)
+            fail(i_, fmt::format("flow sequences and mappings are nested more than {} deep", kMaxFlowDepth));
+          st_ = State::token;
+          return;
+        }
+        break;
+      case ']':
+      case '}':
+        if (depth_ > 0) {
+          --depth_;
+          st_ = State::done;
+          return;
+        }
+        break;
+      case ',':
+        if (depth_ > 0) {
+          st_ = State::token;
+          return;
+        }
+        break;
+      case ':':
+        // A value indicator: followed by a blank, or in flow context by an indicator or after a quoted key.
+        if (space(next()) || next() == '\n' || st_ == State::done || (depth_ > 0 && flow_indicator(next()))) {
+          st_ = State::token;
+          return;
+        }
+        break;
+      default:
+        break;
+    }
+    if (st_ != State::token) {
+      if (st_ == State::done) st_ = State::plain;
+      return;
+    }
+    switch (c) {
+      case '\'':
+        st_ = State::single_quoted;
+        return;
+      case '"':
+        st_ = State::double_quoted;
+        escaped_ = false;
+        return;
+      case '-':
+      case '?':
+        if (space(next()) || next() == '\n') return;  // a block entry or a mapping key
+        break;
+      case '!':
+      case '&':
+      case '*':
+        st_ = State::property;
+        verbatim_ = c == '!' && next() == '<';
+        return;
+      case '|':
+      case '>':
+        if (depth_ == 0) {
+          // A block scalar: its content is the following lines indented more than this one (or any
+          // line, after a document marker, where the scalar is the document itself).
+          block_header_ = true;
+          block_indent_ = marker_line_ == line_ ? -1 : indent_;
+          st_ = State::comment;
+          return;
+        }
+        break;
+      default:
+        break;
+    }
+    st_ = State::plain;
+  }
+
+  std::string_view s_;
+  const std::string& source_;
+  std::size_t i_ = 0;
+  std::size_t line_start_ = 0;
+  int line_ = 1;
+  int indent_ = 0;          // leading spaces of the current line
+  bool line_begin_ = true;  // still reading the indentation
+  State st_ = State::token;
+  int depth_ = 0;
+  bool escaped_ = false;       // in double quotes, after a backslash
+  bool verbatim_ = false;      // in a tag of the form !<...>
+  bool block_header_ = false;  // a block scalar header was read on this line
+  int block_indent_ = 0;
+  int marker_line_ = 0;  // line of the last document marker
+};
+
 /// A parsed YAML document in compact form. yaml-cpp's own node objects cost several hundred bytes
 /// each (about 5 GB for a million-qubit file); these records cost about 30. An alias shares the
 /// record of its anchored node, so aliases never copy anything.
 struct Tree {
   enum class Kind : std::uint8_t { null, scalar, sequence, map };
-  enum class Style : std::uint8_t { plain, quoted, tagged };
+  enum class Style : std::uint8_t { plain, quoted };
   struct Record {
     Kind kind = Kind::null;
     Style style = Style::plain;
@@ -203,7 +553,7 @@ class NodeRef {
 /// Read-only input stream over text that lives elsewhere (no copy of a file of up to 128 MiB).
 class TextBuf : public std::streambuf {
  public:
-  explicit TextBuf(const std::string& text) {
+  explicit TextBuf(std::string_view text) {
     char* p = const_cast<char*>(text.data());  // never written: get area only
     setg(p, p, p + text.size());
   }
@@ -213,7 +563,7 @@ class TextBuf : public std::streambuf {
 class TreeBuilder : public YAML::EventHandler {
  public:
   using Fail = std::function<void(const YAML::Mark&, const std::string&)>;
-  TreeBuilder(Tree& tree, Fail fail) : t_(tree), fail_(std::move(fail)) {}
+  TreeBuilder(Tree& tree, std::string_view text, Fail fail) : t_(tree), text_(text), fail_(std::move(fail)) {}
 
   int documents() const { return documents_; }
 
@@ -223,6 +573,7 @@ class TreeBuilder : public YAML::EventHandler {
   }
   void OnDocumentEnd() override {}
   void OnNull(const YAML::Mark& mark, YAML::anchor_t anchor) override {
+    check_tag(mark, "?");  // "key: !tag" at the end of the text is reported as a null
     finish(add(mark, Tree::Kind::null, Tree::Style::plain), anchor);
   }
   void OnAlias(const YAML::Mark& mark, YAML::anchor_t anchor) override {
@@ -234,20 +585,24 @@ class TreeBuilder : public YAML::EventHandler {
   }
   void OnScalar(const YAML::Mark& mark, const std::string& tag, YAML::anchor_t anchor,
                 const std::string& value) override {
-    const auto style = tag == "?" ? Tree::Style::plain : tag == "!" ? Tree::Style::quoted : Tree::Style::tagged;
+    check_tag(mark, tag);
+    if (value.find('\0') != std::string::npos) fail_(mark, nul_message());
+    const auto style = tag == "?" ? Tree::Style::plain : Tree::Style::quoted;
     const std::uint32_t i = add(mark, Tree::Kind::scalar, style);
     t_.records[i].begin = static_cast<std::uint32_t>(t_.chars.size());
     t_.records[i].count = static_cast<std::uint32_t>(value.size());
     t_.chars += value;
     finish(i, anchor);
   }
-  void OnSequenceStart(const YAML::Mark& mark, const std::string&, YAML::anchor_t anchor,
+  void OnSequenceStart(const YAML::Mark& mark, const std::string& tag, YAML::anchor_t anchor,
                        YAML::EmitterStyle::value) override {
+    check_tag(mark, tag);
     open(add(mark, Tree::Kind::sequence, Tree::Style::plain), anchor);
   }
   void OnSequenceEnd() override { close(); }
-  void OnMapStart(const YAML::Mark& mark, const std::string&, YAML::anchor_t anchor,
+  void OnMapStart(const YAML::Mark& mark, const std::string& tag, YAML::anchor_t anchor,
                   YAML::EmitterStyle::value) override {
+    check_tag(mark, tag);
     open(add(mark, Tree::Kind::map, Tree::Style::plain), anchor);
   }
   void OnMapEnd() override { close(); }
@@ -258,6 +613,47 @@ class TreeBuilder : public YAML::EventHandler {
     std::size_t first_pending;
     YAML::anchor_t anchor;
   };
+
+  /// Refuses a node with an explicit tag (anything but yaml-cpp's untagged "?" and "!"): the schema
+  /// gives every value its type, so a tag could only be ignored or contradict it. "!" also stands for a
+  /// quoted scalar, so an explicit "!" is found in the text, after an anchor if there is one.
+  void check_tag(const YAML::Mark& mark, const std::string& tag) {
+    const auto blank = [](char c) { return c == ' ' || c == '\t' || c == '\n'; };
+    std::size_t at = mark.pos < 0 ? text_.size() : static_cast<std::size_t>(mark.pos);
+    if (at < text_.size() && text_[at] == '&') {  // an anchor may come first
+      while (at < text_.size() && !blank(text_[at])) ++at;
+      while (at < text_.size() && blank(text_[at])) ++at;
+    }
+    const bool written = at < text_.size() && text_[at] == '!';
+    if (!written && (tag == "?" || tag == "!")) return;
+    std::string shown = tag;
+    if (written) {
+      // The tag as written ("!!set", not yaml-cpp's expansion of it).
+      std::size_t end = at + 1;
+      if (end < text_.size() && text_[end] == '<') {
+        while (end < text_.size() && end - at < 64 && text_[end] != '>') ++end;
+        if (end < text_.size() && text_[end] == '>') ++end;
+      } else {
+        while (end < text_.size() && end - at < 64 && !blank(text_[end]) && !std::strchr(",[]{}", text_[end])) ++end;
+      }
+      shown = std::string(text_.substr(at, end - at));
+    }
+    fail_(mark, fmt::format("YAML tag '{}' is not allowed in a device file; write the value without it",
+                            printable(shown, 40)));
+  }
+
+  /// A NUL in a scalar (written "\0" in double quotes) would cut the name short in C strings.
+  std::string nul_message() const {
+    if (!open_.empty() && t_.records[open_.back().record].kind == Tree::Kind::map) {
+      if ((pending_.size() - open_.back().first_pending) % 2 == 0)
+        return "a key must not contain a NUL character (\\0)";
+      const Tree::Record& key = t_.records[pending_.back()];
+      if (key.kind == Tree::Kind::scalar)
+        return fmt::format("'{}' must not contain a NUL character (\\0)",
+                           printable(std::string_view(t_.chars).substr(key.begin, key.count), 40));
+    }
+    return "text must not contain a NUL character (\\0)";
+  }
 
   void count(const YAML::Mark& mark) {
     if (++nodes_ > kMaxVisitedNodes)
@@ -299,6 +695,7 @@ class TreeBuilder : public YAML::EventHandler {
   }
 
   Tree& t_;
+  std::string_view text_;
   Fail fail_;
   int documents_ = 0;
   long long nodes_ = 0;
@@ -317,7 +714,9 @@ class Reader {
       throw InputError(
           source_, 0, 0,
           fmt::format("the device text is {} bytes, more than the limit of {} MiB", text_.size(), kMaxDeviceFileMiB));
-    TreeBuilder builder(tree_, [this](const YAML::Mark& m, const std::string& msg) { fail(pos_of(m), msg); });
+    if ((normalized_ = normalized_text(text_))) text_ = *normalized_;
+    RawTextCheck(text_, source_).run();
+    TreeBuilder builder(tree_, text_, [this](const YAML::Mark& m, const std::string& msg) { fail(pos_of(m), msg); });
     try {
       TextBuf buf(text_);
       std::istream in(&buf);
@@ -328,6 +727,11 @@ class Reader {
       // yaml-cpp's own message here is unhelpful ("bad file").
       fail(pos_of(e.mark), "YAML syntax error: nesting is too deep");
     } catch (const YAML::ParserException& e) {
+      unsigned long code = 0;
+      if (std::sscanf(e.msg.c_str(), "invalid unicode: %lu", &code) == 1)
+        fail(pos_of(e.mark), fmt::format("YAML syntax error: the escape for U+{:04X} is not a character (a surrogate "
+                                         "or above U+10FFFF)",
+                                         code));
       fail(pos_of(e.mark), "YAML syntax error: " + e.msg);
     }
     if (builder.documents() == 0)
@@ -354,9 +758,17 @@ class Reader {
     throw InputError(source_, p.line, p.column, message);
   }
 
-  static Pos pos_of(const YAML::Mark& m) {
+  Pos pos_of(const YAML::Mark& m) const {
     if (m.is_null() || m.line < 0) return {};
-    return {m.line + 1, m.column + 1};
+    if (m.pos < 0 || static_cast<std::size_t>(m.pos) < text_.size() || text_.empty()) return {m.line + 1, m.column + 1};
+    // yaml-cpp reports what is missing at the end of the text ("end of sequence flow not found") just
+    // past the last line break, on a line the file does not have: point at the end of its last line.
+    const std::size_t end = text_.back() == '\n' ? text_.size() - 1 : text_.size();
+    const std::size_t nl = end == 0 ? std::string_view::npos : text_.rfind('\n', end - 1);
+    const std::size_t start = nl == std::string_view::npos ? 0 : nl + 1;
+    const int line =
+        1 + static_cast<int>(std::count(text_.begin(), text_.begin() + static_cast<std::ptrdiff_t>(start), '\n'));
+    return {line, static_cast<int>(end - start) + 1};
   }
 
   /// Position of a node. yaml-cpp marks an implicit empty value ("- " with nothing after it) at the
@@ -397,10 +809,7 @@ class Reader {
     if (n.null()) return "nothing";
     if (n.sequence()) return "a sequence";
     if (n.map()) return "a mapping";
-    const std::string prefix = n.style() == Tree::Style::quoted   ? "the quoted text "
-                               : n.style() == Tree::Style::tagged ? "the tagged value "
-                                                                  : "";
-    return prefix + quote_text(n.text());
+    return (n.style() == Tree::Style::quoted ? "the quoted text " : "") + quote_text(n.text());
   }
 
   /// The keys of a mapping, in file order: each must be a known plain word and appear once.
@@ -436,11 +845,20 @@ class Reader {
     return *v;
   }
 
+  /// A number (never NaN: every range check below relies on that).
   double read_number(const NodeRef& n, Pos p, const std::string& what) {
     if (!n.scalar() || n.style() != Tree::Style::plain)
       fail(p, fmt::format("{} must be a number, got {}", what, describe(n)));
     const auto v = parse_number(n.text());
-    if (!v) fail(p, fmt::format("{} must be a number, got {}", what, describe(n)));
+    if (!v) {
+      // "inf" and "nan" are text in YAML 1.2 (section 10.3.2 writes .inf and .nan).
+      std::string lower(n.text().substr(0, 16));
+      std::transform(lower.begin(), lower.end(), lower.begin(), [](unsigned char c) { return std::tolower(c); });
+      if (lower == "inf" || lower == "+inf" || lower == "infinity" || lower == "+infinity")
+        fail(p, fmt::format("{} must be a number, got {} (YAML writes infinity as .inf)", what, describe(n)));
+      fail(p, fmt::format("{} must be a number, got {}", what, describe(n)));
+    }
+    if (std::isnan(*v)) fail(p, fmt::format("{} must be a number, not NaN (got {})", what, n.text()));
     return *v;
   }
 
@@ -452,22 +870,37 @@ class Reader {
     return v;
   }
 
-  double read_positive(const Entry& e) {
+  /// A gate time in ns: positive and at most kMaxGateDurationNs.
+  double read_duration(const Entry& e) {
     const Pos p = value_pos(e);
     const double v = read_number(e.value, p, "'" + e.key + "'");
-    if (!(v > 0.0 && std::isfinite(v)))
-      fail(p, fmt::format("'{}' must be a positive finite number, got {}", e.key, e.value.text()));
+    if (!(v > 0.0 && v <= kMaxGateDurationNs))
+      fail(p, fmt::format("'{}' must be a positive number of ns, at most 1e9 (one second), got {}", e.key,
+                          e.value.text()));
     return v;
   }
 
-  /// A calibration value: error rates are probabilities, everything else (times) is positive.
-  double read_value(const Entry& e) { return e.key.starts_with("error") ? read_rate(e) : read_positive(e); }
+  /// A T1 or T2 time in microseconds: positive, or .inf for a qubit that does not decay.
+  double read_lifetime(const Entry& e) {
+    const Pos p = value_pos(e);
+    const double v = read_number(e.value, p, "'" + e.key + "'");
+    if (!(v > 0.0))
+      fail(p, fmt::format("'{}' must be a positive number (or .inf for no decay), got {}", e.key, e.value.text()));
+    return v;
+  }
 
-  /// A qubit id that must name one of the device's qubits.
-  int read_qubit_id(const NodeRef& n, Pos p, const std::string& what) {
-    const long long id = read_integer(n, p, what);
+  /// A calibration value: error rates are probabilities, durations gate times, t1/t2 lifetimes.
+  double read_value(const Entry& e) {
+    if (e.key.starts_with("error")) return read_rate(e);
+    if (e.key.starts_with("duration")) return read_duration(e);
+    return read_lifetime(e);
+  }
+
+  /// A qubit id, the value of 'id' in an entry of `list`, that must name one of the device's qubits.
+  int read_qubit_id(const NodeRef& n, Pos p, const std::string& list) {
+    const long long id = read_integer(n, p, "'id' in " + list);
     if (id < 0 || id >= qubits_)
-      fail(p, fmt::format("{} {}, but the device's qubits are 0..{}", what, id, qubits_ - 1));
+      fail(p, fmt::format("{} names qubit {}, but the device's qubits are 0..{}", list, id, qubits_ - 1));
     return static_cast<int>(id);
   }
 
@@ -545,7 +978,7 @@ class Reader {
         pair = p->value;
         pair_pos = value_pos(*p);
         if (const Entry* f = find(fields, "error")) c.error = read_rate(*f);
-        if (const Entry* f = find(fields, "duration_ns")) c.duration_ns = read_positive(*f);
+        if (const Entry* f = find(fields, "duration_ns")) c.duration_ns = read_duration(*f);
       } else if (!item.sequence()) {
         fail(ip, fmt::format("a coupler must be a pair such as [0, 1] or a mapping such as "
                              "{{pair: [0, 1], error: 0.01}}, got {}",
@@ -585,6 +1018,7 @@ class Reader {
       fail(value_pos(e),
            fmt::format("'calibration' must be a mapping such as {{error_2q: 0.008}}, got {}", describe(e.value)));
     for (const auto& f : entries(e.value, kCalibrationKeys, "calibration")) {
+      // An infinite T1 or T2 (.inf) is a qubit that does not decay: kept as written.
       cal.*calibration_field(f.key) = read_value(f);
     }
   }
@@ -605,12 +1039,13 @@ class Reader {
       const Entry* id = find(fields, "id");
       if (!id) fail(ip, "a qubit_calibration entry needs 'id'");
       QubitOverride o;
-      o.id = read_qubit_id(id->value, value_pos(*id), "qubit_calibration names qubit");
+      o.id = read_qubit_id(id->value, value_pos(*id), "qubit_calibration");
       if (const auto [it, fresh] = line_of.emplace(o.id, value_pos(*id).line); !fresh)
         fail(value_pos(*id),
              fmt::format("qubit_calibration lists qubit {} twice (first on line {})", o.id, it->second));
       for (const auto& f : fields) {
-        if (f.key != "id") o.*override_field(f.key) = read_value(f);
+        if (f.key == "id") continue;
+        o.*override_field(f.key) = read_value(f);
       }
       d.qubit_calibration.push_back(o);
     }
@@ -636,7 +1071,7 @@ class Reader {
       const Entry* at = find(fields, "at");
       if (!id) fail(ip, "a positions entry needs 'id'");
       if (!at) fail(ip, "a positions entry needs 'at: [x, y]'");
-      const int q = read_qubit_id(id->value, value_pos(*id), "positions names qubit");
+      const int q = read_qubit_id(id->value, value_pos(*id), "positions");
       if (line_of[q] > 0)
         fail(value_pos(*id), fmt::format("positions lists qubit {} twice (first on line {})", q, line_of[q]));
       line_of[q] = value_pos(*id).line;
@@ -655,22 +1090,39 @@ class Reader {
     }
   }
 
-  const std::string& text_;
+  std::string_view text_;                  // the text as parsed (normalized_ when that was needed)
+  std::optional<std::string> normalized_;  // line breaks made LF, byte order mark dropped
   const std::string& source_;
   Tree tree_;
   int qubits_ = 0;
 };
 
-/// A YAML scalar for free text: plain when unambiguous, else double-quoted with escapes.
+/// Whether a reader could take the plain word for something other than text: the booleans and null of the
+/// YAML 1.2 core schema (section 10.3.2), and YAML 1.1's y/n/yes/no/on/off for older readers (common
+/// practice), in any letter case.
+bool reads_as_non_text(std::string_view s) {
+  if (s.size() > 5) return false;
+  std::string lower(s);
+  std::transform(lower.begin(), lower.end(), lower.begin(), [](unsigned char c) { return std::tolower(c); });
+  for (const char* word : {"true", "false", "null", "yes", "no", "on", "off", "y", "n"})
+    if (lower == word) return true;
+  return false;
+}
+
+/// A YAML scalar for free text: plain when unambiguous, else double-quoted with escapes. Control
+/// characters (C0, DEL, C1) are escaped so that the text stays printable (YAML 1.2, section 5.1); the
+/// text itself is UTF-8, as every loaded name is.
 std::string yaml_text(const std::string& s) {
   const bool plain =
       !s.empty() && std::isalpha(static_cast<unsigned char>(s[0])) && s.back() != ':' &&
-      std::all_of(s.begin(), s.end(),
-                  [](char c) { return std::isalnum(static_cast<unsigned char>(c)) || std::strchr("_.:+-", c); }) &&
-      s != "null" && s != "Null" && s != "NULL";
+      std::all_of(
+          s.begin(), s.end(),
+          [](char c) { return std::isalnum(static_cast<unsigned char>(c)) || (c != 0 && std::strchr("_.:+-", c)); }) &&
+      !reads_as_non_text(s);
   if (plain) return s;
   std::string out = "\"";
-  for (char c : s) {
+  for (std::size_t i = 0; i < s.size(); ++i) {
+    const char c = s[i];
     const auto u = static_cast<unsigned char>(c);
     if (c == '"')
       out += "\\\"";
@@ -678,14 +1130,21 @@ std::string yaml_text(const std::string& s) {
       out += "\\\\";
     else if (u < 0x20 || u == 0x7f)
       out += fmt::format("\\x{:02x}", u);
+    else if (u == 0xC2 && i + 1 < s.size() && static_cast<unsigned char>(s[i + 1]) <= 0x9F &&
+             static_cast<unsigned char>(s[i + 1]) >= 0x80)
+      out += fmt::format("\\x{:02x}", static_cast<unsigned char>(s[++i]));  // U+0080..U+009F
     else
       out += c;
   }
   return out + "\"";
 }
 
-/// Shortest text that parses back to the identical double.
-std::string num(double v) { return fmt::format("{}", v); }
+/// Shortest text that parses back to the identical double (YAML's .inf and .nan for the special values).
+std::string num(double v) {
+  if (std::isnan(v)) return ".nan";
+  if (std::isinf(v)) return v > 0 ? ".inf" : "-.inf";
+  return fmt::format("{}", v);
+}
 
 }  // namespace
 

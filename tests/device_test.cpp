@@ -99,6 +99,33 @@ TEST(DeviceSummary, DisconnectedDeviceSaysSo) {
   EXPECT_NE(text.find("3 within a component"), std::string::npos) << text;
 }
 
+TEST(DeviceSummary, CountsAreSingularForOne) {
+  // "1 qubit", not "1 qubits" (English grammar, common practice).
+  const auto text = [](const std::string& yaml) {
+    return format_summary(summarize(parse_device_yaml(yaml, "s.yaml")));
+  };
+  EXPECT_NE(
+      text("name: dust\nqubits: 3\ncouplers: []\n")
+          .find("components      3, largest 1 qubit — disconnected: 2 qubits cannot reach the largest component\n"),
+      std::string::npos)
+      << text("name: dust\nqubits: 3\ncouplers: []\n");
+  EXPECT_NE(
+      text("name: pair\nqubits: 2\ncouplers: []\n")
+          .find("components      2, largest 1 qubit — disconnected: 1 qubit cannot reach the largest component\n"),
+      std::string::npos);
+}
+
+TEST(DeviceSummary, InfiniteLifetimesAreShownAsSuch) {
+  // T1 and T2 default to infinite (README "Device files"), and .inf says the same explicitly.
+  const auto s =
+      summarize(parse_device_yaml("name: t\nqubits: 2\ncouplers: [[0, 1]]\ncalibration: {error_2q: 0.01, t2_us: .inf}\n"
+                                  "qubit_calibration: [{id: 1, t1_us: 50}]\n",
+                                  "t.yaml"));
+  const std::string text = format_summary(s);
+  EXPECT_NE(text.find("T1 (us)         50 .. infinite\n"), std::string::npos) << text;
+  EXPECT_NE(text.find("T2 (us)         infinite\n"), std::string::npos) << text;
+}
+
 TEST(DeviceSummary, OddRingIsNotBipartite) {
   EXPECT_FALSE(summarize(make_ring(7)).bipartite);  // an odd cycle (Diestel, Graph Theory, Prop. 1.6.1)
   EXPECT_TRUE(summarize(make_ring(8)).bipartite);

@@ -1,6 +1,7 @@
 // Tests of the YAML device format: the documented example, the catalogue of malformed files in
 // tests/data/bad_devices/ (exact message, file and position for each), file-level errors, and the
-// write/parse round trip.
+// write/parse round trip. Section numbers of the YAML 1.2 specification are those of revision 1.2.2,
+// from memory; RFC 3629 is the UTF-8 standard.
 
 #include <gtest/gtest.h>
 
@@ -144,8 +145,41 @@ const BadFile kBadFiles[] = {
      "expected a device description (a mapping with name, qubits and couplers), found 'just some text'"},
     {"sequence_root.yaml", 2, 1,
      "expected a device description (a mapping with name, qubits and couplers), found a sequence"},
-    {"syntax_error.yaml", 5, 1, "YAML syntax error: end of sequence flow not found"},
-    {"deep_nesting.yaml", 4, 10011, "YAML syntax error: nesting is too deep"},
+    // The missing ']' is reported at the end of the last line, not on a line past the end of the file.
+    {"syntax_error.yaml", 4, 26, "YAML syntax error: end of sequence flow not found"},
+    // Refused by the raw-text check at the 65th open bracket (column 11 + 64), before yaml-cpp reads them.
+    {"deep_nesting.yaml", 4, 75, "flow sequences and mappings are nested more than 64 deep"},
+    {"flow_mixed_nesting.yaml", 5, 76, "flow sequences and mappings are nested more than 64 deep"},
+    // Raw bytes, checked before parsing. RFC 3629, section 3 (from memory): C0 80 is the overlong form of
+    // U+0000, ED A1 8C ED BE B4 an encoded surrogate pair (for U+233B4), F4 90 80 80 would be U+110000;
+    // the bytes C0, C1 and F5..FF never appear; a continuation byte is 10xxxxxx.
+    {"utf8_invalid_bytes.yaml", 2, 8, "the file is not valid UTF-8: byte 0xff never occurs in UTF-8"},
+    {"utf8_overlong.yaml", 2, 8, "the file is not valid UTF-8: an overlong encoding of U+0000"},
+    {"utf8_surrogate.yaml", 2, 8, "the file is not valid UTF-8: an encoded surrogate U+D84C, which is not a character"},
+    {"utf8_above_max.yaml", 2, 8, "the file is not valid UTF-8: a code point above U+10FFFF"},
+    {"utf8_cut_short.yaml", 2, 9, "the file is not valid UTF-8: the character starting with byte 0xe2 is cut short"},
+    {"utf8_stray_continuation.yaml", 4, 16,
+     "the file is not valid UTF-8: byte 0x80 continues a character that never started"},
+    // YAML 1.2, section 5.2: a UTF-16LE byte order mark is FF FE.
+    {"utf16.yaml", 1, 1, "the file is UTF-16 or UTF-32 text; device files must be UTF-8"},
+    // YAML 1.2, section 5.1: no C0 control but tab, LF and CR anywhere; outside quoted scalars no C1
+    // control but NEL either.
+    {"raw_nul_byte.yaml", 3, 3, "a NUL byte is not allowed in a YAML file"},
+    {"raw_control_character.yaml", 2, 9,
+     "control character U+0007 is not allowed in a YAML file (write \\x07 inside double quotes)"},
+    {"raw_c1_outside_quotes.yaml", 2, 8,
+     "character U+009B is not allowed outside quoted text in YAML (write \\x9b inside double quotes)"},
+    // YAML 1.2, section 5.4: a lone CR is a line break, so the error is on line 3.
+    {"cr_line_ends.yaml", 3, 9, "'qubits' must be at least 1, got 0"},
+    // Every explicit tag is refused, where it is written (a yaml-cpp mark, the tag's first character).
+    {"tag_on_sequence.yaml", 5, 5, "YAML tag '!weird' is not allowed in a device file; write the value without it"},
+    {"tag_set_mapping.yaml", 5, 14, "YAML tag '!!set' is not allowed in a device file; write the value without it"},
+    {"tag_map_on_sequence.yaml", 4, 11, "YAML tag '!!map' is not allowed in a device file; write the value without it"},
+    {"tag_on_name.yaml", 2, 7, "YAML tag '!secret' is not allowed in a device file; write the value without it"},
+    {"tag_binary_name.yaml", 2, 7, "YAML tag '!!binary' is not allowed in a device file; write the value without it"},
+    {"tag_on_number.yaml", 3, 9, "YAML tag '!!int' is not allowed in a device file; write the value without it"},
+    // YAML 1.2, section 5.7: "\0" in a double-quoted scalar is the NUL character.
+    {"name_nul_escape.yaml", 2, 7, "'name' must not contain a NUL character (\\0)"},
     {"two_documents.yaml", 5, 1, "a device file holds one YAML document, but a second one starts here"},
     {"alias_nest.yaml", 3, 1, nullptr},  // message checked below: unknown key 'lol0'
     {"missing_name.yaml", 2, 1, "missing required key 'name'"},
@@ -177,15 +211,27 @@ const BadFile kBadFiles[] = {
      "a coupler must be a pair such as [0, 1] or a mapping such as {pair: [0, 1], error: 0.01}, got '0-1'"},
     {"coupler_map_without_pair.yaml", 5, 5, "a coupler mapping needs 'pair: [a, b]'"},
     {"coupler_error_above_one.yaml", 5, 27, "'error' must be a probability in [0, 1], got 1.5"},
-    {"coupler_duration_negative.yaml", 5, 33, "'duration_ns' must be a positive finite number, got -300"},
+    {"coupler_duration_negative.yaml", 5, 33,
+     "'duration_ns' must be a positive number of ns, at most 1e9 (one second), got -300"},
+    {"coupler_duration_too_long.yaml", 5, 33,
+     "'duration_ns' must be a positive number of ns, at most 1e9 (one second), got 1e308"},
+    {"coupler_error_nan.yaml", 5, 27, "'error' must be a number, not NaN (got .NaN)"},
+    // YAML 1.2, section 10.3.2: "nan" and "inf" are text in the core schema (.nan and .inf are numbers).
+    {"coupler_error_word_nan.yaml", 5, 27, "'error' must be a number, got 'nan'"},
+    {"coupler_error_overflow.yaml", 5, 27, "'error' must be a probability in [0, 1], got 1e400"},
     {"calibration_not_mapping.yaml", 5, 14, "'calibration' must be a mapping such as {error_2q: 0.008}, got '0.01'"},
     {"calibration_error_negative.yaml", 7, 13, "'error_2q' must be a probability in [0, 1], got -0.008"},
     {"calibration_readout_percent.yaml", 6, 18, "'error_readout' must be a probability in [0, 1], got 2"},
     {"calibration_rate_text.yaml", 6, 13, "'error_2q' must be a number, got 'low'"},
-    {"calibration_duration_zero.yaml", 6, 19, "'duration_2q_ns' must be a positive finite number, got 0"},
-    {"calibration_duration_infinite.yaml", 6, 19, "'duration_1q_ns' must be a positive finite number, got .inf"},
-    {"calibration_t1_negative.yaml", 6, 10, "'t1_us' must be a positive finite number, got -110"},
-    {"calibration_t2_nan.yaml", 7, 10, "'t2_us' must be a positive finite number, got .nan"},
+    {"calibration_duration_zero.yaml", 6, 19,
+     "'duration_2q_ns' must be a positive number of ns, at most 1e9 (one second), got 0"},
+    {"calibration_duration_infinite.yaml", 6, 19,
+     "'duration_1q_ns' must be a positive number of ns, at most 1e9 (one second), got .inf"},
+    {"calibration_duration_above_limit.yaml", 6, 19,
+     "'duration_1q_ns' must be a positive number of ns, at most 1e9 (one second), got 1.5e9"},
+    {"calibration_t1_negative.yaml", 6, 10, "'t1_us' must be a positive number (or .inf for no decay), got -110"},
+    {"calibration_t1_word_inf.yaml", 5, 22, "'t1_us' must be a number, got 'inf' (YAML writes infinity as .inf)"},
+    {"calibration_t2_nan.yaml", 7, 10, "'t2_us' must be a number, not NaN (got .nan)"},
     {"unknown_key.yaml", 3, 1, "unknown key 'qbits'; did you mean 'qubits'?"},
     {"unknown_key_far.yaml", 5, 1, nullptr},  // checked below: lists the known keys
     {"unknown_calibration_key.yaml", 6, 3, "unknown key 'eror_2q' in calibration; did you mean 'error_2q'?"},
@@ -196,10 +242,13 @@ const BadFile kBadFiles[] = {
     {"override_unknown_id.yaml", 7, 10, "qubit_calibration names qubit 3, but the device's qubits are 0..2"},
     {"override_duplicate_id.yaml", 8, 10, "qubit_calibration lists qubit 2 twice (first on line 6)"},
     {"override_without_id.yaml", 6, 5, "a qubit_calibration entry needs 'id'"},
+    {"override_fraction_id.yaml", 6, 10, "'id' in qubit_calibration must be a whole number, got '1.5'"},
     {"position_unknown_id.yaml", 7, 10, "positions names qubit 5, but the device's qubits are 0..1"},
     {"position_duplicate_id.yaml", 7, 10, "positions lists qubit 1 twice (first on line 6)"},
     {"position_one_coordinate.yaml", 6, 17, "'at' must be a pair of coordinates [x, y], got a list of 1"},
     {"position_infinite.yaml", 6, 17, "coordinates must be finite numbers, got [0, -.inf]"},
+    {"position_nan.yaml", 6, 18, "a coordinate must be a number, not NaN (got .nan)"},
+    {"position_fraction_id.yaml", 6, 10, "'id' in positions must be a whole number, got '0.5'"},
 };
 
 fs::path bad_dir() { return source_dir() / "tests" / "data" / "bad_devices"; }
@@ -240,6 +289,20 @@ TEST(DeviceYaml, CatalogueCoversEveryBadFile) {
     EXPECT_TRUE(listed.count(entry.path().filename().string())) << entry.path() << " has no expected error";
   }
   EXPECT_EQ(files, static_cast<int>(listed.size()));
+}
+
+// The program itself on every catalogue file: exit status 2, nothing on standard output (a NUL in a
+// name once cut the output short with status 0), and the one-line message on standard error.
+TEST(DeviceYaml, CommandRefusesEveryBadFileWithStatus2) {
+  for (const auto& c : kBadFiles) {
+    const std::string path = (bad_dir() / c.file).string();
+    SCOPED_TRACE(path);
+    const InputError e = input_error_of([&] { load_device_file(path); });
+    const auto r = testing::run_qftplan("device '" + path + "'");
+    EXPECT_EQ(r.status, 2);
+    EXPECT_EQ(r.out, "");
+    EXPECT_EQ(r.err, "qftplan: " + std::string(e.what()) + "\n");
+  }
 }
 
 TEST(DeviceYaml, MessagesWithoutFixedText) {
@@ -329,7 +392,7 @@ TEST(DeviceYaml, RoundTripAwkwardValues) {
   d.native_2q = TwoQubitGate::cx;      // written explicitly, kept distinct from "absent"
   d.calibration.error_1q = 0.1 + 0.2;  // 0.30000000000000004
   d.calibration.t1_us = 1.0 / 3.0;
-  d.calibration.duration_2q_ns = 1e21;
+  d.calibration.duration_2q_ns = 1e9;  // the largest duration a file may give
   Coupler c1;
   c1.a = 2;
   c1.b = 0;  // normalized to [0, 2]
@@ -356,6 +419,24 @@ TEST(DeviceYaml, RoundTripAwkwardValues) {
     if (n.name.empty()) continue;  // an empty name is refused by the loader
     expect_round_trip(Device(n));
   }
+  // Words a reader would take for a boolean or null, and numbers, are quoted: the YAML 1.2 core schema
+  // (section 10.3.2) and YAML 1.1's yes/no/on/off/y/n for older readers (common practice).
+  for (const char* name :
+       {"true", "True", "TRUE", "false", "FALSE", "yes", "Yes", "No", "NO",  "on",   "On",   "off",
+        "OFF",  "y",    "N",    "null",  "Null",  "~",   "12",  "-3", "1.5", ".inf", ".NaN", "0x1f"}) {
+    DeviceDescription n;
+    n.name = name;
+    n.qubits = 1;
+    const Device dev(n);
+    EXPECT_EQ(device_to_yaml(dev), "name: \"" + std::string(name) + "\"\nqubits: 1\ncouplers: []\n");
+    expect_round_trip(dev);
+  }
+  for (const char* name : {"yesterday", "online", "nullable", "Harbor", "n2"}) {
+    DeviceDescription n;
+    n.name = name;
+    n.qubits = 1;
+    EXPECT_EQ(device_to_yaml(Device(n)), "name: " + std::string(name) + "\nqubits: 1\ncouplers: []\n");
+  }
   // "positions: []" (the key present, no entries) is kept apart from no key at all.
   DeviceDescription p;
   p.name = "slots";
@@ -375,6 +456,169 @@ TEST(DeviceYaml, WrittenFormat) {
   EXPECT_NE(text.find("  error_1q: 0.0003\n"), std::string::npos) << text;
   EXPECT_EQ(device_to_yaml(parse_device_yaml("name: e\nqubits: 2\ncouplers: []\n", "e.yaml")),
             "name: e\nqubits: 2\ncouplers: []\n");
+}
+
+// ---------------------------------------------------------------------------------------------
+// The raw text: line breaks, characters, flow nesting; tags and NUL characters.
+
+std::string what_of(const std::string& text) {
+  return input_error_of([&] { parse_device_yaml(text, "t.yaml"); }).what();
+}
+
+TEST(DeviceYaml, FlowNestingIsRefusedCheaply) {
+  // 2,000,000 open brackets: yaml-cpp alone took seconds and about 470 MB before refusing them.
+  const std::string text = "name: x\nqubits: 2\ncouplers: " + std::string(2'000'000, '[') + "\n";
+  const auto start = std::chrono::steady_clock::now();
+  EXPECT_EQ(what_of(text), "t.yaml:3:75: flow sequences and mappings are nested more than 64 deep");
+  EXPECT_LT(std::chrono::steady_clock::now() - start, std::chrono::seconds(1));
+  // 64 levels pass the raw-text check; the schema then refuses the pair.
+  EXPECT_EQ(what_of("name: x\nqubits: 2\ncouplers: " + std::string(64, '[') + std::string(64, ']') + "\n"),
+            "t.yaml:3:12: a coupler must name exactly two qubits, got 1");
+  EXPECT_EQ(what_of("name: x\nqubits: 2\ncouplers: [" + std::string(64, '{') + "\n"),
+            "t.yaml:3:75: flow sequences and mappings are nested more than 64 deep");
+}
+
+TEST(DeviceYaml, BracketsInTextAreNotNesting) {
+  // Brackets inside quoted scalars, plain scalars of block context, comments and block scalars are
+  // text, not flow collections (YAML 1.2, sections 7.3, 7.3.3, 6.6 and 8.1).
+  const std::string b(70, '['), c(70, '{');
+  for (const std::string& text : {
+           "name: \"" + b + "\"\nqubits: 2\ncouplers: []\n",
+           "name: '" + b + " it''s'\nqubits: 2\ncouplers: []\n",
+           "name: a" + b + "\nqubits: 2\ncouplers: []\n",
+           "name: a " + c + "\nqubits: 2\ncouplers: []\n",
+           "# " + b + "\nname: x # " + b + "\nqubits: 2\ncouplers: [] # " + c + "\n",
+           "name: |\n  " + b + "\n\n  " + c + "\nqubits: 2\ncouplers: []\n",
+           "name: >-\n  " + b + "\n   " + c + "\nqubits: 2\ncouplers: []\n",
+           "name: \"x\\\"" + b + "\"\nqubits: 2\ncouplers: []\n",
+           "name: \"two\n  lines " + b + "\"\nqubits: 2\ncouplers: []\n",
+           "{\"name\":\"" + b + "\",\"qubits\":2,\"couplers\":[[0,1]]}\n",
+           "%YAML 1.2\n--- {name: '" + c + "', qubits: 2, couplers: [[0, 1]]}\n...\n",
+       }) {
+    SCOPED_TRACE(text);
+    EXPECT_NO_THROW(parse_device_yaml(text, "t.yaml"));
+  }
+}
+
+TEST(DeviceYaml, EveryLineBreakIsALineBreak) {
+  // YAML 1.2, section 5.4: CRLF, CR and LF are line breaks, and each counts as one.
+  const Device lf = parse_device_yaml("name: t\nqubits: 3\ncouplers: [[0, 1],\n  [1, 2]]\n", "t.yaml");
+  for (const std::string& br : {"\r", "\r\n"}) {
+    std::string text = "name: t" + br + "qubits: 3" + br + "couplers: [[0, 1]," + br + "  [1, 2]]" + br;
+    EXPECT_TRUE(parse_device_yaml(text, "t.yaml") == lf);
+    EXPECT_EQ(what_of("# c" + br + "name: t" + br + "qubits: 3" + br + "couplers: [[0, 3]]" + br),
+              "t.yaml:4:16: coupler [0, 3] names qubit 3, but the device's qubits are 0..2");
+  }
+  // A UTF-8 byte order mark is allowed (YAML 1.2, section 5.2) and not counted in columns, as yaml-cpp counts.
+  EXPECT_EQ(what_of("\xEF\xBB\xBFqubits: 3\n"), "t.yaml:1:1: missing required key 'name'");
+  EXPECT_EQ(what_of("\xEF\xBB\xBFname: t\nqubits: x\ncouplers: []\n"),
+            "t.yaml:2:9: 'qubits' must be a whole number, got 'x'");
+}
+
+TEST(DeviceYaml, CharactersYamlAllows) {
+  // YAML 1.2, section 5.1: tab, DEL, C1 controls and U+FFFE are allowed inside quoted scalars (the JSON
+  // set), DEL and C1 controls but NEL not outside them; C0 controls but tab and breaks nowhere.
+  const Device d = parse_device_yaml("name: \"a\tb\x7f c\xC2\x80 d\xEF\xBF\xBE\"\nqubits: 1\ncouplers: []\n", "t.yaml");
+  EXPECT_EQ(d.name(), "a\tb\x7f c\xC2\x80 d\xEF\xBF\xBE");
+  EXPECT_EQ(device_to_yaml(d), "name: \"a\\x09b\\x7f c\\x80 d\xEF\xBF\xBE\"\nqubits: 1\ncouplers: []\n");
+  expect_round_trip(d);
+  EXPECT_EQ(parse_device_yaml("name: a\xC2\x85-b\nqubits: 1\ncouplers: []\n", "t.yaml").name(), "a\xC2\x85-b");
+  EXPECT_EQ(
+      what_of("name: a\x7f\nqubits: 1\ncouplers: []\n"),
+      "t.yaml:1:8: character U+007F is not allowed outside quoted text in YAML (write \\x7f inside double quotes)");
+  EXPECT_EQ(what_of("name: t # \xEF\xBF\xBF\nqubits: 1\ncouplers: []\n"),
+            "t.yaml:1:11: character U+FFFF is not allowed outside quoted text in YAML (write \\uffff inside double "
+            "quotes)");
+  EXPECT_EQ(what_of("name: \"a\x1b[31m\"\nqubits: 1\ncouplers: []\n"),
+            "t.yaml:1:9: control character U+001B is not allowed in a YAML file (write \\x1b inside double quotes)");
+  // Escapes that name no character (YAML 1.2, section 5.7; a surrogate is not a scalar value, RFC 3629 section 3).
+  EXPECT_EQ(what_of("name: \"\\ud800\"\nqubits: 1\ncouplers: []\n"),
+            "t.yaml:1:14: YAML syntax error: the escape for U+D800 is not a character (a surrogate or above U+10FFFF)");
+}
+
+TEST(DeviceYaml, NulCharactersAreRefused) {
+  // "\0" and "\x00" are escapes of NUL (YAML 1.2, section 5.7); C0 escapes other than NUL stay allowed.
+  EXPECT_EQ(what_of("name: \"\\x00\"\nqubits: 1\ncouplers: []\n"),
+            "t.yaml:1:7: 'name' must not contain a NUL character (\\0)");
+  EXPECT_EQ(what_of("name: t\nqubits: 1\ncouplers: []\n\"x\\0\": 1\n"),
+            "t.yaml:4:1: a key must not contain a NUL character (\\0)");
+  EXPECT_EQ(what_of("name: t\nqubits: 2\ncouplers: [[0, \"\\0\"]]\n"),
+            "t.yaml:3:16: text must not contain a NUL character (\\0)");
+  const Device d = parse_device_yaml("name: \"a\\x01\\x1f\"\nqubits: 1\ncouplers: []\n", "t.yaml");
+  EXPECT_EQ(d.name(), "a\x01\x1f");
+  EXPECT_EQ(device_to_yaml(d), "name: \"a\\x01\\x1f\"\nqubits: 1\ncouplers: []\n");
+}
+
+TEST(DeviceYaml, EveryExplicitTagIsRefused) {
+  const auto msg = [](const std::string& tag) {
+    return "YAML tag '" + tag + "' is not allowed in a device file; write the value without it";
+  };
+  // The non-specific tag "!" (YAML 1.2, section 6.9.1) written out, after an anchor, verbatim, on an
+  // empty value at the end of the text, on a key.
+  EXPECT_EQ(what_of("name: t\nqubits: 2\ncouplers: ! [[0, 1]]\n"), "t.yaml:3:11: " + msg("!"));
+  EXPECT_EQ(what_of("name: &n ! t\nqubits: 2\ncouplers: []\n"), "t.yaml:1:7: " + msg("!"));
+  EXPECT_EQ(what_of("name: t\nqubits: 2\ncouplers: [&p !pair [0, 1]]\n"), "t.yaml:3:12: " + msg("!pair"));
+  EXPECT_EQ(what_of("name: !<tag:example.com,2024:x> t\nqubits: 2\ncouplers: []\n"),
+            "t.yaml:1:7: " + msg("!<tag:example.com,2024:x>"));
+  EXPECT_EQ(what_of("name: t\nqubits: 2\ncouplers: []\nnative_2q: !cz"), "t.yaml:4:12: " + msg("!cz"));
+  EXPECT_EQ(what_of("name: t\nqubits: 2\ncouplers: []\n!!str calibration: {}\n"), "t.yaml:4:1: " + msg("!!str"));
+  EXPECT_EQ(what_of("name: t\nqubits: 2\ncouplers: []\ncalibration: !!map\n  t1_us: 40\n"),
+            "t.yaml:4:14: " + msg("!!map"));
+  // Quoted text without a tag is still text.
+  EXPECT_EQ(parse_device_yaml("name: 'x'\nqubits: 2\ncouplers: []\n", "t.yaml").name(), "x");
+}
+
+TEST(DeviceYaml, EndOfTextPositionsStayInTheFile) {
+  // yaml-cpp marks a missing ']' at line 4 column 1 of this 3-line text: point at the end of line 3.
+  EXPECT_EQ(what_of("name: x\nqubits: 2\ncouplers: [\n"),
+            "t.yaml:3:12: YAML syntax error: end of sequence flow not found");
+  EXPECT_EQ(what_of("name: x\nqubits: 2\ncouplers: [[0, 1]"),
+            "t.yaml:3:18: YAML syntax error: end of sequence flow not found");
+}
+
+TEST(DeviceYaml, CalibrationNumbers) {
+  const auto dev = [](const std::string& tail) {
+    return parse_device_yaml("name: t\nqubits: 3\ncouplers: [[0, 1], [1, 2]]\n" + tail, "t.yaml");
+  };
+  // An infinite T1 or T2 means no decay: the same calibration as leaving it out (README "Device
+  // files"), kept as written so that the device prints back the same.
+  const Device inf = dev("calibration: {t1_us: .inf, t2_us: +.Inf, error_2q: 0.01}\n");
+  const Device none = dev("calibration: {error_2q: 0.01}\n");
+  for (int q = 0; q < 3; ++q) {
+    EXPECT_TRUE(std::isinf(inf.qubit_calibration(q).t1_us));
+    EXPECT_EQ(inf.qubit_calibration(q).t2_us, none.qubit_calibration(q).t2_us);
+  }
+  EXPECT_TRUE(parse_device_yaml(device_to_yaml(inf), "again.yaml") == inf);
+  // A qubit that does not decay on a chip whose others do.
+  const Device one = dev("calibration: {t1_us: 110}\nqubit_calibration: [{id: 2, t1_us: .inf}]\n");
+  EXPECT_EQ(one.qubit_calibration(0).t1_us, 110.0);
+  EXPECT_TRUE(std::isinf(one.qubit_calibration(2).t1_us));
+  EXPECT_EQ(what_of("name: t\nqubits: 1\ncouplers: []\ncalibration: {t2_us: -.inf}\n"),
+            "t.yaml:4:22: 't2_us' must be a positive number (or .inf for no decay), got -.inf");
+  // A float below the smallest double becomes the nearest double, zero (IEEE 754 rounding to nearest;
+  // the smallest subnormal is about 4.94e-324, common practice); one above the largest is infinite.
+  EXPECT_EQ(dev("calibration: {error_2q: 1e-400}\n").description().calibration.error_2q, 0.0);
+  EXPECT_EQ(dev("calibration: {error_1q: 0.000000000001e-390}\n").description().calibration.error_1q, 0.0);
+  EXPECT_EQ(dev("calibration: {error_1q: 3e-324}\n").description().calibration.error_1q,
+            std::numeric_limits<double>::denorm_min());
+  EXPECT_TRUE(std::isinf(dev("calibration: {t1_us: 1e400}\n").qubit_calibration(1).t1_us));
+  EXPECT_EQ(what_of("name: t\nqubits: 1\ncouplers: []\ncalibration: {duration_2q_ns: 1e99999999999999999999}\n"),
+            "t.yaml:4:31: 'duration_2q_ns' must be a positive number of ns, at most 1e9 (one second), got "
+            "1e99999999999999999999");
+  // The duration limit, one second, is allowed.
+  EXPECT_EQ(dev("calibration: {duration_2q_ns: 1e9}\n").coupler_calibration(0).duration_ns, 1e9);
+  // NaN is refused in every number (a check written as x < 0 || x > 1 would let it through).
+  for (const char* field :
+       {"calibration: {error_1q: .nan}", "calibration: {duration_1q_ns: .NAN}",
+        "qubit_calibration: [{id: 0, t1_us: .nan}]", "qubit_calibration: [{id: 0, error_readout: .NaN}]",
+        "couplers: [{pair: [0, 1], duration_ns: .nan}]"}) {
+    SCOPED_TRACE(field);
+    const std::string m = input_error_of([&] {
+                            const std::string rest = std::string(field).starts_with("couplers") ? "" : "couplers: []\n";
+                            parse_device_yaml(std::string("name: t\nqubits: 3\n") + field + "\n" + rest, "t.yaml");
+                          }).message();
+    EXPECT_NE(m.find("must be a number, not NaN (got ."), std::string::npos) << m;
+  }
 }
 
 }  // namespace

@@ -75,6 +75,8 @@ inline constexpr double kDefaultDuration2qNs = 300.0;
 
 /// Largest device accepted anywhere (files and built-in lattices).
 inline constexpr int kMaxDeviceQubits = 1'000'000;
+/// Longest gate time accepted, in ns (one second): keeps every schedule sum far from overflowing.
+inline constexpr double kMaxGateDurationNs = 1e9;
 
 /// Everything a device description holds, as written; `Device` validates and indexes it.
 struct DeviceDescription {

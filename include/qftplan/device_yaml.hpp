@@ -8,8 +8,9 @@
 
 namespace qftplan {
 
-/// Parses YAML text; `source` names the file in error messages. Strict: unknown keys are errors
-/// that suggest the nearest known key. Throws InputError with file, line and column.
+/// Parses YAML text (UTF-8; CR, CRLF or LF line ends); `source` names the file in error messages. Strict:
+/// unknown keys are errors that suggest the nearest known key; tags, NUL characters and flow nesting deeper
+/// than 64 are refused. Throws InputError with file, line and column.
 Device parse_device_yaml(const std::string& text, const std::string& source);
 
 /// Reads and parses a device file. Throws InputError for missing files, directories, bad YAML.
