@@ -59,6 +59,7 @@ std::vector<ChartSpec> survey_charts(const std::vector<SurveyRow>& rows) {
   swaps.title = "SWAPs against register size";
   swaps.x_label = "register size n (qubits)";
   swaps.y_label = "SWAPs (count, fused included)";
+  swaps.integer_y = true;
   swaps.series = collect(rows, namer, [](const SurveyRow& r) { return std::optional<double>(r.swaps); });
   charts.push_back(std::move(swaps));
 
@@ -66,6 +67,7 @@ std::vector<ChartSpec> survey_charts(const std::vector<SurveyRow>& rows) {
   depth.title = "Two-qubit depth against register size";
   depth.x_label = "register size n (qubits)";
   depth.y_label = "two-qubit depth (layers)";
+  depth.integer_y = true;
   depth.series = collect(rows, namer, [](const SurveyRow& r) { return std::optional<double>(r.depth_2q); });
   // The lower bound as a reference line, when every run of a size has the same bound.
   std::map<int, std::set<long long>> bounds;
@@ -103,8 +105,11 @@ std::vector<ChartSpec> survey_charts(const std::vector<SurveyRow>& rows) {
       hi = any ? std::max(hi, static_cast<double>(r.qubits)) : r.qubits;
       any = true;
     }
-  if (any)
-    for (auto& c : charts) c.x_span = SvgPoint{lo, hi};
+  // Register sizes are whole numbers: whole ticks only, and a single size gets the sizes either side.
+  for (auto& c : charts) {
+    c.integer_x = true;
+    if (any) c.x_span = SvgPoint{lo, hi};
+  }
   return charts;
 }
 

@@ -96,11 +96,12 @@ void SvgDocument::path(const std::string& d, const SvgPaint& paint) {
 }
 
 void SvgDocument::text(double x, double y, std::string_view content, const SvgFont& f) {
-  body_ += fmt::format("<text x=\"{}\" y=\"{}\" font-size=\"{}\" fill=\"{}\"", svg_number(x), svg_number(y),
+  // A centred text's baseline sits below y; a rotation still turns about (x, y), the anchor asked for.
+  const double base = f.middle ? y + kTextMiddleEm * f.size : y;
+  body_ += fmt::format("<text x=\"{}\" y=\"{}\" font-size=\"{}\" fill=\"{}\"", svg_number(x), svg_number(base),
                        svg_number(f.size), svg_escape(f.fill));
   if (f.anchor != "start") body_ += fmt::format(" text-anchor=\"{}\"", svg_escape(f.anchor));
   if (f.bold) body_ += " font-weight=\"bold\"";
-  if (!f.baseline.empty()) body_ += fmt::format(" dominant-baseline=\"{}\"", svg_escape(f.baseline));
   if (!f.family.empty()) body_ += fmt::format(" font-family=\"{}\"", svg_escape(f.family));
   if (f.rotate != 0)
     body_ += fmt::format(" transform=\"rotate({} {} {})\"", svg_number(f.rotate), svg_number(x), svg_number(y));

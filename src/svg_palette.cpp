@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <array>
+#include <cctype>
 #include <cmath>
 
 #include <fmt/format.h>
@@ -23,6 +24,25 @@ std::string series_dash(std::size_t i) {
   static const std::array<const char*, 4> dashes = {"", "7 4", "2 3", "9 3 2 3"};
   return dashes[(i / okabe_ito_colours().size()) % dashes.size()];
 }
+
+double relative_luminance(const std::string& colour) {
+  if (colour.size() != 7 || colour[0] != '#' ||
+      !std::all_of(colour.begin() + 1, colour.end(), [](char c) { return std::isxdigit(static_cast<unsigned char>(c)); }))
+    return 0;
+  // WCAG 2.1: each 8-bit channel to [0, 1], then the sRGB transfer function undone, then weighted.
+  auto channel = [&](std::size_t at) {
+    const double c = std::stoi(colour.substr(at, 2), nullptr, 16) / 255.0;
+    return c <= 0.03928 ? c / 12.92 : std::pow((c + 0.055) / 1.055, 2.4);
+  };
+  return 0.2126 * channel(1) + 0.7152 * channel(3) + 0.0722 * channel(5);
+}
+
+double contrast_ratio(const std::string& a, const std::string& b) {
+  const double la = relative_luminance(a), lb = relative_luminance(b);
+  return (std::max(la, lb) + 0.05) / (std::min(la, lb) + 0.05);
+}
+
+bool needs_outline(const std::string& colour) { return contrast_ratio(colour, "#FFFFFF") < 3.0; }
 
 std::string ramp_colour(double t) {
   if (!std::isfinite(t)) t = 0;

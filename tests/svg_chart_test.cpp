@@ -7,7 +7,10 @@
 #include <filesystem>
 #include <regex>
 #include <set>
+#include <sstream>
 #include <tuple>
+
+#include <fmt/format.h>
 
 #include "qftplan/survey_plots.hpp"
 #include "qftplan/svg_chart.hpp"
@@ -107,8 +110,8 @@ TEST(SvgChart, NiceTicksFollowHeckbert) {
   EXPECT_LE(d.values.size(), 9u);
   EXPECT_LE(d.lo, -27.3);
   EXPECT_GE(d.hi, 0);
-  EXPECT_EQ(format_decade(-6), "10\u207B\u2076");
-  EXPECT_EQ(format_decade(0), "1");
+  EXPECT_EQ(format_decade(-6, true), "10\u207B\u2076");
+  EXPECT_EQ(format_decade(0, false), "1");
 }
 
 // Okabe and Ito, "Color Universal Design" (2002): the eight colours, as published.
@@ -120,10 +123,12 @@ TEST(SvgPalette, OkabeItoColoursAndDistinctStyles) {
   auto want = published;
   std::sort(want.begin(), want.end());
   EXPECT_EQ(ours, want);
-  // The first 24 series differ in (colour, marker, dash).
-  std::set<std::tuple<std::string, int, std::string>> styles;
-  for (std::size_t i = 0; i < 24; ++i) styles.insert({series_colour(i), static_cast<int>(series_marker(i)), series_dash(i)});
-  EXPECT_EQ(styles.size(), 24u);
+  // The first kDistinctSeries (64) series differ in (colour, marker) alone: every pair of the eight
+  // colours and eight shapes once.
+  std::set<std::pair<std::string, int>> styles;
+  for (std::size_t i = 0; i < kDistinctSeries; ++i) styles.insert({series_colour(i), static_cast<int>(series_marker(i))});
+  EXPECT_EQ(styles.size(), kDistinctSeries);
+  EXPECT_EQ(kDistinctSeries, okabe_ito_colours().size() * kMarkerShapeCount);
   // The ramp gets darker (common practice: the sum of channels as a rough lightness).
   auto lightness = [](const std::string& c) {
     return std::stoi(c.substr(1, 2), nullptr, 16) + std::stoi(c.substr(3, 2), nullptr, 16) + std::stoi(c.substr(5, 2), nullptr, 16);
@@ -186,6 +191,261 @@ TEST(SurveyCharts, RenderedByRsvg) {
            (static_cast<unsigned char>(bytes[at + 2]) << 8) | static_cast<unsigned char>(bytes[at + 3]);
   };
   EXPECT_EQ(be32(16), 980u);  // IHDR width
+  std::filesystem::remove_all(dir);
+}
+
+// ---- Helpers that read back what the writer drew ----------------------------------------------
+
+// The contents of every group opened with `open_tag` (groups of ours hold no nested groups).
+std::vector<std::string> groups(const std::string& svg, const std::string& open_tag) {
+  std::vector<std::string> out;
+  for (std::size_t at = svg.find(open_tag); at != std::string::npos; at = svg.find(open_tag, at + 1)) {
+    const std::size_t start = at + open_tag.size(), end = svg.find("</g>", start);
+    out.push_back(svg.substr(start, end - start));
+  }
+  return out;
+}
+
+// A numeric attribute of one element's text ("<circle ... r=\"4\"/>"); NaN when absent.
+double attr(const std::string& element, const std::string& name) {
+  const std::regex re("\\s" + name + "=\"([-0-9.e]+)\"");
+  std::smatch m;
+  return std::regex_search(element, m, re) ? std::stod(m[1]) : std::nan("");
+}
+
+// Every element of a kind ("circle", "text", ...) in a piece of SVG, as its whole text.
+std::vector<std::string> elements(const std::string& svg, const std::string& tag) {
+  std::vector<std::string> out;
+  const std::regex re("<" + tag + "\\s[^>]*>([^<]*</" + tag + ">)?");
+  for (auto it = std::sregex_iterator(svg.begin(), svg.end(), re); it != std::sregex_iterator(); ++it) out.push_back(it->str());
+  return out;
+}
+
+std::string text_of(const std::string& element) {
+  const auto a = element.find('>'), b = element.rfind('<');
+  return element.substr(a + 1, b - a - 1);
+}
+
+// Rows for a survey of `devices` series at the given sizes.
+std::vector<SurveyRow> survey_rows(const std::vector<std::string>& names, const std::vector<int>& sizes) {
+  std::vector<SurveyRow> rows;
+  for (std::size_t d = 0; d < names.size(); ++d)
+    for (const int n : sizes) rows.push_back(row(names[d], n, static_cast<long long>(n * (n - 1) / 2 + d), -0.01 * n * (d + 1)));
+  return rows;
+}
+
+// WCAG 2.1 (W3C, Web Content Accessibility Guidelines 2.1, 2018), definitions "relative luminance"
+// and "contrast ratio", written out again here: sRGB channels linearised with the 0.03928 threshold,
+// weights 0.2126, 0.7152, 0.0722; ratio (L1 + 0.05) / (L2 + 0.05).
+double wcag_luminance(int r, int g, int b) {
+  auto lin = [](int c) {
+    const double s = c / 255.0;
+    return s <= 0.03928 ? s / 12.92 : std::pow((s + 0.055) / 1.055, 2.4);
+  };
+  return 0.2126 * lin(r) + 0.7152 * lin(g) + 0.0722 * lin(b);
+}
+
+TEST(SvgPalette, LightColoursGetAnOutlineByTheWcagContrast) {
+  // The formula's fixed points (WCAG 2.1: black on white is 21:1, a colour on itself 1:1).
+  EXPECT_NEAR(contrast_ratio("#000000", "#FFFFFF"), 21.0, 1e-12);
+  EXPECT_NEAR(contrast_ratio("#0072B2", "#0072B2"), 1.0, 1e-12);
+  EXPECT_NEAR(relative_luminance("#FFFFFF"), 1.0, 1e-12);
+  for (const auto& c : okabe_ito_colours()) {
+    const int r = std::stoi(c.substr(1, 2), nullptr, 16), g = std::stoi(c.substr(3, 2), nullptr, 16),
+              b = std::stoi(c.substr(5, 2), nullptr, 16);
+    const double ratio = (1.0 + 0.05) / (wcag_luminance(r, g, b) + 0.05);  // against white, L = 1
+    EXPECT_NEAR(contrast_ratio(c, "#FFFFFF"), ratio, 1e-9) << c;
+    // WCAG 2.1 success criterion 1.4.11 (non-text contrast): graphical objects need 3:1.
+    EXPECT_EQ(needs_outline(c), ratio < 3.0) << c << " " << ratio;
+  }
+  // Okabe-Ito yellow on white is about 1.3:1, far below 3:1; the outline is well above it.
+  EXPECT_LT(contrast_ratio("#F0E442", "#FFFFFF"), 1.4);
+  EXPECT_TRUE(needs_outline("#F0E442"));
+  EXPECT_GE(contrast_ratio(kOutlineColour, "#FFFFFF"), 3.0);
+  EXPECT_GE(contrast_ratio(kOutlineColour, "#F0E442"), 3.0);
+  // The palette keeps its order: yellow is still the eighth series colour.
+  EXPECT_EQ(series_colour(7), "#F0E442");
+
+  // In a chart, the yellow series' line has a dark casing under it and its markers a dark rim.
+  ChartSpec c;
+  c.series.push_back({"yellow", {{1, 1}, {2, 3}}, 7});
+  SvgDocument doc(900, kChartBaseHeight, "t");
+  draw_chart(doc, c, 0, 0, 900, kChartBaseHeight);
+  const std::string svg = doc.str();
+  const auto lines = groups(svg, "<g class=\"lines\">");
+  ASSERT_EQ(lines.size(), 1u);
+  const auto polys = elements(lines[0], "polyline");
+  ASSERT_EQ(polys.size(), 2u);
+  EXPECT_NE(polys[0].find(std::string("stroke=\"") + kOutlineColour + "\""), std::string::npos);
+  EXPECT_NE(polys[1].find("stroke=\"#F0E442\""), std::string::npos);
+  const auto marks = groups(svg, "<g class=\"markers\">");
+  ASSERT_EQ(marks.size(), 1u);
+  for (const auto& e : elements(marks[0], "polygon"))
+    EXPECT_NE(e.find(std::string("stroke=\"") + kOutlineColour + "\""), std::string::npos) << e;
+}
+
+// Register sizes are whole numbers: ticks on whole numbers only, also for a survey of one size
+// (whose axis is widened to the sizes either side), so no tick reads "11.2".
+TEST(SvgChart, WholeTicksForRegisterSizes) {
+  const auto t = nice_ticks(12, 12, 8, true);
+  EXPECT_EQ(t.values, (std::vector<double>{11, 12, 13}));
+  EXPECT_DOUBLE_EQ(nice_ticks(4, 8, 8, true).step, 1);
+  EXPECT_DOUBLE_EQ(nice_ticks(12, 12, 8, false).step, 0.2);  // without the rule: 11.0, 11.2, ...
+  for (const auto& rows : {survey_rows({"a", "b"}, {12}), survey_rows({"a"}, {4, 5, 6, 7, 8})}) {
+    const std::string svg = survey_svg(rows);
+    const auto xt = groups(svg, "<g class=\"x-ticks\">");
+    ASSERT_EQ(xt.size(), 3u);
+    for (const auto& g : xt) {
+      const auto labels = elements(g, "text");
+      ASSERT_GE(labels.size(), 3u);
+      for (const auto& l : labels) EXPECT_TRUE(std::regex_match(text_of(l), std::regex("[0-9]+"))) << text_of(l);
+    }
+    // Counts are whole numbers as well.
+    for (const auto& g : groups(svg, "<g class=\"y-ticks\">"))
+      for (const auto& l : elements(g, "text"))
+        EXPECT_TRUE(std::regex_match(text_of(l), std::regex("[0-9]+|10[^0-9].*|1|0\\.[0-9]+"))) << text_of(l);
+  }
+}
+
+// What the legend names is drawn: a bound known at one register size only is a short level dash.
+TEST(SvgChart, ReferenceOfOnePointIsDrawn) {
+  const std::string svg = survey_svg(survey_rows({"a", "b"}, {12}));
+  const auto ref = groups(svg, "<g class=\"reference\">");
+  ASSERT_EQ(ref.size(), 1u);
+  const auto dash = elements(ref[0], "line");
+  ASSERT_EQ(dash.size(), 1u);
+  EXPECT_GT(attr(dash[0], "x2") - attr(dash[0], "x1"), 20);
+  EXPECT_NE(svg.find(">lower bound (n-1)</text>"), std::string::npos);
+}
+
+// One notation for every label of a log axis (common practice): decimals for a few decades, else
+// powers of ten throughout, never a mix such as "1", "0.1", "10⁻²".
+TEST(SvgChart, DecadeLabelsShareOneStyle) {
+  EXPECT_EQ(decade_labels(decade_ticks(-2, 0, 8)), (std::vector<std::string>{"0.01", "0.1", "1"}));
+  const auto wide = decade_labels(decade_ticks(-9.5, 0, 8));
+  ASSERT_GE(wide.size(), 3u);
+  for (const auto& l : wide) EXPECT_TRUE(l.starts_with("10") && l.size() > 2) << l;
+  EXPECT_EQ(wide.back(), "10\u2070");
+  EXPECT_EQ(format_decade(3, false), "1000");
+  EXPECT_EQ(format_decade(-3, false), "0.001");
+  EXPECT_EQ(format_decade(-12, true), "10\u207B\u00B9\u00B2");
+  // The ESP chart of a survey whose ESP spans many decades.
+  std::vector<SurveyRow> rows = {row("a", 4, 6, -0.1), row("a", 40, 600, -40.0)};
+  const auto yt = groups(survey_svg(rows), "<g class=\"y-ticks\">");
+  ASSERT_EQ(yt.size(), 3u);
+  int powers = 0, decimals = 0;
+  for (const auto& l : elements(yt[2], "text")) (text_of(l).starts_with("10\xE2") ? powers : decimals) += 1;  // 10, then a superscript
+  EXPECT_GT(powers, 0);
+  EXPECT_EQ(decimals, 0);
+}
+
+// Many series: every one is named in the legend (in columns under the plot, the chart growing),
+// (colour, marker) pairs stay distinct, and markers keep one legible size.
+TEST(SurveyCharts, LegendListsEverySeries) {
+  std::vector<std::string> names;
+  for (int i = 0; i < 42; ++i) names.push_back(fmt::format("device-{:02}, degree auto, routed", i));
+  const auto rows = survey_rows(names, {6, 12, 18});
+  const std::string svg = survey_svg(rows);
+  std::string why;
+  EXPECT_TRUE(well_formed(svg, why)) << why;
+  const auto legends = groups(svg, "<g class=\"legend\">");
+  ASSERT_EQ(legends.size(), 3u);
+  const double height = attr(elements(svg, "svg")[0], "height");
+  EXPECT_GT(height, 64 + 3 * kChartBaseHeight + 10);  // grown for the legends
+  for (const auto& legend : legends) {
+    std::set<std::string> shown;
+    std::set<std::pair<double, double>> at;
+    for (const auto& t : elements(legend, "text")) {
+      shown.insert(text_of(t));
+      at.insert({attr(t, "x"), attr(t, "y")});
+      EXPECT_LT(attr(t, "y"), height);
+    }
+    for (const auto& n : names) EXPECT_TRUE(shown.count(n)) << n;
+    EXPECT_EQ(at.size(), elements(legend, "text").size());  // no two entries in one place
+    EXPECT_EQ(legend.find("more<"), std::string::npos);
+  }
+  // Markers: circles of radius at least 4 px, polygons at least 8 px across, in every series.
+  for (const auto& m : groups(svg, "<g class=\"markers\">")) {
+    for (const auto& c : elements(m, "circle")) EXPECT_GE(attr(c, "r"), 4) << c;
+    for (const auto& p : elements(m, "polygon")) {
+      std::smatch pts;
+      ASSERT_TRUE(std::regex_search(p, pts, std::regex("points=\"([^\"]*)\"")));
+      std::vector<double> xs;
+      const std::string list = pts[1];
+      const std::regex x_re("(-?[0-9.]+),");
+      for (auto it = std::sregex_iterator(list.begin(), list.end(), x_re); it != std::sregex_iterator(); ++it)
+        xs.push_back(std::stod((*it)[1]));
+      EXPECT_GE(*std::max_element(xs.begin(), xs.end()) - *std::min_element(xs.begin(), xs.end()), 8) << p;
+    }
+  }
+}
+
+// Series with the same figures: their markers are set side by side, not on top of each other.
+TEST(SurveyCharts, CoincidingPointsStayVisible) {
+  ChartSpec c;
+  c.series.push_back({"first", {{4, 10}, {8, 20}}, 0});    // style 0: a circle
+  c.series.push_back({"second", {{4, 10}, {8, 20}}, 15});  // style 15: also a circle
+  ASSERT_EQ(series_marker(0), series_marker(15));
+  SvgDocument doc(900, kChartBaseHeight, "t");
+  draw_chart(doc, c, 0, 0, 900, kChartBaseHeight);
+  const auto marks = groups(doc.str(), "<g class=\"markers\">");
+  ASSERT_EQ(marks.size(), 1u);
+  const auto circles = elements(marks[0], "circle");
+  ASSERT_EQ(circles.size(), 4u);
+  for (std::size_t i = 0; i < circles.size(); ++i)
+    for (std::size_t k = i + 1; k < circles.size(); ++k) {
+      const double d = std::hypot(attr(circles[i], "cx") - attr(circles[k], "cx"), attr(circles[i], "cy") - attr(circles[k], "cy"));
+      EXPECT_GE(d, attr(circles[i], "r") + attr(circles[k], "r")) << circles[i] << " " << circles[k];
+    }
+}
+
+// A centred text rendered by an independent renderer (librsvg's rsvg-convert): the ink of the
+// digits is centred on the y asked for. The PNG is decoded by a small stdlib-only script (chunks,
+// zlib and the five row filters of ISO/IEC 15948, PNG, sections 5 and 9).
+TEST(SvgDocument, MiddleTextIsCentredWhenRendered) {
+  if (!std::filesystem::exists("/usr/bin/rsvg-convert") || !std::filesystem::exists("/usr/bin/python3"))
+    GTEST_SKIP() << "rsvg-convert or python3 not installed";
+  SvgDocument doc(400, 100, "t");
+  doc.rect(0, 0, 400, 100, SvgPaint{"#ffffff"});
+  SvgFont f{40, "start", "#000000"};
+  f.middle = true;
+  doc.text(10, 50, "0123456789", f);
+  const std::string svg = doc.str();
+  EXPECT_EQ(svg.find("dominant-baseline"), std::string::npos);  // not honoured by every renderer
+  const auto dir = testing::temp_dir();
+  testing::write_file(dir / "t.svg", svg);
+  testing::write_file(dir / "ink.py", R"(import struct, sys, zlib
+d = open(sys.argv[1], 'rb').read()
+assert d[:8] == b'\x89PNG\r\n\x1a\n'
+pos, idat = 8, b''
+while pos < len(d):
+    n, = struct.unpack('>I', d[pos:pos + 4]); kind = d[pos + 4:pos + 8]; body = d[pos + 8:pos + 8 + n]; pos += 12 + n
+    if kind == b'IHDR': w, h, depth, ctype = struct.unpack('>IIBB', body[:10])
+    elif kind == b'IDAT': idat += body
+bpp = {2: 3, 6: 4}[ctype]; stride = w * bpp; raw = zlib.decompress(idat); prev = bytearray(stride); rows = []; i = 0
+for y in range(h):
+    f = raw[i]; line = bytearray(raw[i + 1:i + 1 + stride]); i += 1 + stride
+    for x in range(stride):
+        a = line[x - bpp] if x >= bpp else 0; b = prev[x]; c = prev[x - bpp] if x >= bpp else 0
+        if f == 1: line[x] = (line[x] + a) & 255
+        elif f == 2: line[x] = (line[x] + b) & 255
+        elif f == 3: line[x] = (line[x] + (a + b) // 2) & 255
+        elif f == 4:
+            p = a + b - c; pa, pb, pc = abs(p - a), abs(p - b), abs(p - c)
+            line[x] = (line[x] + (a if pa <= pb and pa <= pc else b if pb <= pc else c)) & 255
+    rows.append(line); prev = line
+ink = [y for y in range(h) if any(rows[y][x * bpp] < 128 for x in range(w))]
+print(ink[0], ink[-1] + 1)
+)");
+  const std::string cmd = "/usr/bin/rsvg-convert -o '" + (dir / "t.png").string() + "' '" + (dir / "t.svg").string() +
+                          "' && /usr/bin/python3 '" + (dir / "ink.py").string() + "' '" + (dir / "t.png").string() + "' > '" +
+                          (dir / "ink.txt").string() + "'";
+  ASSERT_EQ(std::system(cmd.c_str()), 0);
+  std::istringstream in(testing::read_file(dir / "ink.txt"));
+  double top = 0, bottom = 0;
+  in >> top >> bottom;
+  EXPECT_NEAR((top + bottom) / 2, 50, 1.5) << top << " " << bottom;
+  EXPECT_NEAR(bottom - top, 2 * kTextMiddleEm * 40, 2.0);  // the digits' height, 0.729 em
   std::filesystem::remove_all(dir);
 }
 
