@@ -5,12 +5,18 @@
 #include <filesystem>
 #include <cmath>
 #include <numeric>
+#include <regex>
+#include <set>
+#include <tuple>
+
+#include <fmt/format.h>
 
 #include "qftplan/device_source.hpp"
 #include "qftplan/input_error.hpp"
 #include "qftplan/plan.hpp"
 #include "qftplan/plan_drawing.hpp"
 #include "qftplan/report.hpp"
+#include "qftplan/svg_document.hpp"
 #include "qftplan/svg_layout.hpp"
 #include "test_support.hpp"
 
@@ -165,6 +171,199 @@ TEST(DrawCommand, DrawsAPlanAndRefusesBadReports) {
   EXPECT_EQ(other.status, 2);
   EXPECT_NE(other.err.find("not on 'grid:5x5'"), std::string::npos) << other.err;
   std::filesystem::remove_all(dir);
+}
+
+// ---- Reading the drawing back ------------------------------------------------------------------
+
+struct Rect {
+  double x0, y0, x1, y1;
+};
+struct Circle {
+  double cx, cy, r;
+};
+
+// The contents of the group with this id (our drawing's groups hold no nested groups).
+std::string group(const std::string& svg, const std::string& id) {
+  const std::string open = "<g id=\"" + id + "\">";
+  const auto at = svg.find(open);
+  if (at == std::string::npos) return {};
+  const auto end = svg.find("</g>", at);
+  return svg.substr(at + open.size(), end - at - open.size());
+}
+
+double attr(const std::string& element, const std::string& name) {
+  const std::regex re("\\s" + name + "=\"([-0-9.e]+)\"");
+  std::smatch m;
+  return std::regex_search(element, m, re) ? std::stod(m[1]) : std::nan("");
+}
+
+std::vector<std::string> elements(const std::string& svg, const std::string& tag) {
+  std::vector<std::string> out;
+  const std::regex re("<" + tag + "\\s[^>]*>([^<]*</" + tag + ">)?");
+  for (auto it = std::sregex_iterator(svg.begin(), svg.end(), re); it != std::sregex_iterator(); ++it) out.push_back(it->str());
+  return out;
+}
+
+std::string text_of(const std::string& element) {
+  const auto a = element.find('>'), b = element.rfind('<');
+  return element.substr(a + 1, b - a - 1);
+}
+
+std::vector<Rect> rects(const std::string& svg) {
+  std::vector<Rect> out;
+  for (const auto& e : elements(svg, "rect"))
+    out.push_back({attr(e, "x"), attr(e, "y"), attr(e, "x") + attr(e, "width"), attr(e, "y") + attr(e, "height")});
+  return out;
+}
+
+std::vector<Circle> circles(const std::string& svg) {
+  std::vector<Circle> out;
+  for (const auto& e : elements(svg, "circle")) out.push_back({attr(e, "cx"), attr(e, "cy"), attr(e, "r")});
+  return out;
+}
+
+bool overlap(const Rect& a, const Rect& b) { return a.x0 < b.x1 && b.x0 < a.x1 && a.y0 < b.y1 && b.y0 < a.y1; }
+
+// Distance from a point to a box (0 inside): plane geometry, common practice.
+double distance(const Rect& b, double x, double y) {
+  return std::hypot(std::max({b.x0 - x, 0.0, x - b.x1}), std::max({b.y0 - y, 0.0, y - b.y1}));
+}
+
+// A comb of our own: a line of eight with four teeth, so no chain holds 12 qubits.
+const char* kComb =
+    "name: comb-12\nqubits: 12\ncouplers:\n  - [0, 1]\n  - [1, 2]\n  - [2, 3]\n  - [3, 4]\n  - [4, 5]\n  - [5, 6]\n"
+    "  - [6, 7]\n  - [1, 8]\n  - [3, 9]\n  - [5, 10]\n  - [6, 11]\n";
+
+struct Drawn {
+  Device dev;
+  PlanReport report;
+  DrawnPlan plan;
+  std::string svg;
+};
+
+Drawn draw_case(const std::string& device, int qubits, const std::string& strategy) {
+  Drawn d{load_device(device), {}, {}, {}};
+  PlanOptions opt;
+  opt.spec.qubits = qubits;
+  opt.strategy = strategy;
+  d.report = plan_qft(d.dev, opt);
+  d.plan = drawn_plan_from_report(d.dev, report_to_json(d.report), "r.json");
+  d.svg = draw_device_svg(d.dev, &d.plan);
+  return d;
+}
+
+std::vector<std::tuple<std::string, int, std::string>> drawing_cases(const std::filesystem::path& comb) {
+  return {{topo_path("harbor-grid-6x6-defect.yaml"), 34, "auto"},
+          {topo_path("harbor-noisy-20.yaml"), 12, "auto"},
+          {topo_path("harbor-hex-35.yaml"), 35, "auto"},
+          {"grid:4x4", 16, "chain"},
+          {comb.string(), 12, "spine"},
+          {comb.string(), 12, "routed"}};
+}
+
+// Placement labels touch no qubit, no block count, no other label and stay on the page; each sits
+// next to its own qubit; and the same plan gives the same bytes.
+TEST(DrawPlan, LabelsClearQubitsCountsAndEachOther) {
+  const auto dir = temp_dir();
+  write_file(dir / "comb.yaml", kComb);
+  for (const auto& [device, qubits, strategy] : drawing_cases(dir / "comb.yaml")) {
+    SCOPED_TRACE(device + " " + strategy);
+    const Drawn d = draw_case(device, qubits, strategy);
+    const std::string placement = group(d.svg, "placement"), loads = group(d.svg, "loads");
+    const auto labels = rects(placement), counts = rects(loads);
+    const auto qubits_drawn = circles(group(d.svg, "qubits"));
+    ASSERT_EQ(static_cast<int>(qubits_drawn.size()), d.dev.qubit_count());
+    const double width = attr(elements(d.svg, "svg")[0], "width"), height = attr(elements(d.svg, "svg")[0], "height");
+    std::set<int> labelled(d.plan.placement.begin(), d.plan.placement.end());
+    labelled.insert(d.plan.final_placement.begin(), d.plan.final_placement.end());
+    ASSERT_EQ(labels.size(), labelled.size());
+    for (std::size_t i = 0; i < labels.size(); ++i) {
+      const Rect& a = labels[i];
+      EXPECT_TRUE(a.x0 >= 0 && a.y0 >= 0 && a.x1 <= width && a.y1 <= height);
+      for (std::size_t k = i + 1; k < labels.size(); ++k) EXPECT_FALSE(overlap(a, labels[k])) << i << " " << k;
+      for (const auto& c : counts) EXPECT_FALSE(overlap(a, c)) << i;
+      for (const auto& q : qubits_drawn) EXPECT_GE(distance(a, q.cx, q.cy), q.r) << i;
+    }
+    // Each label's first line names a bit of its own qubit, and the label is near that qubit.
+    const auto texts = elements(placement, "text");
+    std::size_t t = 0;
+    for (std::size_t i = 0; i < labels.size(); ++i) {
+      ASSERT_LT(t, texts.size());
+      const std::string first = text_of(texts[t]);
+      int bit = -1, q = -1;
+      if (first.starts_with("in ")) bit = std::stoi(first.substr(3)), q = d.plan.placement[bit];
+      else bit = std::stoi(first.substr(4)), q = d.plan.final_placement[bit];
+      EXPECT_LT(distance(labels[i], qubits_drawn[q].cx, qubits_drawn[q].cy), qubits_drawn[q].r + 50) << first;
+      auto holds = [q = q](const std::vector<int>& map) { return std::count(map.begin(), map.end(), q) > 0; };
+      t += (holds(d.plan.placement) ? 1 : 0) + (holds(d.plan.final_placement) ? 1 : 0);  // its lines
+    }
+    EXPECT_EQ(t, texts.size());
+    EXPECT_EQ(draw_device_svg(d.dev, &d.plan), d.svg);  // deterministic
+  }
+  std::filesystem::remove_all(dir);
+}
+
+// Every coupler that carries blocks shows its count, the counts add up to the report's blocks, and
+// the band covers every such coupler of a chain or spine plan; routed plans get no band.
+TEST(DrawPlan, EveryLoadedCouplerIsCountedAndBanded) {
+  const auto dir = temp_dir();
+  write_file(dir / "comb.yaml", kComb);
+  for (const auto& [device, qubits, strategy] : drawing_cases(dir / "comb.yaml")) {
+    SCOPED_TRACE(device + " " + strategy);
+    const Drawn d = draw_case(device, qubits, strategy);
+    const auto count_texts = elements(group(d.svg, "loads"), "text");
+    long long shown = 0;
+    for (const auto& e : count_texts) shown += std::stoll(text_of(e));
+    EXPECT_EQ(shown, d.report.two_qubit_blocks);
+    EXPECT_EQ(static_cast<long long>(count_texts.size()),
+              std::count_if(d.plan.coupler_blocks.begin(), d.plan.coupler_blocks.end(), [](long long b) { return b > 0; }));
+    const ChainBand band = chain_band(d.dev, d.plan);
+    const std::string legend = group(d.svg, "legend");
+    if (d.report.strategy == "routed") {
+      EXPECT_TRUE(band.main.empty() && band.hops.empty());
+      EXPECT_EQ(d.svg.find("<g id=\"chain\">"), std::string::npos);
+      EXPECT_EQ(legend.find("chain ("), std::string::npos);
+      EXPECT_NE(legend.find("routed plan: no fixed chain"), std::string::npos);
+      continue;
+    }
+    std::set<int> banded(band.main.begin(), band.main.end());
+    banded.insert(band.hops.begin(), band.hops.end());
+    for (int c = 0; c < d.dev.coupler_count(); ++c)
+      if (d.plan.coupler_blocks[c] > 0) EXPECT_TRUE(banded.count(c)) << "coupler " << c << " carries blocks";
+    EXPECT_EQ(elements(group(d.svg, "chain"), "line").size(), banded.size());
+    if (d.report.strategy == "spine") {
+      EXPECT_FALSE(band.hops.empty());
+      EXPECT_NE(legend.find("the spine&apos;s main chain"), std::string::npos);
+      EXPECT_NE(legend.find("hop to a dangling qubit"), std::string::npos);
+      // The coupler a detour steps over to reach the next spine qubit is on the main chain.
+      std::set<int> dangling;
+      for (const auto& [a, b, via] : d.plan.detours) dangling.insert(a);
+      for (const auto& [a, b, via] : d.plan.detours)
+        if (!dangling.count(b))
+          EXPECT_TRUE(std::count(band.main.begin(), band.main.end(), d.dev.coupler_index(std::min(b, via), std::max(b, via))));
+    } else {
+      EXPECT_TRUE(band.hops.empty());
+      EXPECT_EQ(band.main.size(), d.plan.chain.size() - 1);
+      EXPECT_NE(legend.find(fmt::format("the plan&apos;s chain ({} qubits)", d.plan.chain.size())), std::string::npos);
+    }
+  }
+  std::filesystem::remove_all(dir);
+}
+
+// Qubit ids sit in the middle of their circles: the baseline kTextMiddleEm below the centre (the
+// rendering test SvgDocument.MiddleTextIsCentredWhenRendered checks that offset with librsvg).
+TEST(DrawPlan, QubitIdsAreCentredInTheirCircles) {
+  const Drawn d = draw_case(topo_path("harbor-noisy-20.yaml"), 12, "auto");
+  const std::string qubits = group(d.svg, "qubits");
+  const auto cs = circles(qubits);
+  const auto ids = elements(qubits, "text");
+  ASSERT_EQ(ids.size(), cs.size());
+  for (std::size_t q = 0; q < ids.size(); ++q) {
+    EXPECT_EQ(text_of(ids[q]), std::to_string(q));
+    EXPECT_NEAR(attr(ids[q], "x"), cs[q].cx, 0.011);
+    EXPECT_NEAR(attr(ids[q], "y") - cs[q].cy, kTextMiddleEm * attr(ids[q], "font-size"), 0.011) << ids[q];
+  }
+  EXPECT_EQ(d.svg.find("dominant-baseline"), std::string::npos);
 }
 
 }  // namespace

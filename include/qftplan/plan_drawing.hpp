@@ -4,6 +4,7 @@
 /// couplers shaded by their two-qubit error, the plan's chain, where each input bit starts and each
 /// output bit ends, and how many two-qubit blocks each coupler carries.
 
+#include <array>
 #include <string>
 #include <vector>
 
@@ -18,7 +19,9 @@ namespace qftplan {
 struct DrawnPlan {
   std::string title;                      ///< such as "QFT on 12 qubits, exact"
   std::string method;                     ///< such as "chain strategy, reversal network"
-  std::vector<int> chain;                 ///< may be empty (plans that route instead)
+  std::string strategy;                   ///< the report's strategy (chain, spine, routed)
+  std::vector<int> chain;                 ///< the report's chain (a spine plan's virtual line; unused when routed)
+  std::vector<std::array<int, 3>> detours;  ///< spine plans: (a, b, via) for line neighbours a, b not coupled
   std::vector<int> placement;             ///< physical qubit holding input bit k at the start
   std::vector<int> final_placement;       ///< physical qubit holding output bit k at the end
   std::vector<long long> coupler_blocks;  ///< two-qubit blocks on each coupler, indexed like couplers()
@@ -47,6 +50,18 @@ class CouplerLoadSink final : public GateSink {
   int last_cp_a_ = -1, last_cp_b_ = -1;   // the previous gate, when it was a cp
 };
 
+/// The couplers under a plan's band: the chain's (consecutive chain qubits that are coupled) or a
+/// spine's main chain, and a spine's hops out to its dangling qubits. Empty for routed plans.
+struct ChainBand {
+  std::vector<int> main;   ///< coupler indices along the chain or the spine's main chain
+  std::vector<int> hops;   ///< coupler indices from the main chain to a dangling qubit (spine plans)
+};
+
+/// The band of `plan` on `device`: consecutive chain entries that are coupled, and for each detour
+/// (a, b, via) the couplers a-via and via-b the line steps through; couplers touching a dangling
+/// qubit (the a of a detour) are hops. Every coupler carrying blocks of a chain or spine plan is in it.
+ChainBand chain_band(const Device& device, const DrawnPlan& plan);
+
 /// Reads a plan report (the JSON of `qftplan plan --report`) made for `device`, re-plans it through
 /// the library with the report's settings (and its placement pinned where the strategy allows),
 /// checks that the re-planned maps equal the report's, and counts the blocks on every coupler.
@@ -57,7 +72,9 @@ DrawnPlan drawn_plan_from_report(const Device& device, const nlohmann::json& rep
 /// The same, reading the report from a file.
 DrawnPlan read_drawn_plan(const Device& device, const std::string& path);
 
-/// The SVG document: the device (and the plan when given) with a legend.
+/// The SVG document: the device (and the plan when given) with a legend. Placement labels are set
+/// greedily, most constrained qubit first, at the nearest of 64 candidate spots around their qubit
+/// that touches no qubit, no block count and no other label (deterministic).
 std::string draw_device_svg(const Device& device, const DrawnPlan* plan);
 
 }  // namespace qftplan
