@@ -23,7 +23,8 @@ struct StepLoad {
 
 StepLoad kind_load(TwoQubitGate native, GateKind k) {
   StepLoad l;
-  for (const ProgramStep& s : native_program(native, k).view()) {
+  const GateProgram program = native_program(native, k);  // keep alive: view() points into it
+  for (const ProgramStep& s : program.view()) {
     if (is_two_qubit(s.kind)) l.two_q += 1;
     else if (s.kind == GateKind::h || s.kind == GateKind::x || s.kind == GateKind::sx) l.one_q[s.a] += 1;
   }

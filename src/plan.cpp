@@ -16,6 +16,22 @@
 
 namespace qftplan {
 
+std::optional<int> parse_approx_degree(const std::string& text) {
+  if (text == "none") return std::nullopt;
+  std::size_t used = 0;
+  int v = 0;
+  try {
+    v = std::stoi(text, &used);
+  } catch (const std::exception&) {
+    used = 0;
+  }
+  if (used != text.size() || text.empty())
+    throw InputError("--approx expects 'none', 'auto' (plan and survey) or a whole degree M >= 1, got '" + text + "'");
+  if (v < 1 || v > kMaxRegisterQubits)
+    throw InputError("--approx " + text + " is outside 1 .. " + std::to_string(kMaxRegisterQubits));
+  return v;
+}
+
 std::vector<int> parse_id_list(const std::string& text, const std::string& what) {
   std::vector<int> out;
   std::size_t i = 0;
@@ -330,7 +346,10 @@ static PreparedPlan spine_plan(const Device& device, const PlanOptions& options,
   plan.spec = spec;
   plan.strategy = "spine";
   plan.gates = options.gates.value_or(gate_set_of(device.native_2q()));
-  plan.network = choose_network(plan.spec, options.network);
+  // The end order restores along the virtual line; its SWAPs between uncoupled neighbours take the
+  // same detours as every other gate.
+  plan.network = choose_network(plan.spec, options.end_order, options.network);
+  plan.end_swaps = end_swap_count(*plan.network);
   plan.chain = layout.line;
   plan.detours = layout.detours;
   plan.maps = chain_maps(plan.spec, *plan.network, plan.chain);
@@ -610,6 +629,13 @@ PlanReport execute_plan(const Device& device, const PlanOptions& options, const 
   r.cx_count = native.two_qubit_count();
   r.cx_depth = native.depth_2q();
   r.gate_counts = emitted.counts_by_name();
+  // OpenQASM 2 (qelib1.inc) spells the phase gates cu1 and u1: count them by the names in the file.
+  if (options.swap_as_cx)
+    for (const auto& [from, to] : {std::pair<std::string, std::string>{"cp", "cu1"}, {"p", "u1"}})
+      if (auto it = r.gate_counts.find(from); it != r.gate_counts.end()) {
+        r.gate_counts[to] += it->second;
+        r.gate_counts.erase(it);
+      }
   r.noise = noise.figures();
   r.calibrated = device.has_calibration();
   r.measured = options.measure;
@@ -630,6 +656,7 @@ PlanReport execute_plan(const Device& device, const PlanOptions& options, const 
   fill_chosen_outcome(r);
   r.end_order = end_order_name(options.end_order);
   r.end_swaps = plan.end_swaps;
+  r.seed = options.search.seed;
   r.elapsed_ms = std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - t0).count();
   return r;
 }

@@ -108,6 +108,46 @@ class ReversalNetwork : public QftNetwork {
   ReversalLayers layers_;
 };
 
+// The anchored network (ours): the first wire stays at the start of the chain and the reversal
+// network of the other n-1 wires runs beside it. A wire of that network reaches the start, next to
+// the anchor, exactly when it has met every wire before it, just before its Hadamard: it meets the
+// anchor there with a plain controlled phase (2 CX) instead of a fused block. The position next to
+// the anchor is idle at that layer, so the depth stays 2n-3 and the blocks n(n-1)/2, with n-1 SWAPs
+// fewer than the reversal network; the register ends reversed but for the anchor.
+class AnchoredNetwork final : public QftNetwork {
+ public:
+  AnchoredNetwork(int n, int d) : QftNetwork(n, d), rest_{1, n - 1, d} {}
+  std::string name() const override { return "anchored"; }
+  int chunk_count() const override { return wires_ >= 2 ? rest_.chunks() : 1; }
+  void chunk(int c, std::vector<NetworkOp>& out) const override {
+    out.clear();
+    if (c == 0) out.push_back({Kind::h, 0, -1});
+    if (wires_ < 2) return;
+    std::vector<NetworkOp> rest;
+    rest_.chunk(c, rest);
+    for (const NetworkOp& op : rest) {
+      // The anchor's rotation with wire w, kept when w <= d, right before w's Hadamard.
+      if (op.kind == Kind::h && op.i <= d_) out.push_back({Kind::cp, 0, op.i});
+      out.push_back(op);
+    }
+  }
+  std::vector<int> final_positions() const override {
+    std::vector<int> pos(wires_);
+    for (int w = 0; w < wires_; ++w) pos[w] = w == 0 ? 0 : wires_ - w;
+    return pos;
+  }
+  std::array<long long, 4> step_counts() const override {
+    const long long n = wires_, m = n - 1;
+    if (n < 2) return {n, 0, 0, 0};
+    long long fused = 0;
+    for (long long delta = 1; delta <= std::min<long long>(d_, m - 1); ++delta) fused += m - delta;
+    return {n, std::min<long long>(d_, m), m * (m - 1) / 2 - fused, fused};
+  }
+
+ private:
+  ReversalLayers rest_;
+};
+
 // The parity network: the reversal network's steps, rendered as parity steps (parity_qft.hpp).
 class ParityNetwork final : public ReversalNetwork {
  public:
@@ -225,6 +265,9 @@ std::unique_ptr<QftNetwork> make_reversal_network(int wires, int max_distance) {
 std::unique_ptr<QftNetwork> make_leapfrog_network(int wires, int max_distance) {
   return std::make_unique<LeapfrogNetwork>(wires, max_distance);
 }
+std::unique_ptr<QftNetwork> make_anchored_network(int wires, int max_distance) {
+  return std::make_unique<AnchoredNetwork>(wires, max_distance);
+}
 std::unique_ptr<QftNetwork> make_parity_network(int wires, int max_distance) {
   return std::make_unique<ParityNetwork>(wires, max_distance);
 }
@@ -238,23 +281,25 @@ constexpr long long kMaxLeapfrogSteps = 1LL << 25;
 
 std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec) {
   const int n = spec.qubits, d = spec.max_distance();
-  if (spec.effectively_exact() || n <= 2) return make_reversal_network(n, d);
+  if (spec.effectively_exact() || n <= 2) return make_anchored_network(n, d);
   if (d == 0) return make_hadamard_network(n);
   if (d == 1) return make_adjacent_network(n);
   // The leapfrog network has at most 2 d blocks per wire; build it only when that can beat the
-  // reversal network's n(n-1)/2 (it holds its n*2d steps in memory).
+  // anchored network, which has as many blocks as the reversal network's n(n-1)/2, at most (it
+  // holds its n*2d steps in memory).
   const long long reversal = static_cast<long long>(n) * (n - 1) / 2;
   if (2LL * n * d < 2 * reversal && 2LL * n * d <= kMaxLeapfrogSteps) {
     auto leap = make_leapfrog_network(n, d);
     if (leap->block_count() < reversal) return leap;
   }
-  return make_reversal_network(n, d);
+  return make_anchored_network(n, d);
 }
 
 const char* network_choice_name(NetworkChoice c) {
   switch (c) {
     case NetworkChoice::automatic: return "auto";
     case NetworkChoice::reversal: return "reversal";
+    case NetworkChoice::anchored: return "anchored";
     case NetworkChoice::leapfrog: return "leapfrog";
     case NetworkChoice::parity: return "parity";
   }
@@ -262,9 +307,10 @@ const char* network_choice_name(NetworkChoice c) {
 }
 
 NetworkChoice parse_network_choice(const std::string& text) {
-  for (NetworkChoice c : {NetworkChoice::automatic, NetworkChoice::reversal, NetworkChoice::leapfrog, NetworkChoice::parity})
+  for (NetworkChoice c : {NetworkChoice::automatic, NetworkChoice::reversal, NetworkChoice::anchored,
+                          NetworkChoice::leapfrog, NetworkChoice::parity})
     if (text == network_choice_name(c)) return c;
-  throw InputError("unknown network '" + text + "' (valid: auto, reversal, leapfrog, parity)");
+  throw InputError("unknown network '" + text + "' (valid: auto, reversal, anchored, leapfrog, parity)");
 }
 
 std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec, NetworkChoice choice) {
@@ -274,6 +320,7 @@ std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec, NetworkChoice ch
   if (!spec.effectively_exact() && d == 1) return make_adjacent_network(n);
   switch (choice) {
     case NetworkChoice::reversal: return make_reversal_network(n, d);
+    case NetworkChoice::anchored: return make_anchored_network(n, d);
     case NetworkChoice::parity: return make_parity_network(n, d);
     case NetworkChoice::leapfrog:
       if (spec.effectively_exact())

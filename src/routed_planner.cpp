@@ -118,7 +118,7 @@ class Router {
       }
     }
     RoutedCircuit out;
-    out.gates = std::move(gates_);
+    out.gates = fuse_phases_with_swaps(std::move(gates_));
     out.region = region_;
     out.maps.placement.resize(n_);
     out.maps.final_placement.resize(n_);
@@ -130,6 +130,41 @@ class Router {
   }
 
  private:
+  // A controlled phase and a SWAP on the same pair with nothing between them on either qubit are one
+  // fused block, in either order (cp is symmetric, so SWAP cp = cp SWAP): 3 CX instead of 5. The
+  // greedy steps make such pairs when a SWAP brings two wires together whose rotation is then
+  // applied, and the next SWAP parts them again.
+  static std::vector<Gate> fuse_phases_with_swaps(std::vector<Gate> gates) {
+    int qubits = 0;
+    for (const Gate& g : gates) qubits = std::max({qubits, g.q0 + 1, is_two_qubit(g.kind) ? g.q1 + 1 : 0});
+    std::vector<long long> last(qubits, -1);  // index of the last kept gate on each qubit
+    std::vector<char> gone(gates.size(), 0);
+    for (std::size_t k = 0; k < gates.size(); ++k) {
+      const Gate& g = gates[k];
+      if (!is_two_qubit(g.kind)) {
+        last[g.q0] = static_cast<long long>(k);
+        continue;
+      }
+      const long long p = last[g.q0];
+      if (p >= 0 && p == last[g.q1]) {
+        Gate& prev = gates[static_cast<std::size_t>(p)];
+        const bool cp_then_swap = prev.kind == GateKind::cp && g.kind == GateKind::swap;
+        const bool swap_then_cp = prev.kind == GateKind::swap && g.kind == GateKind::cp;
+        if (cp_then_swap || swap_then_cp) {
+          prev = make_gate(GateKind::cp_swap, prev.q0, prev.q1, cp_then_swap ? prev.angle : g.angle);
+          gone[k] = 1;
+          continue;
+        }
+      }
+      last[g.q0] = last[g.q1] = static_cast<long long>(k);
+    }
+    std::vector<Gate> out;
+    out.reserve(gates.size());
+    for (std::size_t k = 0; k < gates.size(); ++k)
+      if (!gone[k]) out.push_back(gates[k]);
+    return out;
+  }
+
   int dist(int a, int b) const { return dist_[static_cast<std::size_t>(a) * N_ + b]; }
 
   // Rotation between wires i < j is pending when H(i) is done and they have not met.

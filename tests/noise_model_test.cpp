@@ -89,7 +89,7 @@ TEST(NoiseModel, EspRecomputedGateByGateFromTheFileEqualsTheReport) {
 }
 
 TEST(NoiseModel, IdleFactorFollowsTheStatedFormula) {
-  // Two qubits, one coupler: h (40 ns) then cp (2 CX of 300 ns): duration 640 ns on the ASAP
+  // Two qubits, one coupler: h (40 ns), cp (2 CX of 300 ns), h (40 ns): duration 680 ns on the ASAP
   // schedule; each register qubit decays for the whole duration: exp(-t/T1) exp(-t/T2).
   DeviceDescription d;
   d.name = "pair";
@@ -106,10 +106,11 @@ TEST(NoiseModel, IdleFactorFollowsTheStatedFormula) {
   opt.spec.qubits = 2;
   opt.strategy = "chain";
   const auto r = plan_qft(dev, opt);
-  // Reversal network on 2 qubits: h, cp_swap (3 CX), h.
-  const double esp = std::pow(0.999, 2) * std::pow(0.99, 3);
+  // Anchored network on 2 qubits (the default): h, cp (2 CX), h; no SWAP.
+  ASSERT_EQ(r.network, "anchored");
+  const double esp = std::pow(0.999, 2) * std::pow(0.99, 2);
   EXPECT_NEAR(r.noise.esp, esp, 1e-15);
-  const double t = 40 + 900 + 40;
+  const double t = 40 + 600 + 40;
   EXPECT_NEAR(r.noise.duration_ns, t, 1e-9);
   const double idle = std::exp(-2 * (t / 100e3 + t / 50e3));
   EXPECT_NEAR(r.noise.esp_with_idle, esp * idle, 1e-15);

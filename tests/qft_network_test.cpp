@@ -99,12 +99,13 @@ TEST(LeapfrogNetwork, KeepsOnlyRotationsWithinTheDegreeAndGrowsLinearly) {
 }
 
 TEST(ChooseNetwork, PicksTheCheaperNetworkForTheDegree) {
-  EXPECT_EQ(choose_network(QftSpec{20, std::nullopt, false})->name(), "reversal");
+  EXPECT_EQ(choose_network(QftSpec{20, std::nullopt, false})->name(), "anchored");
   EXPECT_EQ(choose_network(QftSpec{20, 1, false})->name(), "hadamard-only");
   EXPECT_EQ(choose_network(QftSpec{20, 2, false})->name(), "adjacent");
   EXPECT_EQ(choose_network(QftSpec{200, 4, false})->name(), "leapfrog");
-  EXPECT_EQ(choose_network(QftSpec{20, 15, false})->name(), "reversal");
-  EXPECT_EQ(choose_network(QftSpec{20, 40, false})->name(), "reversal");
+  EXPECT_EQ(choose_network(QftSpec{20, 15, false})->name(), "anchored");
+  EXPECT_EQ(choose_network(QftSpec{20, 40, false})->name(), "anchored");
+  EXPECT_EQ(choose_network(QftSpec{20, std::nullopt, false}, NetworkChoice::reversal)->name(), "reversal");
 }
 
 // Chain metrics on lines, snakes in grids and rings, through the whole planner (common practice:
@@ -114,15 +115,24 @@ TEST(ChainPlanner, MetricsOnLinesGridsAndRings) {
   for (const auto& spec : specs) {
     const Device dev = make_lattice(spec);
     for (int n = 2; n <= 64 && n <= dev.qubit_count(); n += (n < 12 ? 1 : 7)) {
-      PlanOptions opt;
-      opt.spec.qubits = n;
-      opt.strategy = "chain";
-      const auto r = plan_qft(dev, opt);
-      EXPECT_EQ(r.two_qubit_blocks, static_cast<long long>(n) * (n - 1) / 2) << spec << " n=" << n;
-      EXPECT_EQ(r.depth_2q, 2 * n - 3) << spec << " n=" << n;
-      // Vidal and Dawson, PRA 69, 010301 (2004): 3 CX per fused block.
-      EXPECT_EQ(r.cx_count, 3LL * n * (n - 1) / 2) << spec << " n=" << n;
-      EXPECT_TRUE(is_chain(dev, r.chain));
+      for (NetworkChoice network : {NetworkChoice::reversal, NetworkChoice::automatic}) {
+        PlanOptions opt;
+        opt.spec.qubits = n;
+        opt.strategy = "chain";
+        opt.network = network;
+        const auto r = plan_qft(dev, opt);
+        // Fowler, Devitt and Hollenberg (2004): n(n-1)/2 fused blocks in 2n-3 layers; the anchored
+        // network (ours, the default) keeps both and plain controlled phases for the first wire.
+        EXPECT_EQ(r.two_qubit_blocks, static_cast<long long>(n) * (n - 1) / 2) << spec << " n=" << n;
+        EXPECT_EQ(r.depth_2q, 2 * n - 3) << spec << " n=" << n;
+        // Vidal and Dawson, PRA 69, 010301 (2004): 3 CX per fused block, 2 per controlled phase.
+        const long long fused = network == NetworkChoice::reversal ? static_cast<long long>(n) * (n - 1) / 2
+                                                                    : static_cast<long long>(n - 1) * (n - 2) / 2;
+        EXPECT_EQ(r.network, network == NetworkChoice::reversal ? "reversal" : "anchored");
+        EXPECT_EQ(r.swaps, fused) << spec << " n=" << n;
+        EXPECT_EQ(r.cx_count, 3 * fused + 2 * (r.two_qubit_blocks - fused)) << spec << " n=" << n;
+        EXPECT_TRUE(is_chain(dev, r.chain));
+      }
     }
   }
 }

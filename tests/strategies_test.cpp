@@ -3,6 +3,8 @@
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
+#include <numeric>
 #include <random>
 #include <set>
 
@@ -92,6 +94,34 @@ TEST(Spine, HeavyHexagonDepthMeetsThePublishedLinearBound) {
   }
 }
 
+// The same lattices as a chip description would give them: no positions (drawings only) and the
+// qubits numbered in a shuffled order. The spine must not depend on either (found by an audit: the
+// chain search's preference for straight lines needs positions, and without them the longest chain
+// left qubits two hops away). Same bound as above. Larger lattices without positions are beyond the
+// covering search's budget (src/spine_layout.cpp).
+TEST(Spine, HeavyHexagonWithoutPositionsOrTheirNumbering) {
+  std::mt19937 rng(5);
+  for (const std::string spec : {"heavy-hex:2x2", "heavy-hex:3x3", "heavy-hex:4x4", "heavy-hex:5x5", "heavy-hex:6x6", "heavy-hex:3x8"}) {
+    const Device lattice = make_lattice(spec);
+    const int N = lattice.qubit_count();
+    std::vector<int> relabel(N);
+    std::iota(relabel.begin(), relabel.end(), 0);
+    std::shuffle(relabel.begin(), relabel.end(), rng);
+    DeviceDescription d;
+    d.name = spec + " shuffled";
+    d.qubits = N;
+    for (const auto& c : lattice.description().couplers) d.couplers.push_back({relabel[c.a], relabel[c.b], {}, {}});
+    const Device dev(d);
+    ASSERT_FALSE(dev.has_positions());
+    PlanOptions opt;
+    opt.spec.qubits = N;
+    opt.strategy = "spine";
+    const PlanReport r = N <= 80 ? plan_and_check(dev, opt) : plan_qft(dev, opt);
+    EXPECT_LE(r.depth_2q, 5LL * N + 16) << spec << " depth " << r.depth_2q;
+    EXPECT_EQ(r.rotations, static_cast<long long>(N) * (N - 1) / 2);
+  }
+}
+
 TEST(Spine, BundledHeavyHexagonChipsWithEveryQubit) {
   for (const std::string f : {"topologies/harbor-hex-21.yaml", "topologies/harbor-hex-35.yaml"}) {
     const Device dev = load_device((testing::source_dir() / f).string());
@@ -134,19 +164,32 @@ TEST(EveryStrategy, PassesTheCheckerOnTreesRandomGraphsDefectiveGridsAndHeavyHex
 }
 
 TEST(Routed, IsTheBaselineOnDevicesThatHoldAChain) {
-  // On a line the structured planner is optimal in blocks; the report shows the router's figures.
+  // On a line the report shows the router's figures beside the structured plan. The router keeps the
+  // first wire at the end of the line and fuses a rotation with the SWAP after it: 3 C(n-1,2) + 2 (n-1)
+  // CX in n(n-1)/2 blocks, as many as the anchored network, which wins the tie as the first strategy
+  // tried (the reversal network would need 3 n(n-1)/2); the parity network beats both.
   const Device dev = make_line(12);
   PlanOptions opt;
   opt.spec.qubits = 12;
-  const auto r = plan_qft(dev, opt);
-  EXPECT_EQ(r.strategy, "chain");
+  const auto fused = plan_qft(dev, opt);
   bool saw_routed = false;
-  for (const auto& a : r.alternatives)
+  for (const auto& a : fused.alternatives)
     if (a.strategy == "routed" && a.ok) {
       saw_routed = true;
-      EXPECT_GE(a.cx_count, r.cx_count);
+      EXPECT_EQ(a.cx_count, 3 * 55 + 2 * 11);
+      EXPECT_EQ(a.depth_2q, 2 * 12 - 3);
     }
   EXPECT_TRUE(saw_routed);
+  EXPECT_EQ(fused.strategy, "chain");
+  EXPECT_EQ(fused.network, "anchored");
+  EXPECT_EQ(fused.cx_count, 3 * 55 + 2 * 11);
+  EXPECT_EQ(fused.two_qubit_blocks, 66);
+  opt.network = NetworkChoice::parity;
+  const auto parity = plan_qft(dev, opt);
+  EXPECT_EQ(parity.strategy, "chain");
+  EXPECT_EQ(parity.network, "parity");
+  for (const auto& a : parity.alternatives)
+    if (a.strategy == "routed" && a.ok) EXPECT_GT(a.cx_count, parity.cx_count);
 }
 
 TEST(Auto, KeepsTheBestByTheObjective) {

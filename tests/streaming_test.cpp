@@ -338,7 +338,8 @@ TEST(Streaming, SingleStrategyRowCarriesTheReportFigures) {
       EXPECT_DOUBLE_EQ(a.log_esp, r.noise.log_esp);
     }
   EXPECT_TRUE(seen);
-  EXPECT_EQ(r.cx_count, 3LL * 140 * 139 / 2);  // 3 CX per fused block, n(n-1)/2 blocks
+  // Anchored network: 3 CX for each of the (n-1)(n-2)/2 fused blocks, 2 for each of the n-1 plain cp.
+  EXPECT_EQ(r.cx_count, 3LL * 139 * 138 / 2 + 2 * 139);
 }
 
 // Plans stay correct at scale (issue 7): an exact QFT of 2048 qubits on a grid snake, written in
@@ -374,7 +375,7 @@ TEST(Scale, TwoThousandQubitPlansPassTheStructuralProof) {
       EXPECT_EQ(r.cx_count, 2048LL * 2048 - 1);  // parity_qft.hpp: n^2 - 1
     } else if (!c.degree) {
       EXPECT_EQ(r.two_qubit_blocks, 2048LL * 2047 / 2);
-      EXPECT_EQ(r.cx_count, 3LL * 2048 * 2047 / 2);
+      EXPECT_EQ(r.cx_count, 3LL * 2047 * 2046 / 2 + 2 * 2047);  // anchored: the first wire's 2047 plain phases
       EXPECT_EQ(r.depth_2q, 2 * 2048 - 3);
     } else {
       EXPECT_EQ(r.rotations, plan.spec.kept_rotations());

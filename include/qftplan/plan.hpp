@@ -45,7 +45,7 @@ struct PlanOptions {
   std::optional<GateSet> gates;                  ///< emitted gate set; default: the device's native gate
   std::optional<std::vector<int>> placement;     ///< pinned: physical qubit of input bit k
   bool measure = false;                          ///< end with a measurement of every register qubit
-  bool swap_as_cx = false;                       ///< logical gate set: write swap as three cx (OpenQASM 2)
+  bool swap_as_cx = false;                       ///< OpenQASM 2: swap written as three cx, cp and p counted as cu1, u1
   ChainSearchOptions search;                     ///< seed and budget of the chain search
   bool auto_approx = false;                      ///< choose the degree (spec.approx_degree is ignored)
   bool calibration_aware = true;                 ///< pick the chain of highest ESP when calibrated
@@ -151,6 +151,7 @@ struct PlanReport {
   std::vector<StrategyOutcome> alternatives;
   std::string end_order = "free";      ///< end-order policy: "free" or "same"
   long long end_swaps = 0;             ///< SWAPs added to restore the order (in swaps and cx_count too)
+  std::uint64_t seed = 1;              ///< --seed of the searches (re-planning with it gives this plan)
 };
 
 /// A planning strategy: its name (as given to --strategy), a one-line description, and its entry.
@@ -176,5 +177,10 @@ PlanReport plan_qft(const Device& device, const PlanOptions& options);
 
 /// Parses "a,b,c" into qubit ids; InputError on malformed text.
 std::vector<int> parse_id_list(const std::string& text, const std::string& what);
+
+/// Parses an approximation degree as `--approx` takes it: "none" (nullopt) or a whole M in
+/// 1 .. kMaxRegisterQubits; InputError with the command line's message otherwise. ("auto" is the
+/// caller's to handle.)
+std::optional<int> parse_approx_degree(const std::string& text);
 
 }  // namespace qftplan

@@ -71,6 +71,11 @@ std::unique_ptr<QftNetwork> make_reversal_network(int wires, int max_distance);
 /// kept (O(n d) memory) once chunk() asks for random access (the inverse runs it backwards).
 std::unique_ptr<QftNetwork> make_leapfrog_network(int wires, int max_distance);
 
+/// Ours: the first wire stays at the start of the chain and the reversal network of the other wires
+/// runs beside it, each meeting the first with a plain controlled phase just before its Hadamard:
+/// n(n-1)/2 blocks in 2n-3 layers like the reversal network, with n-1 SWAPs fewer.
+std::unique_ptr<QftNetwork> make_anchored_network(int wires, int max_distance);
+
 /// Ours: the reversal network's meetings as parity steps of 2 CX each (parity_qft.hpp); n^2 - 1 CX
 /// for the exact QFT. Its steps, counts and positions are the reversal network's.
 std::unique_ptr<QftNetwork> make_parity_network(int wires, int max_distance);
@@ -83,18 +88,19 @@ std::unique_ptr<QftNetwork> make_hadamard_network(int wires);
 
 /// Which chain network to plan with (--network).
 enum class NetworkChoice {
-  automatic,  ///< reversal when exact, else reversal or leapfrog, whichever has fewer blocks
+  automatic,  ///< anchored when exact, else anchored or leapfrog, whichever has fewer blocks
   reversal,   ///< the fused reversal network
+  anchored,   ///< the fused reversal network of all wires but the first, beside it
   leapfrog,   ///< the fused leapfrog network (approximate degrees 3 .. n-1 only)
   parity,     ///< the parity network
 };
-/// "auto", "reversal", "leapfrog", "parity".
+/// "auto", "reversal", "anchored", "leapfrog", "parity".
 const char* network_choice_name(NetworkChoice c);
 /// Parses a --network value; InputError listing the valid ones otherwise.
 NetworkChoice parse_network_choice(const std::string& text);
 
-/// The network qftplan uses for a spec: reversal when exact; otherwise the one of fewer blocks
-/// (ties go to the reversal network, which has the lower depth).
+/// The network qftplan uses for a spec: anchored when exact; otherwise the one of fewer blocks of
+/// anchored and leapfrog (ties go to the anchored network, which has the lower depth).
 std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec);
 /// The network of `choice` for a spec. Degrees 1 and 2 need no meetings and always get the
 /// hadamard-only and adjacent networks; `leapfrog` on a spec without a leapfrog network (exact, or

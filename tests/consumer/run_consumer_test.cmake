@@ -7,7 +7,7 @@
 # Exact QFT on 8 qubits of a line: the reversal network has n(n-1)/2 = 28 fused blocks of 3 CX each
 # (Fowler, Devitt and Hollenberg, Quantum Inf. Comput. 4, 237, 2004, with every controlled phase
 # fused with its SWAP; 3 CX per two-qubit block: Vidal and Dawson, Phys. Rev. A 69, 010301, 2004).
-set(expected_cx 84)
+set(expected_cx 77)
 
 function(run)
   execute_process(COMMAND ${ARGN} RESULT_VARIABLE rc OUTPUT_VARIABLE out ERROR_VARIABLE err)
