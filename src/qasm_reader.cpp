@@ -3,6 +3,7 @@
 
 #include <algorithm>
 #include <array>
+#include <atomic>
 #include <bit>
 #include <charconv>
 #include <cmath>
@@ -21,6 +22,7 @@
 
 #include "qftplan/input_error.hpp"
 #include "qftplan/qasm_program.hpp"
+#include "qftplan/run_budget.hpp"
 
 namespace qftplan {
 
@@ -255,6 +257,7 @@ struct UserGate {
   std::vector<std::string> params;
   std::vector<std::string> args;
   Pos body;  // just after '{'
+  std::uint64_t size = 0;  // gates one call emits (counted when defined, capped past kMaxGates)
 };
 
 // Where the statements being read live: top level, or inside a gate body (checked once at the
@@ -290,8 +293,8 @@ inline bool ident_char(unsigned char c) { return is_alpha(c) || is_digit(c) || c
 
 class Reader {
  public:
-  Reader(const char* data, std::size_t size, const std::string& source)
-      : begin_(data), p_(data), end_(data + size), line_start_(data), source_(source) {}
+  Reader(const char* data, std::size_t size, const std::string& source, const std::atomic<bool>* interrupt)
+      : begin_(data), p_(data), end_(data + size), line_start_(data), source_(source), interrupt_(interrupt) {}
 
   QasmProgram run() {
     // Skip a UTF-8 byte order mark.
@@ -759,7 +762,12 @@ class Reader {
     while (e > b && std::isspace(static_cast<unsigned char>(e[-1]))) --e;
     char buf[64];
     std::snprintf(buf, sizeof buf, "%.17g", x);
-    fail(at, "angle " + std::string(b, e) + " (= " + buf + ") is not a multiple of pi/2^k");
+    // Readable, but not an angle of the QFT: record the first one and read it as 0.
+    if (!prog_.inexact_angle)
+      prog_.inexact_angle = QasmProgram::InexactAngle{
+          at.line, "angle " + std::string(b, e) + " (= " + buf + ") on line " + std::to_string(at.line) +
+                       " is not a multiple of pi/2^k, as every angle of the QFT is"};
+    return Angle{};
   }
 
   // ----- statements -----
@@ -980,8 +988,16 @@ class Reader {
   void emit(const Gate& g, int line) {
     if (prog_.gates.size() >= kMaxGates)
       throw InputError(source_, line, 0, "more than " + std::to_string(kMaxGates) + " gates");
+    // Ctrl-C while reading a big file (every 65536 gates: an atomic load is cheap, not free).
+    if (interrupt_ && (prog_.gates.size() & 0xffff) == 0 && interrupt_->load(std::memory_order_relaxed))
+      throw Interrupted();
     prog_.gates.push_back(g);
     prog_.gate_lines.push_back(line);
+  }
+
+  // Gates a definition's body emits per call, saturating past the limit.
+  void count_in_definition(std::uint64_t gates) {
+    defining_size_ = std::min<std::uint64_t>(defining_size_ + gates, kMaxGates + 1);
   }
 
   void measure(const Pos& at) {
@@ -1068,8 +1084,10 @@ class Reader {
     sc.gate = &g;
     sc.eval = false;
     defining_ = &g;
+    defining_size_ = 0;
     body_statements(sc);
     defining_ = nullptr;
+    g.size = defining_size_;
     user_gates_.emplace(g.name, std::move(g));
   }
 
@@ -1154,6 +1172,7 @@ class Reader {
 
     if (builtin) {
       if (builtin->fixed) angle = builtin->angle;
+      if (!sc.eval && !builtin->identity) count_in_definition(static_cast<std::uint64_t>(reps));
       for (int i = 0; i < reps; ++i) {
         const int q0 = ops[0].first + (ops[0].reg ? i : 0);
         const int q1 = want_qubits == 2 ? ops[1].first + (ops[1].reg ? i : 0) : -1;
@@ -1163,6 +1182,12 @@ class Reader {
       }
       return;
     }
+    // A call's size is known from the definition: refuse one that would pass the limit before
+    // expanding it (nested definitions can double at every level).
+    const std::uint64_t call_size = std::min<std::uint64_t>(user->size, kMaxGates + 1) * static_cast<std::uint64_t>(reps);
+    if (!sc.eval) count_in_definition(call_size);
+    else if (prog_.gates.size() + call_size > kMaxGates)
+      fail(at, "gate " + std::string(name) + " expands to more than " + std::to_string(kMaxGates) + " gates in all");
 
     std::vector<int> qs(ops.size());
     for (int i = 0; i < reps; ++i) {
@@ -1219,6 +1244,8 @@ class Reader {
   std::string last_reg_name_;
   std::unordered_map<std::string, UserGate, NameHash, NameEq> user_gates_;
   const UserGate* defining_ = nullptr;
+  std::uint64_t defining_size_ = 0;
+  const std::atomic<bool>* interrupt_;
   std::unordered_map<std::string_view, int> pow2_cache_;
   std::vector<Operand> ops_scratch_;
   std::deque<std::vector<Operand>> scratch_;  // deque: references stay valid while it grows
@@ -1228,12 +1255,12 @@ class Reader {
 
 }  // namespace
 
-QasmProgram parse_qasm(const std::string& text, const std::string& source) {
-  Reader r(text.data(), text.size(), source);
+QasmProgram parse_qasm(const std::string& text, const std::string& source, const std::atomic<bool>* interrupt) {
+  Reader r(text.data(), text.size(), source, interrupt);
   return r.run();
 }
 
-QasmProgram load_qasm_file(const std::string& path) {
+QasmProgram load_qasm_file(const std::string& path, const std::atomic<bool>* interrupt) {
   // Map the file instead of copying it: big circuits are tens of megabytes.
   const int fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
   if (fd < 0) throw InputError(path, 0, 0, std::string("cannot open file: ") + std::strerror(errno));
@@ -1245,7 +1272,7 @@ QasmProgram load_qasm_file(const std::string& path) {
   const auto size = static_cast<std::size_t>(st.st_size);
   if (size == 0) {
     ::close(fd);
-    return parse_qasm(std::string(), path);
+    return parse_qasm(std::string(), path, interrupt);
   }
   void* map = ::mmap(nullptr, size, PROT_READ, MAP_PRIVATE | MAP_POPULATE, fd, 0);
   ::close(fd);
@@ -1255,7 +1282,7 @@ QasmProgram load_qasm_file(const std::string& path) {
     std::size_t n;
     ~Unmap() { ::munmap(p, n); }
   } unmap{map, size};
-  Reader r(static_cast<const char*>(map), size, path);
+  Reader r(static_cast<const char*>(map), size, path, interrupt);
   return r.run();
 }
 

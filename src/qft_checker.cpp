@@ -21,6 +21,7 @@
 #include <unordered_map>
 
 #include "qftplan/qft_checker.hpp"
+#include "qftplan/run_budget.hpp"
 #include "qftplan/statevector.hpp"
 
 namespace qftplan {
@@ -115,11 +116,13 @@ class WideAngle {
     const unsigned s = static_cast<unsigned>(p % 64);
     const std::uint64_t lo = mag << s, hi = s ? mag >> (64 - s) : 0;
     if (!negative) {
-      unsigned __int128 carry = 0;
+      std::uint64_t carry = 0;
       for (std::size_t j = i; j < w_.size() && (j <= i + 1 || carry); ++j) {
-        const unsigned __int128 sum = static_cast<unsigned __int128>(w_[j]) + (j == i ? lo : j == i + 1 ? hi : 0) + carry;
-        w_[j] = static_cast<std::uint64_t>(sum);
-        carry = sum >> 64;
+        const std::uint64_t add = (j == i ? lo : j == i + 1 ? hi : 0);
+        const std::uint64_t sum = w_[j] + add;
+        const std::uint64_t out = sum + carry;
+        carry = (sum < add || out < sum) ? 1 : 0;
+        w_[j] = out;
       }
     } else {
       std::uint64_t borrow = 0;
@@ -224,9 +227,11 @@ struct StructuralChecker::Impl {
   // h-cz-h sandwiches (h t; cz c,t; h t == cx c,t). An H is held back until the next gate on its
   // qubit; a cz meeting a held H is held too (on both its qubits, since either may turn out to be
   // the target), and the next gate on either qubit decides: an h on a qubit with a held H closes
-  // the sandwich, anything else releases the held gates unchanged.
-  std::vector<char> pend_h;
-  std::vector<int> pend_h_line;
+  // the sandwich, anything else releases the held gates unchanged. Two H's held on one qubit (h h)
+  // are the identity unless a cz follows: then the first is a Hadamard of its own and the second
+  // opens a sandwich.
+  std::vector<char> pend_h;       // H's held on the qubit: 0, 1 or 2
+  std::vector<int> pend_h_line;   // line of the first
   std::vector<int> cz_partner;    // the other qubit of a held cz, or -1 (kept on both qubits)
   std::vector<int> cz_line;
 
@@ -372,6 +377,11 @@ struct StructuralChecker::Impl {
         apply(Gate{GateKind::cx, c, q, Angle{}}, line_cz);
         return;
       }
+      // A second H on the qubit is held too (h h is the identity); a third cancels one of them.
+      if (c < 0 && pend_h[q]) {
+        pend_h[q] = pend_h[q] == 1 ? 2 : 1;
+        return;
+      }
       release(q);
       pend_h[q] = 1;
       pend_h_line[q] = line;
@@ -382,6 +392,12 @@ struct StructuralChecker::Impl {
       // cannot open a sandwich around this cz).
       flush_pair(g.q0);
       flush_pair(g.q1);
+      // h h before a cz: the first is a Hadamard of its own, the second may open a sandwich.
+      for (int x : {g.q0, g.q1})
+        if (pend_h[x] == 2) {
+          pend_h[x] = 1;
+          apply(Gate{GateKind::h, x, -1, Angle{}}, pend_h_line[x]);
+        }
       if (pend_h[g.q0] || pend_h[g.q1]) {
         cz_partner[g.q0] = g.q1;
         cz_partner[g.q1] = g.q0;
@@ -397,10 +413,8 @@ struct StructuralChecker::Impl {
   // Applies whatever is held on qubit q (and the other half of a held cz).
   void release(int q) {
     flush_pair(q);
-    if (pend_h[q]) {
-      pend_h[q] = 0;
-      apply(Gate{GateKind::h, q, -1, Angle{}}, pend_h_line[q]);
-    }
+    if (pend_h[q] == 1) apply(Gate{GateKind::h, q, -1, Angle{}}, pend_h_line[q]);
+    pend_h[q] = 0;  // two held H's cancel
   }
   // Applies a held cz on q with the held H's that precede it.
   void flush_pair(int q) {
@@ -709,9 +723,17 @@ struct StructuralChecker::Impl {
     // The qubit now holds y XOR L (kept sorted).
     Parity np;
     np.c = 0;
-    for (int i = 0; i < rest_size; ++i) np.v[np.size++] = rest[i];
-    np.v[np.size++] = y;
-    std::sort(np.v, np.v + np.size);
+    if (rest_size >= kMaxParity) return cannot_prove("a Hadamard on a parity too wide to track", line);
+    // rest is sorted (taken in order from a sorted parity): put y in its place.
+    bool placed = false;
+    for (int i = 0; i < rest_size; ++i) {
+      if (!placed && y < rest[i]) {
+        np.v[np.size++] = y;
+        placed = true;
+      }
+      np.v[np.size++] = rest[i];
+    }
+    if (!placed) np.v[np.size++] = y;
     par[q] = np;
     if (p.c) add_single(y, Angle(1, 0), line);
     // The remaining terms of the parity case: pi L y, and pi L when c = 0.
@@ -1050,12 +1072,24 @@ CheckResult check_qft_circuit(const Device& device, const QasmProgram& program, 
                      line_of(i));
   }
 
+  // A rotation angle that is no multiple of pi/2^k: the QFT uses none, and neither check can follow
+  // it exactly.
+  if (program.inexact_angle) {
+    CheckResult r = failure("cannot prove: " + program.inexact_angle->message, program.inexact_angle->line);
+    r.inconclusive = true;
+    return r;
+  }
+
   // b. Structural proof.
   CheckResult structural;
   bool structural_ran = false;
   if (request.structural) {
     StructuralChecker sc(device, request.spec, request.placement);
-    for (std::size_t i = 0; i < program.gates.size() && !sc.failed(); ++i) sc.gate(program.gates[i], line_of(i));
+    for (std::size_t i = 0; i < program.gates.size() && !sc.failed(); ++i) {
+      if ((i & 0xffff) == 0 && request.interrupt && request.interrupt->load(std::memory_order_relaxed))
+        throw Interrupted();
+      sc.gate(program.gates[i], line_of(i));
+    }
     structural = sc.finish(request.final_placement);
     structural_ran = true;
     if (!structural.ok && !structural.inconclusive) return structural;
@@ -1065,7 +1099,15 @@ CheckResult check_qft_circuit(const Device& device, const QasmProgram& program, 
   SimOutcome sim;
   if (n <= request.statevector_limit) {
     sim = simulate(device, program, request);
-    if (sim.ran && !sim.ok) return failure(sim.message, 0);
+    if (sim.ran && !sim.ok) {
+      // Simulation decides, but names no line: the line where the proof lost track is the place
+      // to look (the circuit is wrong from there on or before).
+      if (structural_ran && structural.line > 0)
+        return failure(sim.message + "; the structural proof stopped at line " + std::to_string(structural.line) +
+                           " (" + structural.message + ")",
+                       structural.line);
+      return failure(sim.message, 0);
+    }
   }
 
   CheckResult r;

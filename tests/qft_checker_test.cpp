@@ -498,10 +498,21 @@ TEST(QftChecker, SecondHadamardOnAWireFails) {
   const Device dev = full_device(n);
   auto g = textbook_qft(n, true);
   g.push_back(make_gate(GateKind::h, 0));
-  g.push_back(make_gate(GateKind::h, 0));
   const auto s = structural_only(dev, g, request(make_spec(n), identity(n), identity(n)));
   EXPECT_FALSE(s.ok);
   EXPECT_NE(s.message.find("second Hadamard"), std::string::npos) << s.message;
+  // Two more, h h, are the identity (H^2 = I): the circuit is the QFT again, at the end, at the
+  // start, and before a cz, where the second H opens an h-cz-h sandwich (a cx written with cz).
+  g.push_back(make_gate(GateKind::h, 0));
+  expect_passes_both(dev, g, request(make_spec(n), identity(n), identity(n)), "h h at the end");
+  auto front = textbook_qft(n, true);
+  front.insert(front.begin(), {make_gate(GateKind::h, 1), make_gate(GateKind::h, 1)});
+  expect_passes_both(dev, front, request(make_spec(n), identity(n), identity(n)), "h h at the start");
+  auto sandwich = textbook_qft(n, true);
+  // ... h 2 (its Hadamard) then cx(0 -> 2) written as h 2; cz 0,2; h 2, and the cx undone again.
+  for (int k = 0; k < 2; ++k)
+    sandwich.insert(sandwich.end(), {make_gate(GateKind::h, 2), make_gate(GateKind::cz, 0, 2), make_gate(GateKind::h, 2)});
+  expect_passes_both(dev, sandwich, request(make_spec(n), identity(n), identity(n)), "cx cx as sandwiches");
 }
 
 TEST(QftChecker, TextbookCircuitNeedsTheCouplers) {

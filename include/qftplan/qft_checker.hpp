@@ -2,6 +2,7 @@
 /// \file qft_checker.hpp
 /// Decides whether a circuit on a device implements a given QFT with given qubit maps.
 
+#include <atomic>
 #include <complex>
 #include <memory>
 #include <optional>
@@ -22,6 +23,7 @@ struct CheckRequest {
   std::vector<int> final_placement;  ///< physical qubit holding output bit k at the end
   int statevector_limit = 16;        ///< simulate when spec.qubits <= this
   bool structural = true;            ///< run the structural proof (any size)
+  const std::atomic<bool>* interrupt = nullptr;  ///< when set and true: throw Interrupted (run_budget.hpp)
 };
 
 /// Outcome. `ok` false comes with the first offending gate's line (0 when not tied to a line).
