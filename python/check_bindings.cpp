@@ -33,18 +33,7 @@ Verdict check_program(const QasmProgram& prog, const std::string& source, const 
   req.spec.qubits = qubits;
   const std::string approx_str = approx_text(approx);
   // `check` takes a degree or none (an automatic choice names no transform to check against).
-  if (approx_str != "none") {
-    std::size_t used = 0;
-    int v = 0;
-    try {
-      v = std::stoi(approx_str, &used);
-    } catch (const std::exception&) {
-      used = 0;
-    }
-    if (used != approx_str.size() || v < 1)
-      throw InputError("--approx expects 'none' or a degree M >= 1, got '" + approx_str + "'");
-    req.spec.approx_degree = v;
-  }
+  req.spec.approx_degree = parse_approx_degree(approx_str);
   req.spec.inverse = inverse;
   if (qubits < 1) throw InputError("--qubits must be at least 1");
   if (auto m = map_arg(initial, "--initial")) req.placement = *m;

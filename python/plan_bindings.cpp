@@ -18,21 +18,6 @@ namespace qftplan::python {
 
 namespace {
 
-// The command line's reading of --approx (same messages).
-std::optional<int> parse_degree(const std::string& text) {
-  if (text == "none") return std::nullopt;
-  std::size_t used = 0;
-  int v = 0;
-  try {
-    v = std::stoi(text, &used);
-  } catch (const std::exception&) {
-    used = 0;
-  }
-  if (used != text.size() || text.empty() || v < 1)
-    throw InputError("--approx expects 'none' or a degree M >= 1, got '" + text + "'");
-  return v;
-}
-
 QasmVersion version_arg(const py::object& format) {
   if (py::isinstance<py::int_>(format)) {
     const int v = format.cast<int>();
@@ -83,7 +68,7 @@ Plan make_plan(const py::object& device, int qubits, const py::object& approx, b
   opt.spec.qubits = qubits;
   const std::string approx_str = approx_text(approx);
   if (approx_str == "auto") opt.auto_approx = true;
-  else opt.spec.approx_degree = parse_degree(approx_str);
+  else opt.spec.approx_degree = parse_approx_degree(approx_str);
   opt.spec.inverse = inverse;
   if (!gates.is_none()) opt.gates = parse_gate_set(gates.cast<std::string>());
   opt.placement = placement_arg(placement);

@@ -19,10 +19,25 @@ std::runtime_error io_error(const std::string& what, const std::string& path) {
 }  // namespace
 
 AtomicFile::AtomicFile(std::string path) : path_(std::move(path)) {
-  const std::filesystem::path p(path_);
-  if (std::filesystem::is_directory(p)) {
+  std::filesystem::path p(path_);
+  // A symbolic link is written through: the file it names is replaced, the link stays.
+  std::error_code ec;
+  if (std::filesystem::is_symlink(std::filesystem::symlink_status(p, ec))) {
+    const auto resolved = std::filesystem::weakly_canonical(p, ec);
+    if (!ec) p = resolved;
+  }
+  target_ = p.string();
+  struct stat st {};
+  const bool exists = ::stat(target_.c_str(), &st) == 0;
+  if (exists && S_ISDIR(st.st_mode)) {
     errno = EISDIR;
     throw io_error("cannot write", path_);
+  }
+  if (exists && !S_ISREG(st.st_mode)) {
+    // A device, pipe or socket (/dev/null, a FIFO): there is nothing to rename onto; write to it.
+    file_ = std::fopen(target_.c_str(), "wb");
+    if (!file_) throw io_error("cannot open", path_);
+    return;
   }
   const auto dir = p.has_parent_path() ? p.parent_path() : std::filesystem::path(".");
   std::string templ = (dir / ("." + p.filename().string() + ".tmp-XXXXXX")).string();
@@ -31,7 +46,16 @@ AtomicFile::AtomicFile(std::string path) : path_(std::move(path)) {
   const int fd = ::mkstemp(buf.data());
   if (fd < 0) throw io_error("cannot create a temporary file beside it", path_);
   temp_ = buf.data();
-  ::fchmod(fd, 0644);
+  // The mode of the file it replaces, or of a new file under the umask (mkstemp makes 0600).
+  mode_t mode = 0;
+  if (exists) {
+    mode = st.st_mode & 07777;
+  } else {
+    const mode_t mask = ::umask(0);
+    ::umask(mask);
+    mode = 0666 & ~mask;
+  }
+  ::fchmod(fd, mode);
   file_ = ::fdopen(fd, "wb");
   if (!file_) {
     ::close(fd);
@@ -54,7 +78,9 @@ void AtomicFile::write(std::string_view text) {
 void AtomicFile::flush() {
   if (!file_) return;
   if (std::fflush(file_) != 0) throw io_error("write failed", path_);
-  if (::fsync(::fileno(file_)) != 0 && errno != EINVAL) throw io_error("write failed", path_);
+  // Devices and pipes may not sync (EINVAL, EROFS); files must.
+  if (::fsync(::fileno(file_)) != 0 && errno != EINVAL && errno != EROFS && !temp_.empty())
+    throw io_error("write failed", path_);
   const int rc = std::fclose(file_);
   file_ = nullptr;
   if (rc != 0) throw io_error("write failed", path_);
@@ -63,7 +89,8 @@ void AtomicFile::flush() {
 void AtomicFile::commit() {
   flush();
   if (committed_) return;
-  if (std::rename(temp_.c_str(), path_.c_str()) != 0) throw io_error("cannot rename the finished file into place", path_);
+  if (!temp_.empty() && std::rename(temp_.c_str(), target_.c_str()) != 0)
+    throw io_error("cannot rename the finished file into place", path_);
   committed_ = true;
 }
 

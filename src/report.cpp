@@ -36,6 +36,7 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
                                  : nlohmann::ordered_json(nullptr);
   j["end_order"] = r.end_order;
   j["end_swaps"] = r.end_swaps;
+  j["seed"] = r.seed;
   j["cx_count"] = r.cx_count;
   j["cx_depth"] = r.cx_depth;
   j["gate_counts"] = r.gate_counts;

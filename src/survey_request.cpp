@@ -9,6 +9,7 @@
 #include "qftplan/device_source.hpp"
 #include "qftplan/input_error.hpp"
 #include "qftplan/lattices.hpp"
+#include "qftplan/plan.hpp"
 
 namespace qftplan {
 namespace {
@@ -87,11 +88,9 @@ std::vector<ApproxSetting> parse_approx_list(const std::string& text) {
       a.kind = ApproxSetting::Kind::exact;
     } else if (item == "auto") {
       a.kind = ApproxSetting::Kind::automatic;
-    } else if (const auto m = whole(item); m && *m >= 1) {
-      a.kind = ApproxSetting::Kind::degree;
-      a.degree = *m;
     } else {
-      throw InputError(fmt::format("--approx: '{}' is not 'none', 'auto' or a degree M >= 1", item));
+      a.kind = ApproxSetting::Kind::degree;
+      a.degree = *parse_approx_degree(item);  // the messages of plan's --approx
     }
     if (std::find(out.begin(), out.end(), a) == out.end()) out.push_back(a);
   }

@@ -296,12 +296,12 @@ TEST(Limits, DeviceCapIsClear) {
 }
 
 // A big register with a big degree used to build the leapfrog network in memory (n * 2d steps of 12
-// bytes: 3 GB here) and die of std::bad_alloc; past 2^25 steps the reversal network streams instead.
+// bytes: 3 GB here) and die of std::bad_alloc; past 2^25 steps the anchored network streams instead.
 TEST(Limits, BigApproximateRegisterNeedsNoHugeMemory) {
   QftSpec spec;
   spec.qubits = 16'384;
   spec.approx_degree = 4000;
-  EXPECT_EQ(choose_network(spec)->name(), "reversal");
+  EXPECT_EQ(choose_network(spec)->name(), "anchored");
   spec.approx_degree = 6;
   EXPECT_EQ(choose_network(spec)->name(), "leapfrog");
 }

@@ -260,7 +260,7 @@ TEST(SurveyInput, BadInputExitsTwoWithAMessage) {
   for (const auto& c : std::vector<Case>{
            {"survey line:* --qubits 4:2", "--qubits: '4:2' ends before it starts"},
            {"survey line:* --qubits 4 --shard 3/2", "--shard: '3/2' is not K/M"},
-           {"survey line:* --qubits 4 --approx 0", "--approx: '0'"},
+           {"survey line:* --qubits 4 --approx 0", "--approx 0 is outside 1 .. 16384"},
            {"survey line:* --qubits 4 --strategy chian", "unknown strategy 'chian'"},
            {"survey torus:* --qubits 4", "unknown family 'torus'"},
            {"survey /nonexistent/chip.yaml --qubits 4", "/nonexistent/chip.yaml"},

@@ -17,7 +17,9 @@ class TextOutput {
 };
 
 /// A file written atomically. Destroying it without commit() removes the temporary, leaving any
-/// existing file at `path` untouched. Throws std::runtime_error naming the path on I/O failure.
+/// existing file at `path` untouched. A symbolic link is followed (the file it names is replaced,
+/// keeping its mode); a device or pipe at `path` (/dev/null, a FIFO) is written directly, since
+/// there is nothing to rename onto. Throws std::runtime_error naming the path on I/O failure.
 class AtomicFile final : public TextOutput {
  public:
   explicit AtomicFile(std::string path);
@@ -34,7 +36,8 @@ class AtomicFile final : public TextOutput {
 
  private:
   std::string path_;
-  std::string temp_;
+  std::string target_;  // path_ with a symbolic link resolved
+  std::string temp_;    // empty when writing directly to a device or pipe
   std::FILE* file_ = nullptr;
   bool committed_ = false;
 };

@@ -4,11 +4,14 @@
 #include <signal.h>
 
 #include <atomic>
+#include <algorithm>
 #include <chrono>
 #include <cctype>
 #include <cmath>
 #include <csignal>
+#include <cerrno>
 #include <cstdio>
+#include <cstring>
 #include <filesystem>
 #include <iostream>
 #include <new>
@@ -85,20 +88,6 @@ std::optional<double> parse_time_limit(const std::string& text) {
   return v;
 }
 
-std::optional<int> parse_approx(const std::string& text) {
-  if (text == "none") return std::nullopt;
-  std::size_t used = 0;
-  int v = 0;
-  try {
-    v = std::stoi(text, &used);
-  } catch (const std::exception&) {
-    used = 0;
-  }
-  if (used != text.size() || text.empty() || v < 1)
-    throw InputError("--approx expects 'none' or a degree M >= 1, got '" + text + "'");
-  return v;
-}
-
 // An output destination: "-" is standard output; anything else a file written atomically.
 struct Destination {
   std::unique_ptr<AtomicFile> file;
@@ -147,26 +136,36 @@ struct PlanArgs {
   std::string objective = "esp";
   std::string end_order = "free";
   std::string network = "auto";
+  bool placement_given = false;  // --placement was on the command line (even empty)
 };
+
+// Two outputs that would be one file: both would commit and the last would win. Standard output
+// ("-") and devices such as /dev/null can take several writers.
+bool same_output_file(const std::string& a, const std::string& b) {
+  if (a.empty() || b.empty() || a == "-" || b == "-") return false;
+  std::error_code ec;
+  const auto ca = std::filesystem::weakly_canonical(a, ec);
+  if (ec || ca != std::filesystem::weakly_canonical(b, ec) || ec) return false;
+  const auto st = std::filesystem::status(ca, ec);
+  return !std::filesystem::exists(st) || std::filesystem::is_regular_file(st);
+}
 
 int run_plan(const PlanArgs& a) {
   const auto t0 = std::chrono::steady_clock::now();
   install_stop_handlers();
   // The time limit counts from here, device loading included; every search polls it.
   const RunBudget budget(parse_time_limit(a.time_limit), &g_interrupted);
-  // Two AtomicFiles on one path would both commit and the last would win: refuse it.
-  if (!a.output.empty() && a.output != "-" && !a.report.empty() && a.report != "-" &&
-      std::filesystem::weakly_canonical(a.output) == std::filesystem::weakly_canonical(a.report))
+  if (same_output_file(a.output, a.report))
     throw InputError("--output and --report name the same file '" + a.output + "'");
   const Device dev = load_device(a.device);
   PlanOptions opt;
   opt.budget = &budget;
   opt.spec.qubits = a.qubits;
   if (a.approx == "auto") opt.auto_approx = true;
-  else opt.spec.approx_degree = parse_approx(a.approx);
+  else opt.spec.approx_degree = parse_approx_degree(a.approx);
   opt.spec.inverse = a.inverse;
   if (!a.gates.empty()) opt.gates = parse_gate_set(a.gates);
-  if (!a.placement.empty()) opt.placement = parse_id_list(a.placement, "--placement");
+  if (a.placement_given) opt.placement = parse_id_list(a.placement, "--placement");
   opt.search.seed = a.seed;
   // --effort scales the work budgets of the chain and placement searches (not the time limit).
   if (!(a.effort >= 0.01 && a.effort <= 1000))
@@ -234,11 +233,13 @@ struct CheckArgs {
 };
 
 int run_check(const CheckArgs& a) {
+  install_stop_handlers();  // Ctrl-C stops reading and proving (exit 130)
   const Device dev = load_device(a.device);
-  const QasmProgram prog = load_qasm_file(a.file);
+  const QasmProgram prog = load_qasm_file(a.file, &g_interrupted);
   CheckRequest req;
+  req.interrupt = &g_interrupted;
   req.spec.qubits = a.qubits;
-  req.spec.approx_degree = parse_approx(a.approx);
+  req.spec.approx_degree = parse_approx_degree(a.approx);
   req.spec.inverse = a.inverse;
   if (a.qubits < 1) throw InputError("--qubits must be at least 1");
   if (!a.initial.empty()) req.placement = parse_id_list(a.initial, "--initial");
@@ -268,8 +269,7 @@ class OutputSet {
   void add(const std::string& path, std::string text) {
     if (path.empty()) return;
     for (const auto& [p, t] : items_)
-      if (p != "-" && path != "-" && std::filesystem::weakly_canonical(p) == std::filesystem::weakly_canonical(path))
-        throw InputError("two outputs name the same file '" + path + "'");
+      if (same_output_file(p, path)) throw InputError("two outputs name the same file '" + path + "'");
     items_.emplace_back(path, std::move(text));
   }
   bool uses_stdout() const {
@@ -527,9 +527,15 @@ int run_help(const CLI::App& app, const HelpArgs& a) {
 }  // namespace
 
 int main(int argc, char** argv) {
-  CLI::App app{"qftplan: plan quantum Fourier transforms on qubit chips with nearest-neighbour couplers"};
+  // The name is set here, so that usage lines say "qftplan", not the path the program was run by.
+  CLI::App app{"qftplan: plan quantum Fourier transforms on qubit chips with nearest-neighbour couplers", "qftplan"};
   app.require_subcommand(1);
   app.set_version_flag("--version", "qftplan " QFTPLAN_VERSION_STRING);
+
+  // Seeds are unsigned: "-1" would wrap around silently.
+  const CLI::Validator kNonNegative(
+      [](std::string& s) { return !s.empty() && s[0] == '-' ? std::string("must be a non-negative integer") : std::string(); },
+      "UINT");
 
   DeviceArgs da;
   auto* device = app.add_subcommand("device", "print a device (built-in spec or YAML file) as YAML, or its summary");
@@ -549,7 +555,7 @@ int main(int argc, char** argv) {
   plan->add_option("--format", pa.format, "circuit format: qasm3 or qasm2")->capture_default_str();
   plan->add_option("--output,-o", pa.output, "write the circuit to FILE ('-' for standard output)");
   plan->add_option("--report", pa.report, "write the JSON report to FILE ('-' for standard output)");
-  plan->add_option("--seed", pa.seed, "seed of every randomised search")->capture_default_str();
+  plan->add_option("--seed", pa.seed, "seed of every randomised search")->check(kNonNegative)->capture_default_str();
   plan->add_flag("--measure", pa.measure, "end with a measurement of every register qubit");
   plan->add_flag("--explain", pa.explain, "print the chains considered and the degrees scored");
   plan->add_option("--time-limit", pa.time_limit,
@@ -570,8 +576,8 @@ int main(int argc, char** argv) {
                    "the qubit that held input bit k")
       ->capture_default_str();
   plan->add_option("--network", pa.network,
-                   "chain network: auto (reversal when exact, else reversal or leapfrog, fewer blocks), reversal, "
-                   "leapfrog, or parity (ours: n^2-1 CX for the exact QFT instead of 3n(n-1)/2)")
+                   "chain network: auto (anchored when exact, else anchored or leapfrog, fewer blocks), reversal, "
+                   "anchored, leapfrog, or parity (ours: n^2-1 CX for the exact QFT)")
       ->capture_default_str();
 
   CheckArgs ca;
@@ -598,7 +604,7 @@ int main(int argc, char** argv) {
   survey->add_option("--strategy", sa.strategy, "planning strategies, comma-separated (see qftplan help plan)")
       ->capture_default_str();
   survey->add_option("--jobs,-j", sa.jobs, "threads (default: every core)");
-  survey->add_option("--seed", sa.seed, "seed of every randomised search")->capture_default_str();
+  survey->add_option("--seed", sa.seed, "seed of every randomised search")->check(kNonNegative)->capture_default_str();
   survey->add_option("--shard", sa.shard, "run only slice K of M (K/M, 1 <= K <= M): runs K-1, K-1+M, K-1+2M, ...");
   survey->add_option("--time-limit", sa.time_limit,
                      "stop each run's searches after SECONDS and keep its best plan (status time-limit)");
@@ -626,17 +632,44 @@ int main(int argc, char** argv) {
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
-    const int rc = app.exit(e);
-    return rc == 0 ? 0 : kExitBadInput;
+    // --help and --version are ParseErrors with status 0: CLI11 prints them.
+    if (e.get_exit_code() == 0) return app.exit(e);
+    // Everything else is bad input: one line, like every other error.
+    std::string msg = e.what();
+    std::replace(msg.begin(), msg.end(), '\n', ' ');
+    std::string command;
+    for (const auto* c : app.get_subcommands()) command = c->get_name();
+    if (command.empty() && argc >= 2 && argv[1][0] == '-') {
+      msg = "unknown option '" + std::string(argv[1]) + "' (see qftplan --help)";
+    } else if (command.empty() && argc >= 2) {
+      std::string known;
+      for (const auto* c : app.get_subcommands([](const CLI::App*) { return true; }))
+        known += (known.empty() ? "" : ", ") + c->get_name();
+      msg = "unknown command '" + std::string(argv[1]) + "' (commands: " + known + ")";
+    } else {
+      msg += command.empty() ? " (see qftplan --help)" : " (see qftplan help " + command + ")";
+    }
+    std::fprintf(stderr, "qftplan: %s\n", msg.c_str());
+    return kExitBadInput;
   }
+  pa.placement_given = plan->count("--placement") > 0;
+  // Output written to standard output is flushed and checked at the end: a full disk or a closed
+  // stream is an error (exit 2), not silently lost text.
+  const auto finish = [](int rc) {
+    if (std::fflush(stdout) != 0 || std::ferror(stdout)) {
+      std::fprintf(stderr, "qftplan: write to standard output failed: %s\n", std::strerror(errno));
+      return rc == 0 ? kExitBadInput : rc;
+    }
+    return rc;
+  };
   try {
-    if (device->parsed()) return run_device(da);
-    if (plan->parsed()) return run_plan(pa);
-    if (check->parsed()) return run_check(ca);
-    if (help->parsed()) return run_help(app, ha);
-    if (survey->parsed()) return run_survey_command(sa);  // issue 6
-    if (merge->parsed()) return run_merge_command(ma);    // issue 6
-    if (draw->parsed()) return run_draw_command(wa);      // issue 6
+    if (device->parsed()) return finish(run_device(da));
+    if (plan->parsed()) return finish(run_plan(pa));
+    if (check->parsed()) return finish(run_check(ca));
+    if (help->parsed()) return finish(run_help(app, ha));
+    if (survey->parsed()) return finish(run_survey_command(sa));  // issue 6
+    if (merge->parsed()) return finish(run_merge_command(ma));    // issue 6
+    if (draw->parsed()) return finish(run_draw_command(wa));      // issue 6
   } catch (const InputError& e) {
     std::fprintf(stderr, "qftplan: %s\n", e.what());
     return kExitBadInput;

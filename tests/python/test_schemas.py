@@ -115,6 +115,18 @@ def test_survey_rows_validate(qftplan, tmp_path):
         assert r["schema_version"] == qftplan.SURVEY_ROW_SCHEMA_VERSION == 1
 
 
+def test_time_limited_rows_validate(tmp_path):
+    # A search cut short by --time-limit still plans: status time-limit, the figures, and the reason.
+    rows = survey_rows_from_cli(tmp_path, "heavy-hex:*", "--qubits", "100:300:100", "--time-limit", "0.01",
+                                "--strategy", "chain,spine")
+    assert any(r["status"] == "time-limit" for r in rows), [r["status"] for r in rows]
+    v = validator(ROW_SCHEMA)
+    for r in rows:
+        v.validate(r)
+        if r["status"] == "time-limit":
+            assert r["cx_count"] > 0 and r["reason"]
+
+
 def test_schema_rejects_broken_rows(qftplan):
     row = qftplan.survey("line:5", 3)[0]
     v = validator(ROW_SCHEMA)
