@@ -224,24 +224,20 @@ long long end_swap_count(const QftNetwork& network) {
   return r ? r->end_swaps() : 0;
 }
 
-long long network_native_cost(const QftNetwork& network) {
-  const auto c = network.step_counts();
-  const int k_cp = static_cast<int>(Kind::cp), k_swap = static_cast<int>(Kind::swap), k_fused = static_cast<int>(Kind::cp_swap);
-  // The parity network: 2 CX per meeting and the closing ladder of n-1 CX.
-  if (network.parity()) return 2 * (c[k_swap] + c[k_fused]) + std::max(network.wires() - 1, 0);
-  return 2 * c[k_cp] + 3 * (c[k_swap] + c[k_fused]);
-}
-
 std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec, EndOrder order, NetworkChoice choice) {
   auto base = choose_network(spec, choice);
   if (order == EndOrder::free || count_inversions(end_keys(*base)) == 0) return base;
   // A network asked for by name keeps its name: restore its order.
   if (choice != NetworkChoice::automatic) return with_order_restored(std::move(base));
-  // The reversal network reverses the chain, which is exactly the order `same` asks for. Compare
-  // costs first: building the restored network holds all its O(n^2) SWAPs.
-  auto reversal = make_reversal_network(spec.qubits, spec.max_distance());
-  if (restored_cost(*base) < network_native_cost(*reversal)) return with_order_restored(std::move(base));
-  return reversal;
+  // The reversal network reverses the chain, which is exactly the order `same` asks for, and so does
+  // the parity network on its meetings. Compare costs first: building the restored network holds
+  // all its O(n^2) SWAPs.
+  std::unique_ptr<QftNetwork> in_order = make_reversal_network(spec.qubits, spec.max_distance());
+  if (auto parity = make_parity_network(spec.qubits, spec.max_distance());
+      network_native_cost(*parity) < network_native_cost(*in_order))
+    in_order = std::move(parity);
+  if (restored_cost(*base) < network_native_cost(*in_order)) return with_order_restored(std::move(base));
+  return in_order;
 }
 
 namespace {

@@ -406,7 +406,7 @@ static PreparedPlan prepare_spine(const Device& device, const PlanOptions& optio
 const std::vector<StrategyInfo>& plan_strategies() {
   static const std::vector<StrategyInfo> table{
       {"auto", "try every strategy that applies and keep the best by --objective", &prepare_auto},
-      {"chain", "a chain of n qubits carrying the reversal or leapfrog network (needs a simple path of n qubits)",
+      {"chain", "a chain of n qubits carrying one of the networks of --network (needs a simple path of n qubits)",
        &prepare_chain},
       {"spine", "a main chain plus the qubits dangling off it as one line (heavy-hexagon, defective chips)",
        &prepare_spine},

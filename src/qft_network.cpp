@@ -279,20 +279,33 @@ std::unique_ptr<QftNetwork> make_hadamard_network(int wires) { return std::make_
 // big degrees.
 constexpr long long kMaxLeapfrogSteps = 1LL << 25;
 
+long long network_native_cost(const QftNetwork& network) {
+  const auto c = network.step_counts();
+  const int k_cp = static_cast<int>(Kind::cp), k_swap = static_cast<int>(Kind::swap), k_fused = static_cast<int>(Kind::cp_swap);
+  // The parity network: 2 CX per meeting and the closing ladder of n-1 CX.
+  if (network.parity()) return 2 * (c[k_swap] + c[k_fused]) + std::max(network.wires() - 1, 0);
+  return 2 * c[k_cp] + 3 * (c[k_swap] + c[k_fused]);
+}
+
 std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec) {
   const int n = spec.qubits, d = spec.max_distance();
-  if (spec.effectively_exact() || n <= 2) return make_anchored_network(n, d);
-  if (d == 0) return make_hadamard_network(n);
-  if (d == 1) return make_adjacent_network(n);
-  // The leapfrog network has at most 2 d blocks per wire; build it only when that can beat the
-  // anchored network, which has as many blocks as the reversal network's n(n-1)/2, at most (it
-  // holds its n*2d steps in memory).
-  const long long reversal = static_cast<long long>(n) * (n - 1) / 2;
-  if (2LL * n * d < 2 * reversal && 2LL * n * d <= kMaxLeapfrogSteps) {
+  if (n <= 2) return make_anchored_network(n, d);
+  if (!spec.effectively_exact() && d == 0) return make_hadamard_network(n);
+  if (!spec.effectively_exact() && d == 1) return make_adjacent_network(n);
+  // Fewest native two-qubit gates wins (each carries a coupler's error, so this is what the ESP
+  // weighs most); every cost comes from closed-form step counts, so nothing is built in vain.
+  auto best = make_anchored_network(n, d);
+  long long best_cost = network_native_cost(*best);
+  auto parity = make_parity_network(n, d);
+  if (const long long c = network_native_cost(*parity); c < best_cost) best = std::move(parity), best_cost = c;
+  // The leapfrog network holds its (at most 2 d per wire) steps in memory: build it only when it can
+  // win, its kept rotations taking 2 CX each at least.
+  const long long kept = static_cast<long long>(d) * n - static_cast<long long>(d) * (d + 1) / 2;
+  if (!spec.effectively_exact() && 2LL * n * d <= kMaxLeapfrogSteps && 2 * kept < best_cost) {
     auto leap = make_leapfrog_network(n, d);
-    if (leap->block_count() < reversal) return leap;
+    if (const long long c = network_native_cost(*leap); c < best_cost) best = std::move(leap), best_cost = c;
   }
-  return make_anchored_network(n, d);
+  return best;
 }
 
 const char* network_choice_name(NetworkChoice c) {
@@ -316,8 +329,11 @@ NetworkChoice parse_network_choice(const std::string& text) {
 std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec, NetworkChoice choice) {
   const int n = spec.qubits, d = spec.max_distance();
   if (choice == NetworkChoice::automatic || n <= 1) return choose_network(spec);
-  if (!spec.effectively_exact() && d == 0) return make_hadamard_network(n);
-  if (!spec.effectively_exact() && d == 1) return make_adjacent_network(n);
+  // Reversal and parity are built as named at every degree: they end in order, which is why they
+  // are asked for (and why `--end-order same` may pick them at degree 2).
+  const bool in_order = choice == NetworkChoice::reversal || choice == NetworkChoice::parity;
+  if (!in_order && !spec.effectively_exact() && d == 0) return make_hadamard_network(n);
+  if (!in_order && !spec.effectively_exact() && d == 1) return make_adjacent_network(n);
   switch (choice) {
     case NetworkChoice::reversal: return make_reversal_network(n, d);
     case NetworkChoice::anchored: return make_anchored_network(n, d);

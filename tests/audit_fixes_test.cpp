@@ -172,7 +172,7 @@ TEST(Routed, FusesPhasesWithTheirSwaps) {
 
 // OpenQASM 2 reports count gates by the file's names (cu1, u1), and every report names its seed.
 TEST(Report, QasmTwoNamesAndTheSeed) {
-  const auto r = run_qftplan("plan --device line:5 --qubits 5 --gates logical --format qasm2 --seed 7 --report -");
+  const auto r = run_qftplan("plan --device line:5 --qubits 5 --gates logical --network anchored --format qasm2 --seed 7 --report -");
   ASSERT_EQ(r.status, 0) << r.err;
   EXPECT_NE(r.out.find("\"cu1\": 10"), std::string::npos) << r.out;
   EXPECT_EQ(r.out.find("\"cp\""), std::string::npos);

@@ -58,7 +58,7 @@ class Mutated : public ::testing::Test {
   void SetUp() override {
     dir = temp_dir();
     good = (dir / "good.qasm").string();
-    const auto r = run_qftplan("plan --device grid:3x3 --qubits 5 --gates logical --output '" + good + "'");
+    const auto r = run_qftplan("plan --device grid:3x3 --qubits 5 --gates logical --network anchored --output '" + good + "'");
     ASSERT_EQ(r.status, 0) << r.err;
     text = read_file(good);
   }
@@ -242,7 +242,7 @@ TEST(Cli, ReportCountsMatchTheFile) {
   EXPECT_NE(r.out.find("\"cx\": " + std::to_string(cx)), std::string::npos);
   EXPECT_NE(r.out.find("\"h\": " + std::to_string(h)), std::string::npos);
   EXPECT_NE(r.out.find("\"rz\": " + std::to_string(rz)), std::string::npos);
-  EXPECT_EQ(cx, 3 * 36 + 2 * 9);  // the anchored network: 36 fused blocks and 9 plain controlled phases
+  EXPECT_EQ(cx, 10 * 10 - 1);  // the parity network (auto's choice at n = 10): n^2 - 1 CX
   std::filesystem::remove_all(dir);
 }
 

@@ -82,12 +82,15 @@ TEST(DrawnPlan, LoadsAddUpToTheReportsBlocks) {
 
 // On a chain the exact QFT needs n(n-1)/2 blocks (one per controlled rotation: Nielsen & Chuang
 // 2000, section 5.1; fused with SWAPs as in Fowler, Devitt and Hollenberg 2004), all of them on the
-// chain's couplers and none elsewhere.
+// chain's couplers and none elsewhere. The parity network (ours) adds a closing ladder of n-1 CX,
+// each drawn as a block.
 TEST(DrawnPlan, ChainPlanLoadsSitOnTheChain) {
+  for (NetworkChoice net : {NetworkChoice::anchored, NetworkChoice::parity}) {
   const Device dev = load_device("grid:4x4");
   PlanOptions opt;
   opt.spec.qubits = 11;
   opt.strategy = "chain";
+  opt.network = net;
   const PlanReport r = plan_qft(dev, opt);
   const DrawnPlan d = drawn_plan_from_report(dev, report_to_json(r), "r.json");
   long long on_chain = 0;
@@ -97,7 +100,9 @@ TEST(DrawnPlan, ChainPlanLoadsSitOnTheChain) {
     EXPECT_GT(d.coupler_blocks[c], 0);
     on_chain += d.coupler_blocks[c];
   }
-  EXPECT_EQ(on_chain, 11 * 10 / 2);
+  EXPECT_EQ(on_chain, 11 * 10 / 2 + (net == NetworkChoice::parity ? 10 : 0));
+  EXPECT_EQ(on_chain, r.two_qubit_blocks);
+  }
 }
 
 TEST(DrawnPlan, ReportsThatDoNotFitAreRejected) {

@@ -240,20 +240,23 @@ TEST(EndOrder, RestoringSwapsMergeIntoTheLastStep) {
   for (const auto* net : {a.get(), b.get(), c.get()}) EXPECT_EQ(net->final_positions(), (std::vector<int>{1, 0}));
 }
 
-// The reversal network already ends in order: nothing is added, and choose_network keeps it (on one
-// qubit every network is a lone Hadamard and the first listed, anchored, is kept).
+// The reversal network already ends in order, and so does the parity network built on its meetings:
+// nothing is added. choose_network keeps the parity network from n = 3 on (n^2 - 1 against
+// 3 n(n-1)/2 CX).
 TEST(EndOrder, ReversalNetworkNeedsNoSwaps) {
-  for (int n : {1, 2, 3, 5, 16}) {
+  for (int n : {2, 3, 4, 5, 16}) {
     const auto net = choose_network(QftSpec{n, std::nullopt, false}, EndOrder::same);
-    if (n > 1) EXPECT_EQ(net->name(), "reversal") << n;
+    EXPECT_EQ(net->name(), n == 2 ? "reversal" : "parity") << n;  // 3 against 3 CX at n = 2
     EXPECT_EQ(end_swap_count(*net), 0) << n;
   }
+  EXPECT_EQ(end_swap_count(*make_parity_network(9, 8)), 0);
 }
 
 // Within a chain, ending in order means reversing the chain (n(n-1)/2 adjacent transpositions at
 // least, Knuth 5.1.1), which the reversal network does while it rotates; the leapfrog network plus the
-// restoring SWAPs always costs more CX here, so `same` plans the reversal network. Measured (ours):
-// n = 64, M = 4: leapfrog 1098 CX, + 2010 restoring SWAPs = 7128 CX, reversal 6048 CX.
+// restoring SWAPs always costs more CX here, so `same` plans a network that ends in order: the
+// parity network for n >= 5. Measured (ours): n = 64, M = 4: leapfrog 1098 CX, + 2010 restoring
+// SWAPs = 7128 CX, reversal 6048 CX, parity 4095.
 TEST(EndOrder, SameChoosesTheCheaperNetwork) {
   for (int n : {8, 16, 64})
     for (int M : {2, 3, 4, 6}) {
@@ -261,8 +264,10 @@ TEST(EndOrder, SameChoosesTheCheaperNetwork) {
       const auto chosen = choose_network(spec, EndOrder::same);
       const auto restored = with_order_restored(choose_network(spec));
       const auto reversal = make_reversal_network(n, spec.max_distance());
-      EXPECT_EQ(network_native_cost(*chosen), std::min(network_native_cost(*restored), network_native_cost(*reversal)));
-      EXPECT_EQ(chosen->name(), "reversal") << "n=" << n << " M=" << M;
+      const auto parity = make_parity_network(n, spec.max_distance());
+      EXPECT_EQ(network_native_cost(*chosen), std::min({network_native_cost(*restored), network_native_cost(*reversal),
+                                                        network_native_cost(*parity)}));
+      EXPECT_EQ(chosen->name(), "parity") << "n=" << n << " M=" << M;
     }
   const QftSpec s{64, 4, false};
   EXPECT_EQ(network_native_cost(*with_order_restored(choose_network(s))), 7128);

@@ -73,9 +73,13 @@ TEST(ParityNetwork, ApproximateAndInverseKeepTheCounts) {
 TEST(ParityNetwork, NamedNetworksAndTheirErrors) {
   EXPECT_EQ(plan_line(10, NetworkChoice::reversal, 4).network, "reversal");
   EXPECT_EQ(plan_line(10, NetworkChoice::leapfrog, 4).network, "leapfrog");
-  // Degrees 1 and 2 need no meetings.
-  EXPECT_EQ(plan_line(10, NetworkChoice::parity, 2).network, "adjacent");
-  EXPECT_EQ(plan_line(10, NetworkChoice::parity, 1).network, "hadamard-only");
+  // Degrees 1 and 2 need no meetings; parity and reversal are still built as named (they end in
+  // order, which --end-order same may want), the others give way.
+  EXPECT_EQ(plan_line(10, NetworkChoice::anchored, 2).network, "adjacent");
+  EXPECT_EQ(plan_line(10, NetworkChoice::anchored, 1).network, "hadamard-only");
+  EXPECT_EQ(plan_line(10, NetworkChoice::parity, 2).network, "parity");
+  EXPECT_EQ(plan_line(10, NetworkChoice::parity, 1).network, "parity");
+  EXPECT_EQ(plan_line(10, NetworkChoice::reversal, 1).network, "reversal");
   try {
     plan_line(10, NetworkChoice::leapfrog);
     ADD_FAILURE() << "leapfrog for the exact QFT";
@@ -98,6 +102,7 @@ TEST(ParityNetwork, HigherEspOnTheNoisyChip) {
   PlanOptions opt;
   opt.spec.qubits = 12;
   opt.strategy = "chain";
+  opt.network = NetworkChoice::anchored;
   const PlanReport fused = plan_qft(dev, opt);
   opt.network = NetworkChoice::parity;
   const PlanReport parity = plan_qft(dev, opt);

@@ -98,13 +98,29 @@ TEST(LeapfrogNetwork, KeepsOnlyRotationsWithinTheDegreeAndGrowsLinearly) {
   EXPECT_LE(depth(1024, 6), 4 * 1024);
 }
 
+// Costs in native two-qubit gates (Vidal and Dawson, PRA 69, 010301, 2004: 3 CX per fused block, 2
+// per controlled phase; ours: 2 per parity step): anchored 3 (n-1)(n-2)/2 + 2 (n-1), parity n^2 - 1.
+// They tie at n = 4 (15 CX; the anchored network wins the tie); parity is cheaper from n = 5 on.
 TEST(ChooseNetwork, PicksTheCheaperNetworkForTheDegree) {
-  EXPECT_EQ(choose_network(QftSpec{20, std::nullopt, false})->name(), "anchored");
+  EXPECT_EQ(choose_network(QftSpec{3, std::nullopt, false})->name(), "anchored");  // 7 against 8 CX
+  EXPECT_EQ(choose_network(QftSpec{4, std::nullopt, false})->name(), "anchored");  // 15 against 15
+  EXPECT_EQ(choose_network(QftSpec{5, std::nullopt, false})->name(), "parity");    // 26 against 24
+  EXPECT_EQ(choose_network(QftSpec{20, std::nullopt, false})->name(), "parity");
+  EXPECT_EQ(network_native_cost(*choose_network(QftSpec{20, std::nullopt, false})), 20 * 20 - 1);
   EXPECT_EQ(choose_network(QftSpec{20, 1, false})->name(), "hadamard-only");
   EXPECT_EQ(choose_network(QftSpec{20, 2, false})->name(), "adjacent");
   EXPECT_EQ(choose_network(QftSpec{200, 4, false})->name(), "leapfrog");
-  EXPECT_EQ(choose_network(QftSpec{20, 15, false})->name(), "anchored");
-  EXPECT_EQ(choose_network(QftSpec{20, 40, false})->name(), "anchored");
+  EXPECT_EQ(choose_network(QftSpec{20, 15, false})->name(), "parity");
+  EXPECT_EQ(choose_network(QftSpec{20, 40, false})->name(), "parity");
+  // Whatever it picks costs no more than any network that applies.
+  for (int n : {3, 6, 12, 40, 200})
+    for (std::optional<int> M : {std::optional<int>{}, std::optional<int>{3}, std::optional<int>{5}, std::optional<int>{9}}) {
+      const QftSpec spec{n, M, false};
+      const long long chosen = network_native_cost(*choose_network(spec));
+      for (NetworkChoice c : {NetworkChoice::reversal, NetworkChoice::anchored, NetworkChoice::parity})
+        EXPECT_LE(chosen, network_native_cost(*choose_network(spec, c))) << n;
+      if (M && *M >= 3 && *M < n) EXPECT_LE(chosen, network_native_cost(*choose_network(spec, NetworkChoice::leapfrog))) << n;
+    }
   EXPECT_EQ(choose_network(QftSpec{20, std::nullopt, false}, NetworkChoice::reversal)->name(), "reversal");
 }
 
@@ -115,7 +131,7 @@ TEST(ChainPlanner, MetricsOnLinesGridsAndRings) {
   for (const auto& spec : specs) {
     const Device dev = make_lattice(spec);
     for (int n = 2; n <= 64 && n <= dev.qubit_count(); n += (n < 12 ? 1 : 7)) {
-      for (NetworkChoice network : {NetworkChoice::reversal, NetworkChoice::automatic}) {
+      for (NetworkChoice network : {NetworkChoice::reversal, NetworkChoice::anchored}) {
         PlanOptions opt;
         opt.spec.qubits = n;
         opt.strategy = "chain";
@@ -128,7 +144,7 @@ TEST(ChainPlanner, MetricsOnLinesGridsAndRings) {
         // Vidal and Dawson, PRA 69, 010301 (2004): 3 CX per fused block, 2 per controlled phase.
         const long long fused = network == NetworkChoice::reversal ? static_cast<long long>(n) * (n - 1) / 2
                                                                     : static_cast<long long>(n - 1) * (n - 2) / 2;
-        EXPECT_EQ(r.network, network == NetworkChoice::reversal ? "reversal" : "anchored");
+        EXPECT_EQ(r.network, network_choice_name(network));
         EXPECT_EQ(r.swaps, fused) << spec << " n=" << n;
         EXPECT_EQ(r.cx_count, 3 * fused + 2 * (r.two_qubit_blocks - fused)) << spec << " n=" << n;
         EXPECT_TRUE(is_chain(dev, r.chain));

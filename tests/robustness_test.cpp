@@ -250,7 +250,7 @@ TEST(AtomicOutputs, LibraryPropagatesAWriterFailure) {
   CircuitHeader h;
   h.device_name = dev.name();
   h.spec = plan.spec;
-  FailingOutput out(100'000);
+  FailingOutput out(10'000);  // the file is about 60 kB
   QasmWriter w(QasmVersion::v3, h, out);
   EXPECT_THROW(execute_plan(dev, opt, plan, &w), std::runtime_error);
 }
@@ -296,12 +296,13 @@ TEST(Limits, DeviceCapIsClear) {
 }
 
 // A big register with a big degree used to build the leapfrog network in memory (n * 2d steps of 12
-// bytes: 3 GB here) and die of std::bad_alloc; past 2^25 steps the anchored network streams instead.
+// bytes: 3 GB here) and die of std::bad_alloc; past 2^25 steps a streamed network (parity, the
+// cheapest of them) is used instead.
 TEST(Limits, BigApproximateRegisterNeedsNoHugeMemory) {
   QftSpec spec;
   spec.qubits = 16'384;
   spec.approx_degree = 4000;
-  EXPECT_EQ(choose_network(spec)->name(), "anchored");
+  EXPECT_EQ(choose_network(spec)->name(), "parity");
   spec.approx_degree = 6;
   EXPECT_EQ(choose_network(spec)->name(), "leapfrog");
 }

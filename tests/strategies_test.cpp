@@ -167,10 +167,11 @@ TEST(Routed, IsTheBaselineOnDevicesThatHoldAChain) {
   // On a line the report shows the router's figures beside the structured plan. The router keeps the
   // first wire at the end of the line and fuses a rotation with the SWAP after it: 3 C(n-1,2) + 2 (n-1)
   // CX in n(n-1)/2 blocks, as many as the anchored network, which wins the tie as the first strategy
-  // tried (the reversal network would need 3 n(n-1)/2); the parity network beats both.
+  // tried (the reversal network would need 3 n(n-1)/2); the parity network, auto's choice, beats both.
   const Device dev = make_line(12);
   PlanOptions opt;
   opt.spec.qubits = 12;
+  opt.network = NetworkChoice::anchored;
   const auto fused = plan_qft(dev, opt);
   bool saw_routed = false;
   for (const auto& a : fused.alternatives)
@@ -184,7 +185,7 @@ TEST(Routed, IsTheBaselineOnDevicesThatHoldAChain) {
   EXPECT_EQ(fused.network, "anchored");
   EXPECT_EQ(fused.cx_count, 3 * 55 + 2 * 11);
   EXPECT_EQ(fused.two_qubit_blocks, 66);
-  opt.network = NetworkChoice::parity;
+  opt.network = NetworkChoice::automatic;
   const auto parity = plan_qft(dev, opt);
   EXPECT_EQ(parity.strategy, "chain");
   EXPECT_EQ(parity.network, "parity");
@@ -224,9 +225,12 @@ TEST(Registry, UnknownStrategyListsTheValidOnes) {
 TEST(LowerBounds, AreHonestAndTightOnALine) {
   // Blocks >= kept rotations (each needs its own two-qubit gate); depth >= n-1 (the chain of
   // rotations (0,1), (1,2), ... between consecutive Hadamards). Both ours; see plan.cpp.
+  // The anchored network meets the block bound exactly (the parity network, auto's choice from n = 5,
+  // spends n-1 more two-qubit steps on its closing ladder and two more layers, for fewer CX).
   for (int n : {2, 5, 17}) {
     PlanOptions opt;
     opt.spec.qubits = n;
+    opt.network = NetworkChoice::anchored;
     const auto r = plan_qft(make_line(n), opt);
     EXPECT_EQ(r.lower_bound_blocks, n * (n - 1) / 2);
     EXPECT_EQ(r.two_qubit_blocks, r.lower_bound_blocks);

@@ -338,8 +338,8 @@ TEST(Streaming, SingleStrategyRowCarriesTheReportFigures) {
       EXPECT_DOUBLE_EQ(a.log_esp, r.noise.log_esp);
     }
   EXPECT_TRUE(seen);
-  // Anchored network: 3 CX for each of the (n-1)(n-2)/2 fused blocks, 2 for each of the n-1 plain cp.
-  EXPECT_EQ(r.cx_count, 3LL * 139 * 138 / 2 + 2 * 139);
+  EXPECT_EQ(r.network, "parity");
+  EXPECT_EQ(r.cx_count, 140LL * 140 - 1);  // the parity network: n^2 - 1 CX (parity_qft.hpp)
 }
 
 // Plans stay correct at scale (issue 7): an exact QFT of 2048 qubits on a grid snake, written in
@@ -355,8 +355,8 @@ TEST(Scale, TwoThousandQubitPlansPassTheStructuralProof) {
     std::optional<int> degree;
     NetworkChoice network = NetworkChoice::automatic;
   };
-  for (const Case& c : {Case{"grid:46x46", false, std::nullopt}, Case{"heavy-hex:24x24", true, 6},
-                        Case{"grid:46x46", true, std::nullopt, NetworkChoice::parity}}) {
+  for (const Case& c : {Case{"grid:46x46", false, std::nullopt, NetworkChoice::anchored}, Case{"heavy-hex:24x24", true, 6},
+                        Case{"grid:46x46", true, std::nullopt}}) {
     const Device dev = load_device(c.device);
     PlanOptions opt;
     opt.spec.qubits = 2048;
@@ -371,7 +371,8 @@ TEST(Scale, TwoThousandQubitPlansPassTheStructuralProof) {
     const CheckResult res = proof.finish(r.final_placement);
     EXPECT_TRUE(res.ok && res.structural_proved) << c.device << ": " << res.message;
     EXPECT_EQ(proof.gate_count(), r.gate_counts.at("cx") + r.gate_counts.at("rz") + r.gate_counts.at("h")) << c.device;
-    if (c.network == NetworkChoice::parity) {
+    if (!c.degree && c.network == NetworkChoice::automatic) {
+      EXPECT_EQ(r.network, "parity");
       EXPECT_EQ(r.cx_count, 2048LL * 2048 - 1);  // parity_qft.hpp: n^2 - 1
     } else if (!c.degree) {
       EXPECT_EQ(r.two_qubit_blocks, 2048LL * 2047 / 2);

@@ -45,14 +45,11 @@ std::unique_ptr<QftNetwork> with_order_restored(std::unique_ptr<QftNetwork> inne
 /// Merged ones are included: this counts adjacent transpositions.
 long long end_swap_count(const QftNetwork& network);
 
-/// Native two-qubit gates of a network when emitted (2 per cp, 3 per swap or cp_swap; the parity
-/// network 2 per meeting and n-1 more).
-long long network_native_cost(const QftNetwork& network);
-
 /// The network qftplan uses for `spec` under an end order: choose_network(spec, choice) for `free`;
-/// for `same`, a network chosen by name with its order restored, or (automatic) the cheaper in native
-/// two-qubit gates of the reversal network (already in order) and choose_network(spec) with its
-/// order restored (ties go to the reversal network).
+/// for `same`, a network chosen by name with its order restored, or (automatic) choose_network(spec)
+/// when it ends in order, else the cheapest in native two-qubit gates of the reversal and parity
+/// networks (both already in order) and choose_network(spec) with its order restored (ties go to the
+/// reversal network).
 std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec, EndOrder order,
                                            NetworkChoice choice = NetworkChoice::automatic);
 

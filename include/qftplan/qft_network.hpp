@@ -99,11 +99,17 @@ const char* network_choice_name(NetworkChoice c);
 /// Parses a --network value; InputError listing the valid ones otherwise.
 NetworkChoice parse_network_choice(const std::string& text);
 
-/// The network qftplan uses for a spec: anchored when exact; otherwise the one of fewer blocks of
-/// anchored and leapfrog (ties go to the anchored network, which has the lower depth).
+/// Native two-qubit gates of a network when emitted, from its step counts (2 per cp, 3 per swap or
+/// cp_swap; the parity network 2 per meeting and n-1 more).
+long long network_native_cost(const QftNetwork& network);
+
+/// The network qftplan uses for a spec: for degrees 1 and 2 the hadamard-only and adjacent networks;
+/// otherwise, of the anchored, parity and (approximate only) leapfrog networks, the one with the
+/// fewest native two-qubit gates (ties go to the anchored network, which has the lowest depth).
 std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec);
-/// The network of `choice` for a spec. Degrees 1 and 2 need no meetings and always get the
-/// hadamard-only and adjacent networks; `leapfrog` on a spec without a leapfrog network (exact, or
+/// The network of `choice` for a spec. Degrees 1 and 2 need no meetings and get the hadamard-only
+/// and adjacent networks, except for `reversal` and `parity`, built as named (they end in order);
+/// `leapfrog` on a spec without a leapfrog network (exact, or
 /// registers too small for the degree) is an InputError.
 std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec, NetworkChoice choice);
 

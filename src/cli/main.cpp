@@ -535,7 +535,7 @@ int main(int argc, char** argv) {
   // Seeds are unsigned: "-1" would wrap around silently.
   const CLI::Validator kNonNegative(
       [](std::string& s) { return !s.empty() && s[0] == '-' ? std::string("must be a non-negative integer") : std::string(); },
-      "UINT");
+      "");  // no text of its own: the option's type already reads UINT
 
   DeviceArgs da;
   auto* device = app.add_subcommand("device", "print a device (built-in spec or YAML file) as YAML, or its summary");
