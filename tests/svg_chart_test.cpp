@@ -17,6 +17,7 @@
 #include "qftplan/svg_document.hpp"
 #include "qftplan/svg_markers.hpp"
 #include "qftplan/svg_palette.hpp"
+#include "svg_probe.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {
@@ -206,25 +207,9 @@ std::vector<std::string> groups(const std::string& svg, const std::string& open_
   return out;
 }
 
-// A numeric attribute of one element's text ("<circle ... r=\"4\"/>"); NaN when absent.
-double attr(const std::string& element, const std::string& name) {
-  const std::regex re("\\s" + name + "=\"([-0-9.e]+)\"");
-  std::smatch m;
-  return std::regex_search(element, m, re) ? std::stod(m[1]) : std::nan("");
-}
-
-// Every element of a kind ("circle", "text", ...) in a piece of SVG, as its whole text.
-std::vector<std::string> elements(const std::string& svg, const std::string& tag) {
-  std::vector<std::string> out;
-  const std::regex re("<" + tag + "\\s[^>]*>([^<]*</" + tag + ">)?");
-  for (auto it = std::sregex_iterator(svg.begin(), svg.end(), re); it != std::sregex_iterator(); ++it) out.push_back(it->str());
-  return out;
-}
-
-std::string text_of(const std::string& element) {
-  const auto a = element.find('>'), b = element.rfind('<');
-  return element.substr(a + 1, b - a - 1);
-}
+using testing::attr;
+using testing::elements;
+using testing::text_of;
 
 // Rows for a survey of `devices` series at the given sizes.
 std::vector<SurveyRow> survey_rows(const std::vector<std::string>& names, const std::vector<int>& sizes) {
