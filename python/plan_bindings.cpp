@@ -60,7 +60,7 @@ CircuitHeader header_of(const Device& dev, const PlanOptions& opt, const Prepare
 Plan make_plan(const py::object& device, int qubits, const py::object& approx, bool inverse, const py::object& gates,
                const py::object& placement, std::uint64_t seed, bool measure, const std::string& end_order,
                const std::string& strategy, const std::string& objective, const py::object& format, bool circuit,
-               std::optional<double> time_limit) {
+               std::optional<double> time_limit, const std::string& network) {
   const auto t0 = std::chrono::steady_clock::now();
   Plan p;
   p.device = device_arg(device);
@@ -75,6 +75,7 @@ Plan make_plan(const py::object& device, int qubits, const py::object& approx, b
   opt.search.seed = seed;
   opt.strategy = strategy;
   opt.objective = parse_objective(objective);
+  opt.network = parse_network_choice(network);
   opt.end_order = parse_end_order(end_order);
   opt.measure = measure;
   p.version = version_arg(format);
@@ -178,7 +179,7 @@ void bind_plan(py::module_& m) {
         py::arg("inverse") = false, py::arg("gates") = py::none(), py::arg("placement") = py::none(),
         py::arg("seed") = 1, py::arg("measure") = false, py::arg("end_order") = "free", py::arg("strategy") = "auto",
         py::arg("objective") = "esp", py::arg("format") = "qasm3", py::arg("circuit") = true,
-        py::arg("time_limit") = py::none(),
+        py::arg("time_limit") = py::none(), py::arg("network") = "auto",
         "Plans a QFT of `qubits` qubits on `device` (a Device, a spec such as 'grid:4x4' or a YAML path),\n"
         "like `qftplan plan`:\n"
         "  approx      'none' (exact), an int degree M, or 'auto'\n"
@@ -189,6 +190,7 @@ void bind_plan(py::module_& m) {
         "  measure     end with a measurement of every register qubit\n"
         "  end_order   'free' or 'same' (output bit k ends on the qubit that held input bit k)\n"
         "  strategy    a planning strategy name ('auto', 'chain', ...); objective: 'esp', 'depth' or 'cx'\n"
+        "  network     chain network: 'auto', 'reversal', 'anchored', 'leapfrog' or 'parity'\n"
         "  format      'qasm3' or 'qasm2' (or 3, 2) for the text\n"
         "  circuit     False: report only, no text kept (for very large registers)\n"
         "  time_limit  seconds; when it runs out the best plan so far is returned with a RuntimeWarning\n"

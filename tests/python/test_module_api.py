@@ -55,6 +55,20 @@ def test_report_matches_the_command_line(qftplan, tmp_path):
     assert "placement: pinned" in plan.explanation()
 
 
+def test_network_choice_matches_the_command_line(qftplan):
+    # Counts from the README's networks table: on a chain of n qubits the exact QFT needs 3 n(n-1)/2 CX
+    # on the reversal network (Fowler, Devitt and Hollenberg 2004, fused blocks of 3 CX) and n^2 - 1 on
+    # the parity network (ours, include/qftplan/parity_qft.hpp).
+    n = 7
+    for network, cx in (("reversal", 3 * n * (n - 1) // 2), ("parity", n * n - 1)):
+        mine = qftplan.plan("line:7", n, network=network, strategy="chain", circuit=False).report
+        cli = json.loads(run_cli("plan", "--device", "line:7", "--qubits", n, "--network", network,
+                                 "--strategy", "chain", "--report", "-", check=True)[1])
+        assert (mine["network"], mine["cx_count"]) == (network, cx) == (cli["network"], cli["cx_count"])
+    with pytest.raises(qftplan.InputError, match="network"):
+        qftplan.plan("line:4", 4, network="zigzag")
+
+
 def test_time_limit_warns_and_returns_a_plan(qftplan):
     with warnings.catch_warnings(record=True) as caught:
         warnings.simplefilter("always")
