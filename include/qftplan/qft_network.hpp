@@ -88,7 +88,7 @@ std::unique_ptr<QftNetwork> make_hadamard_network(int wires);
 
 /// Which chain network to plan with (--network).
 enum class NetworkChoice {
-  automatic,  ///< anchored when exact, else anchored or leapfrog, whichever has fewer blocks
+  automatic,  ///< choose_network(): of anchored, parity and leapfrog, the fewest native two-qubit gates
   reversal,   ///< the fused reversal network
   anchored,   ///< the fused reversal network of all wires but the first, beside it
   leapfrog,   ///< the fused leapfrog network (approximate degrees 3 .. n-1 only)
