@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <charconv>
 #include <cmath>
+#include <cstdlib>
 #include <map>
 #include <memory>
 #include <numeric>
@@ -385,7 +386,24 @@ void plan_input(std::string_view data) {
     for (int k = 0; k < n; ++k) pin.push_back(r.below(N + 1));
     opt.placement = pin;
   }
+  // Read last, so that inputs saved before it decode as they did (an exhausted reader gives 0: auto).
+  const NetworkChoice networks[] = {NetworkChoice::automatic, NetworkChoice::reversal, NetworkChoice::anchored,
+                                    NetworkChoice::leapfrog, NetworkChoice::parity};
+  opt.network = networks[r.below(5)];
 
+  if (std::getenv("QFTPLAN_FUZZ_SHOW")) {
+    // For reproducing a saved input with the command line (DEVELOPERS.md "Sanitizers and fuzzing").
+    std::string pin;
+    if (opt.placement)
+      for (int q : *opt.placement) pin += (pin.empty() ? "" : ",") + std::to_string(q);
+    fmt::print(stderr, "{}--- plan --qubits {} --approx {}{}{}{} --gates {} --strategy {} --network {} --seed {}{}{}{}\n",
+               device_to_yaml(*dev), n,
+               opt.auto_approx ? "auto" : opt.spec.approx_degree ? std::to_string(*opt.spec.approx_degree) : "none",
+               opt.spec.inverse ? " --inverse" : "", opt.measure ? " --measure" : "",
+               version == QasmVersion::v2 ? " --format qasm2" : "", opt.gates ? gate_set_name(*opt.gates) : "(native)",
+               opt.strategy, network_choice_name(opt.network), opt.search.seed, opt.calibration_aware ? "" : " (calibration ignored)",
+               opt.end_order == EndOrder::same ? " --end-order same" : "", pin.empty() ? "" : " --placement " + pin);
+  }
   PlanReport rep;
   PreparedPlan plan;
   std::string text;

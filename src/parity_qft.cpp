@@ -1,5 +1,6 @@
 #include "qftplan/parity_qft.hpp"
 
+#include <algorithm>
 #include <stdexcept>
 #include <vector>
 
@@ -9,15 +10,20 @@ using Kind = NetworkOp::Kind;
 
 namespace {
 
-// The parity-term weight c of the meeting of wires at distance `dist` (forward QFT): the rotation
-// pi/2^dist, less the pi that the Hadamard of the later wire adds for neighbours (dist 1).
-Angle meeting_weight(int dist) { return dist == 1 ? Angle(-1, 1) : Angle::pi_over_pow2(static_cast<std::uint32_t>(dist)); }
+// The parity-term weight c of the meeting of wires at distance `dist` (forward QFT) when rotations up
+// to distance d are kept: the rotation pi/2^dist if kept, less the pi that the Hadamard of the later
+// wire adds for neighbours (dist 1), which is there whether the rotation is kept or not (degree 1).
+Angle meeting_weight(int dist, int d) {
+  const Angle rotation = dist <= d ? Angle::pi_over_pow2(static_cast<std::uint32_t>(dist)) : Angle{};
+  return dist == 1 ? rotation + Angle(-1, 0) : rotation;
+}
 
-// Sum of c/2 over distances 1..m (m >= 1): -pi/4 + sum_{k=2..m} pi/2^(k+1) = -pi/2^(m+1), added
-// in increasing order so every partial sum stays a single small fraction.
-Angle half_weights(int m) {
+// Sum of c/2 over the meetings at distances 1..m that carry a weight (m >= 1; every distance up to
+// max(d, 1)): -pi/4 + sum_{k=2..m} pi/2^(k+1) = -pi/2^(m+1) when the rotations are kept, -pi/2 for
+// degree 1; added in increasing order so every partial sum stays a single small fraction.
+Angle half_weights(int m, int d) {
   Angle s;
-  for (int k = 1; k <= m; ++k) s = s + meeting_weight(k).half();
+  for (int k = 1; k <= std::min(m, std::max(d, 1)); ++k) s = s + meeting_weight(k, d).half();
   return s;
 }
 
@@ -71,7 +77,7 @@ QubitMaps emit_parity_qft(const QftSpec& spec, const QftNetwork& network, std::s
   auto prologue = [&](const std::vector<int>& pos) {
     // The input bits' one-bit terms: sum of c/2 over the kept meetings with earlier wires.
     for (int b = 1; b < n; ++b) {
-      const Angle a = half_weights(std::min(d, b));
+      const Angle a = half_weights(b, d);
       if (!a.is_zero()) seg.add(make_gate(GateKind::rz, q(pos, b), -1, a));
     }
   };
@@ -86,8 +92,9 @@ QubitMaps emit_parity_qft(const QftSpec& spec, const QftNetwork& network, std::s
       }
       if (op.kind == Kind::cp) throw std::invalid_argument("the parity network has no plain controlled phases");
       const int dist = op.j - op.i;
-      // The rz carries -c/2 on the parity y_a XOR x_b; a dropped rotation leaves the bare exchange.
-      const Angle t = op.kind == Kind::cp_swap ? -meeting_weight(dist).half() : Angle{};
+      // The rz carries -c/2 on the parity y_a XOR x_b; a dropped rotation beyond distance 1 leaves the
+      // bare exchange.
+      const Angle t = -meeting_weight(dist, d).half();
       seg.add(make_gate(GateKind::parity_step, q(pos, op.i), q(pos, op.j), t));
       std::swap(pos[op.i], pos[op.j]);
     }
@@ -114,7 +121,7 @@ QubitMaps emit_parity_qft(const QftSpec& spec, const QftNetwork& network, std::s
     // The two pi/2 terms first: they cancel on every wire but the first and the last.
     for (int a = 0; a < n; ++a)
       phases(q(pos, a), {a >= 1 ? Angle(-1, 1) : Angle{}, a <= n - 2 ? Angle(1, 1) : Angle{},
-                         n - 1 - a >= 1 ? half_weights(std::min(d, n - 1 - a)) : Angle{}});
+                         n - 1 - a >= 1 ? half_weights(n - 1 - a, d) : Angle{}});
   };
 
   std::vector<NetworkOp> ops;

@@ -682,7 +682,7 @@ std::vector<Gate> parity_circuit(int n, std::optional<int> degree, bool inverse)
 
 TEST(QftChecker, ParityNetworkIsProvedAndItsMutationsNeverFoolTheProof) {
   for (int n = 2; n <= 7; ++n)
-    for (std::optional<int> degree : {std::optional<int>{}, std::optional<int>{3}})
+    for (std::optional<int> degree : {std::optional<int>{}, std::optional<int>{1}, std::optional<int>{2}, std::optional<int>{3}})
       for (bool inverse : {false, true}) {
         const auto req = request(make_spec(n, degree, inverse), reversed(n), reversed(n));
         expect_passes_both(line_device(n), parity_circuit(n, degree, inverse), req, "parity network");
