@@ -127,12 +127,15 @@ DegreeCandidate score_degree(const Device& device, bool uniform, const QftSpec& 
   c.error_bound = approx_error_bound(spec.qubits, degree);
   c.fidelity_bound = approx_fidelity_lower_bound(c.error_bound);
   c.score = std::exp(c.log_esp) * c.fidelity_bound;
+  c.native_2q = network_native_cost(*net);
   return c;
 }
 
 // Scores degrees 1, 2, ... until the fidelity bound is 1 to within 1e-12 (more rotations then only
-// add gates), plus the exact transform when small enough to score, and keeps the best score;
-// near-ties (within 1e-12 relative) go to the smaller degree, which has fewer gates.
+// add gates), plus the exact transform when small enough to score, and keeps the best score.
+// Near-ties (within 1e-12 relative) go to the fewest native two-qubit gates, then to the larger
+// degree (exact last): a degree that saves no gate is no reason to approximate (the parity network
+// needs the same CX at every degree from 3 on).
 DegreeChoice choose_degree(const Device& device, const QftSpec& base, const std::vector<int>& chain,
                            EndOrder end_order, NetworkChoice network, const RunBudget* budget = nullptr,
                            bool* cut = nullptr) {
@@ -153,11 +156,10 @@ DegreeChoice choose_degree(const Device& device, const QftSpec& base, const std:
   }
   double best = -1;
   for (const auto& c : out.considered) best = std::max(best, c.score);
-  for (const auto& c : out.considered)
-    if (c.score >= best * (1.0 - 1e-12)) {
-      out.chosen = c.degree;
-      break;
-    }
+  const DegreeCandidate* pick = nullptr;
+  for (const auto& c : out.considered)  // increasing degree, exact last
+    if (c.score >= best * (1.0 - 1e-12) && (!pick || c.native_2q <= pick->native_2q)) pick = &c;
+  out.chosen = pick->degree;
   return out;
 }
 

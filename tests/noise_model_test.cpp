@@ -247,6 +247,25 @@ TEST(ApproxAuto, BeatsExactOnANoisyDeviceAndKeepsExactOnACleanOne) {
   EXPECT_LE(clean.approx_error_bound, 1e-3) << "degree " << clean.approx_degree.value_or(-1);
 }
 
+// Where approximating saves no gate it is no gain: the parity network needs n^2 - 1 CX at every
+// degree from 3 on (ours, parity_qft.hpp), so on a 34-qubit noisy line, where it is cheaper than
+// the leapfrog network at every useful degree, near-ties of the score go to the exact transform.
+TEST(ApproxAuto, ApproximatesOnlyWhereItSavesGates) {
+  DeviceDescription d = make_line(34).description();
+  d.calibration.error_2q = 0.01;
+  const Device dev(d);
+  PlanOptions opt;
+  opt.spec.qubits = 34;
+  opt.auto_approx = true;
+  const auto r = plan_qft(dev, opt);
+  EXPECT_EQ(r.network, "parity");
+  EXPECT_FALSE(r.approx_degree.has_value()) << "degree " << *r.approx_degree;
+  EXPECT_EQ(r.cx_count, 34 * 34 - 1);
+  // Every degree the parity network serves costs the same, so none of them may be chosen over exact.
+  for (const auto& c : r.degree_choice->considered)
+    if (c.degree && c.native_2q == r.cx_count) EXPECT_LE(c.score, r.noise.esp * (1 + 1e-12)) << *c.degree;
+}
+
 TEST(ApproxAuto, ExplainShowsTheChoices) {
   const auto r = testing::run_qftplan("plan --device '" + (testing::source_dir() / "topologies/harbor-noisy-20.yaml").string() +
                                       "' --qubits 8 --approx auto --explain");

@@ -65,6 +65,7 @@ struct DegreeCandidate {
   double error_bound = 0;        ///< approx_error_bound
   double fidelity_bound = 1;     ///< lower bound on the fidelity to the exact QFT
   double score = 0;              ///< esp * fidelity_bound
+  long long native_2q = 0;       ///< native two-qubit gates of the network (network_native_cost)
 };
 
 /// How the degree was chosen (--approx auto).
