@@ -18,13 +18,13 @@ Angle meeting_weight(int dist, int d) {
   return dist == 1 ? rotation + Angle(-1, 0) : rotation;
 }
 
-// Sum of c/2 over the meetings at distances 1..m that carry a weight (m >= 1; every distance up to
-// max(d, 1)): -pi/4 + sum_{k=2..m} pi/2^(k+1) = -pi/2^(m+1) when the rotations are kept, -pi/2 for
-// degree 1; added in increasing order so every partial sum stays a single small fraction.
+// Sum of c/2 over the meetings at distances 1..K that carry a weight, K = min(m, max(d, 1)), m >= 1:
+// -pi/4 + sum_{k=2..K} pi/2^(k+1) = -pi/2^(K+1) when the rotations are kept (a closed form: summing
+// term by term made the prologue and epilogue O(n^2) angle additions), the lone distance-1 weight's
+// half for degree 1.
 Angle half_weights(int m, int d) {
-  Angle s;
-  for (int k = 1; k <= std::min(m, std::max(d, 1)); ++k) s = s + meeting_weight(k, d).half();
-  return s;
+  if (d == 0) return meeting_weight(1, 0).half();
+  return Angle(-1, static_cast<std::uint32_t>(std::min(m, d)) + 1);
 }
 
 // Forward gates of one part of the circuit, then handed on forwards or (inverse) backwards with
