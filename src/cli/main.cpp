@@ -576,8 +576,8 @@ int main(int argc, char** argv) {
                    "the qubit that held input bit k")
       ->capture_default_str();
   plan->add_option("--network", pa.network,
-                   "chain network: auto (anchored when exact, else anchored or leapfrog, fewer blocks), reversal, "
-                   "anchored, leapfrog, or parity (ours: n^2-1 CX for the exact QFT)")
+                   "chain network: auto (of anchored, parity and leapfrog, the fewest native two-qubit gates), "
+                   "reversal, anchored, leapfrog, or parity (n^2-1 CX for the exact QFT)")
       ->capture_default_str();
 
   CheckArgs ca;
