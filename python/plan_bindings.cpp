@@ -84,7 +84,7 @@ Plan make_plan(const py::object& device, int qubits, const py::object& approx, b
     throw InputError(fmt::format("--time-limit expects a positive number of seconds, got '{}'", *time_limit));
   {
     py::gil_scoped_release release;
-    const RunBudget budget(time_limit, nullptr);
+    const RunBudget budget(time_limit, nullptr, BudgetClock::from_environment());
     opt.budget = &budget;
     auto prepared = std::make_shared<PreparedPlan>(prepare_plan(*p.device, opt));
     StringOutput text;

@@ -2,12 +2,23 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdlib>
 
 namespace qftplan {
 
-RunBudget::RunBudget(std::optional<double> seconds, const std::atomic<bool>* interrupt)
-    : seconds_(seconds), interrupt_(interrupt) {
-  if (seconds_) {
+BudgetClock BudgetClock::from_environment() {
+  BudgetClock c;
+  if (const char* text = std::getenv("QFTPLAN_TEST_CLOCK_TICK")) {
+    char* end = nullptr;
+    const double v = std::strtod(text, &end);
+    if (end != text && *end == '\0' && std::isfinite(v) && v > 0) c.tick_seconds = v;
+  }
+  return c;
+}
+
+RunBudget::RunBudget(std::optional<double> seconds, const std::atomic<bool>* interrupt, BudgetClock clock)
+    : seconds_(seconds), interrupt_(interrupt), tick_(clock.tick_seconds) {
+  if (seconds_ && !tick_) {
     // Clamp to a century so that absurd limits cannot overflow the clock's representation.
     const double s = std::isfinite(*seconds_) ? std::clamp(*seconds_, 0.0, 3.2e9) : 3.2e9;
     deadline_ = std::chrono::steady_clock::now() +
@@ -17,7 +28,13 @@ RunBudget::RunBudget(std::optional<double> seconds, const std::atomic<bool>* int
 
 StopReason RunBudget::stop_reason() const {
   if (interrupted()) return StopReason::interrupted;
-  if (seconds_ && std::chrono::steady_clock::now() >= deadline_) return StopReason::time_limit;
+  if (!seconds_) return StopReason::none;
+  if (tick_) {
+    // The counting clock: reading k is at k ticks after the start.
+    const auto k = readings_.fetch_add(1, std::memory_order_relaxed) + 1;
+    return static_cast<double>(k) * *tick_ >= *seconds_ ? StopReason::time_limit : StopReason::none;
+  }
+  if (std::chrono::steady_clock::now() >= deadline_) return StopReason::time_limit;
   return StopReason::none;
 }
 

@@ -47,7 +47,7 @@ SurveyRow run_survey_case(const SurveyRequest& request, const SurveyCase& c) {
     opt.strategy = c.strategy;
     // Each run has its own deadline; all share the interruption flag.
     std::optional<RunBudget> budget;
-    if (request.time_limit || request.interrupt) budget.emplace(request.time_limit, request.interrupt);
+    if (request.time_limit || request.interrupt) budget.emplace(request.time_limit, request.interrupt, request.clock);
     opt.budget = budget ? &*budget : nullptr;
     const PreparedPlan plan = prepare_plan(*dev, opt);
     const PlanReport r = execute_plan(*dev, opt, plan, nullptr);

@@ -37,6 +37,7 @@ namespace {
 namespace fs = std::filesystem;
 using testing::read_file;
 using testing::run_qftplan;
+using testing::run_qftplan_counting_clock;
 using testing::source_dir;
 using testing::temp_dir;
 using testing::write_file;
@@ -345,24 +346,39 @@ TEST(RunBudget, DeadlineAndInterruption) {
   EXPECT_TRUE(poll.stop());  // sticky
 }
 
+// The counting clock advances one tick per reading: 0.25 s at 0.1 s a tick runs out at the third
+// reading, whatever the machine's speed; without a time limit it never runs out.
+TEST(RunBudget, CountingClockRunsOutAfterAFixedNumberOfReadings) {
+  const RunBudget budget(0.25, nullptr, BudgetClock{0.1});
+  EXPECT_EQ(budget.stop_reason(), StopReason::none);
+  EXPECT_EQ(budget.stop_reason(), StopReason::none);
+  EXPECT_EQ(budget.stop_reason(), StopReason::time_limit);
+  const RunBudget unlimited(std::nullopt, nullptr, BudgetClock{0.1});
+  for (int i = 0; i < 10; ++i) EXPECT_EQ(unlimited.stop_reason(), StopReason::none);
+  ::setenv("QFTPLAN_TEST_CLOCK_TICK", "0.5", 1);
+  EXPECT_EQ(BudgetClock::from_environment().tick_seconds, 0.5);
+  ::setenv("QFTPLAN_TEST_CLOCK_TICK", "fast", 1);
+  EXPECT_FALSE(BudgetClock::from_environment().tick_seconds);
+  ::unsetenv("QFTPLAN_TEST_CLOCK_TICK");
+  EXPECT_FALSE(BudgetClock::from_environment().tick_seconds);
+}
+
 // The chain search on a device too small in effect (no chain of 4400 qubits exists in heavy-hex:30x30
 // of 4739 qubits, and proving it takes a minute): the deadline stops it with the longest chain so far.
 TEST(RunBudget, ChainSearchStopsAtTheDeadline) {
   const Device dev = make_lattice("heavy-hex:30x30");
-  const RunBudget budget(0.2, nullptr);
+  // The counting clock (1 ms per reading): the cut comes after the same work on any machine.
+  const RunBudget budget(0.2, nullptr, BudgetClock{0.001});
   ChainSearchOptions o;
   o.budget = &budget;
-  const auto t0 = std::chrono::steady_clock::now();
   const auto r = find_chain(dev, 4400, o);
-  const double s = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
   EXPECT_TRUE(r.time_out);
   EXPECT_TRUE(r.chain.empty());
   EXPECT_GT(r.longest.size(), 100u);
-  EXPECT_LT(s, 5.0);
   PlanOptions opt;
   opt.spec.qubits = 4400;
   opt.strategy = "chain";
-  const RunBudget again(0.2, nullptr);
+  const RunBudget again(0.2, nullptr, BudgetClock{0.001});
   opt.budget = &again;
   EXPECT_THROW(prepare_plan(dev, opt), TimeLimitReached);
 }
@@ -396,7 +412,8 @@ std::string uneven_grid_yaml() {
 TEST(RunBudget, CutShortPlacementStillWritesAValidPlan) {
   const auto dir = temp_dir();
   write_file(dir / "dev.yaml", uneven_grid_yaml());
-  const auto r = run_qftplan("plan --device " + q(dir / "dev.yaml") + " --qubits 40 --strategy chain --effort 1000 --time-limit 0.3 " +
+  // The counting clock (1 ms per reading, run_budget.hpp): the cut does not depend on the machine's speed.
+  const auto r = run_qftplan_counting_clock("plan --device " + q(dir / "dev.yaml") + " --qubits 40 --strategy chain --effort 1000 --time-limit 0.3 " +
                              "--output " + q(dir / "c.qasm") + " --report " + q(dir / "r.json"));
   EXPECT_EQ(r.status, 3) << r.err;
   EXPECT_NE(r.err.find("warning: the time limit of 0.3 s ran out during the placement search"), std::string::npos)
@@ -427,7 +444,8 @@ TEST(Limits, EffortScalesThePlacementSearch) {
 
 TEST(RunBudget, NoChainInTimeIsExitThreeWithoutFiles) {
   const auto dir = temp_dir();
-  const auto r = run_qftplan("plan --device heavy-hex:30x30 --qubits 4400 --time-limit 0.3 --output " +
+  // The counting clock: the deadline does not depend on how fast this machine searches.
+  const auto r = run_qftplan_counting_clock("plan --device heavy-hex:30x30 --qubits 4400 --time-limit 0.3 --output " +
                              q(dir / "c.qasm"));
   EXPECT_EQ(r.status, 3) << r.err;
   EXPECT_NE(r.err.find("the time limit ran out before a chain of 4400 qubits was found"), std::string::npos) << r.err;

@@ -36,10 +36,12 @@ std::string read_file(const std::filesystem::path& path) {
   return s.str();
 }
 
-RunResult run_qftplan(const std::string& args) {
+namespace {
+
+RunResult run_with_prefix(const std::string& prefix, const std::string& args) {
   const auto dir = temp_dir();
   const auto out = dir / "stdout", err = dir / "stderr";
-  const std::string cmd = std::string("'") + QFTPLAN_BINARY + "' " + args + " >'" + out.string() + "' 2>'" +
+  const std::string cmd = prefix + "'" + QFTPLAN_BINARY + "' " + args + " >'" + out.string() + "' 2>'" +
                           err.string() + "' </dev/null";
   const int raw = std::system(cmd.c_str());
   RunResult r;
@@ -48,6 +50,14 @@ RunResult run_qftplan(const std::string& args) {
   r.err = read_file(err);
   std::filesystem::remove_all(dir);
   return r;
+}
+
+}  // namespace
+
+RunResult run_qftplan(const std::string& args) { return run_with_prefix("", args); }
+
+RunResult run_qftplan_counting_clock(const std::string& args, double tick_seconds) {
+  return run_with_prefix("QFTPLAN_TEST_CLOCK_TICK=" + std::to_string(tick_seconds) + " ", args);
 }
 
 }  // namespace qftplan::testing

@@ -16,6 +16,9 @@ struct RunResult {
 };
 /// Runs the built `qftplan` with the given shell-quoted argument string.
 RunResult run_qftplan(const std::string& args);
+/// Runs it with the budget's counting clock (run_budget.hpp: every reading of the clock advances it by
+/// `tick_seconds`), so that a `--time-limit` cuts after the same work on any machine.
+RunResult run_qftplan_counting_clock(const std::string& args, double tick_seconds = 0.001);
 /// A fresh empty folder under the system temporary folder, removed at exit of the test process.
 std::filesystem::path temp_dir();
 /// Writes `text` to `path`.

@@ -17,6 +17,16 @@ namespace qftplan {
 /// Why a run should stop early.
 enum class StopReason { none, time_limit, interrupted };
 
+/// The clock a budget reads: the steady clock (default), or, for tests that must not depend on the
+/// machine's speed, a counter that advances `tick_seconds` at every reading, so that a time limit
+/// runs out after the same amount of search work on any machine.
+struct BudgetClock {
+  std::optional<double> tick_seconds;  ///< absent: the steady clock
+  /// The clock the environment asks for: `QFTPLAN_TEST_CLOCK_TICK=SECONDS` gives the counting clock
+  /// (a test hook of the front ends, DEVELOPERS.md); unset or not a positive number: the steady clock.
+  static BudgetClock from_environment();
+};
+
 /// A deadline and/or an interruption flag, shared read-only by every search of one run (thread-safe).
 class RunBudget {
  public:
@@ -24,7 +34,9 @@ class RunBudget {
   RunBudget() = default;
   /// Runs out `seconds` after construction (when given) or once `*interrupt` is true (when given);
   /// the flag must outlive the budget. A signal handler may set the flag (lock-free atomic).
-  RunBudget(std::optional<double> seconds, const std::atomic<bool>* interrupt);
+  RunBudget(std::optional<double> seconds, const std::atomic<bool>* interrupt, BudgetClock clock = {});
+  RunBudget(const RunBudget&) = delete;
+  RunBudget& operator=(const RunBudget&) = delete;
 
   /// Why to stop now, or none; interruption wins over the deadline. Reads the clock.
   StopReason stop_reason() const;
@@ -39,6 +51,8 @@ class RunBudget {
   std::chrono::steady_clock::time_point deadline_{};
   std::optional<double> seconds_;
   const std::atomic<bool>* interrupt_ = nullptr;
+  std::optional<double> tick_;                         ///< counting clock: seconds per reading
+  mutable std::atomic<unsigned long long> readings_{0};  ///< counting clock: readings so far
 };
 
 /// A loop-local view of a budget for hot loops: reads the clock only every `stride` polls and

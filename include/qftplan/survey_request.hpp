@@ -11,6 +11,7 @@
 #include <string>
 #include <vector>
 
+#include "qftplan/run_budget.hpp"
 #include "qftplan/device.hpp"
 
 namespace qftplan {
@@ -46,6 +47,7 @@ struct SurveyRequest {
   std::uint64_t seed = 1;                 ///< seed of every randomised search
   std::optional<double> time_limit;      ///< seconds per run; a run cut short keeps its best plan
   const std::atomic<bool>* interrupt = nullptr;  ///< set by Ctrl-C: stop the survey; null: never
+  BudgetClock clock;                     ///< the clock each run's time limit reads (run_budget.hpp)
 };
 
 /// One run of a survey.

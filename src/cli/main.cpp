@@ -154,7 +154,7 @@ int run_plan(const PlanArgs& a) {
   const auto t0 = std::chrono::steady_clock::now();
   install_stop_handlers();
   // The time limit counts from here, device loading included; every search polls it.
-  const RunBudget budget(parse_time_limit(a.time_limit), &g_interrupted);
+  const RunBudget budget(parse_time_limit(a.time_limit), &g_interrupted, BudgetClock::from_environment());
   if (same_output_file(a.output, a.report))
     throw InputError("--output and --report name the same file '" + a.output + "'");
   const Device dev = load_device(a.device);
@@ -361,6 +361,7 @@ int run_survey_command(const SurveyArgs& a) {
   }
   req.seed = a.seed;
   req.time_limit = parse_time_limit(a.time_limit);
+  req.clock = BudgetClock::from_environment();
   req.interrupt = &g_interrupted;
   for (const auto& d : a.devices) req.devices.push_back(make_survey_entry(d));
   if (a.jobs < 0) throw InputError("--jobs must be at least 1 (0 or absent: every core)");
