@@ -2,8 +2,8 @@
 // heavy-hex:44x45 has 5*44*45+4*44+4*45-1 = 10255 qubits. The lattice is built before timing.
 
 #include "bench_support.hpp"
-#include "qftplan/chain_search.hpp"
-#include "qftplan/lattices.hpp"
+#include "qftplan/device/lattices.hpp"
+#include "qftplan/planners/chain_search.hpp"
 
 namespace {
 

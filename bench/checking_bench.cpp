@@ -2,12 +2,12 @@
 // run the structural proof. Under 2 s. The file is written once, before timing.
 
 #include "bench_support.hpp"
-#include "qftplan/atomic_file.hpp"
-#include "qftplan/device_source.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/qasm_program.hpp"
-#include "qftplan/qasm_writer.hpp"
-#include "qftplan/qft_checker.hpp"
+#include "qftplan/check/qft_checker.hpp"
+#include "qftplan/core/atomic_file.hpp"
+#include "qftplan/device/device_source.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/qasm/qasm_program.hpp"
+#include "qftplan/qasm/qasm_writer.hpp"
 
 namespace {
 

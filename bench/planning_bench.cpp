@@ -7,10 +7,10 @@
 #include <string>
 
 #include "bench_support.hpp"
-#include "qftplan/atomic_file.hpp"
-#include "qftplan/device_source.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/qasm_writer.hpp"
+#include "qftplan/core/atomic_file.hpp"
+#include "qftplan/device/device_source.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/qasm/qasm_writer.hpp"
 
 namespace {
 

@@ -12,18 +12,18 @@
 
 #include <fmt/format.h>
 
-#include "qftplan/atomic_file.hpp"
-#include "qftplan/device.hpp"
-#include "qftplan/device_check.hpp"
-#include "qftplan/device_source.hpp"
-#include "qftplan/device_summary.hpp"
-#include "qftplan/device_yaml.hpp"
-#include "qftplan/input_error.hpp"
-#include "qftplan/lattices.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/qasm_program.hpp"
-#include "qftplan/qasm_writer.hpp"
-#include "qftplan/qft_checker.hpp"
+#include "qftplan/check/qft_checker.hpp"
+#include "qftplan/core/atomic_file.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/device/device.hpp"
+#include "qftplan/device/device_check.hpp"
+#include "qftplan/device/device_source.hpp"
+#include "qftplan/device/device_summary.hpp"
+#include "qftplan/device/device_yaml.hpp"
+#include "qftplan/device/lattices.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/qasm/qasm_program.hpp"
+#include "qftplan/qasm/qasm_writer.hpp"
 
 namespace qftplan::fuzz {
 namespace {

@@ -10,7 +10,7 @@
 #include <nlohmann/json.hpp>
 #include <pybind11/pybind11.h>
 
-#include "qftplan/device.hpp"
+#include "qftplan/device/device.hpp"
 
 namespace qftplan::python {
 

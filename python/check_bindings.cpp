@@ -5,10 +5,10 @@
 #include <pybind11/stl.h>
 
 #include "bindings.hpp"
-#include "qftplan/input_error.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/qasm_program.hpp"
-#include "qftplan/qft_checker.hpp"
+#include "qftplan/check/qft_checker.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/qasm/qasm_program.hpp"
 
 namespace qftplan::python {
 

@@ -4,10 +4,10 @@
 #include <pybind11/stl.h>
 
 #include "bindings.hpp"
-#include "qftplan/device_source.hpp"
-#include "qftplan/device_summary.hpp"
-#include "qftplan/device_yaml.hpp"
-#include "qftplan/lattices.hpp"
+#include "qftplan/device/device_source.hpp"
+#include "qftplan/device/device_summary.hpp"
+#include "qftplan/device/device_yaml.hpp"
+#include "qftplan/device/lattices.hpp"
 
 namespace qftplan::python {
 

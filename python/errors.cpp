@@ -4,8 +4,8 @@
 #include <exception>
 
 #include "bindings.hpp"
-#include "qftplan/input_error.hpp"
-#include "qftplan/plan.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/planners/plan.hpp"
 
 namespace qftplan::python {
 

@@ -7,12 +7,12 @@
 #include <pybind11/stl.h>
 
 #include "bindings.hpp"
-#include "qftplan/atomic_file.hpp"
-#include "qftplan/input_error.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/qasm_writer.hpp"
-#include "qftplan/report.hpp"
-#include "qftplan/run_budget.hpp"
+#include "qftplan/core/atomic_file.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/core/run_budget.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/qasm/qasm_writer.hpp"
+#include "qftplan/report/report.hpp"
 
 namespace qftplan::python {
 

@@ -4,8 +4,8 @@
 #include <pybind11/pybind11.h>
 
 #include "bindings.hpp"
-#include "qftplan/report.hpp"
-#include "qftplan/survey_output.hpp"
+#include "qftplan/report/report.hpp"
+#include "qftplan/survey/survey_output.hpp"
 
 PYBIND11_MODULE(qftplan, m) {
   using namespace qftplan::python;

@@ -8,11 +8,11 @@
 #include <pybind11/stl.h>
 
 #include "bindings.hpp"
-#include "qftplan/input_error.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/survey_output.hpp"
-#include "qftplan/survey_request.hpp"
-#include "qftplan/survey_run.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/survey/survey_output.hpp"
+#include "qftplan/survey/survey_request.hpp"
+#include "qftplan/survey/survey_run.hpp"
 
 namespace qftplan::python {
 

@@ -5,7 +5,7 @@
 #include <cmath>
 #include <numbers>
 
-#include "qftplan/angle.hpp"
+#include "qftplan/core/angle.hpp"
 
 namespace qftplan {
 namespace {

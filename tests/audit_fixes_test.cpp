@@ -10,9 +10,9 @@
 #include <filesystem>
 #include <regex>
 
-#include "qftplan/atomic_file.hpp"
-#include "qftplan/lattices.hpp"
-#include "qftplan/plan.hpp"
+#include "qftplan/core/atomic_file.hpp"
+#include "qftplan/device/lattices.hpp"
+#include "qftplan/planners/plan.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {

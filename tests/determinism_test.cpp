@@ -9,11 +9,11 @@
 
 #include <nlohmann/json.hpp>
 
-#include "qftplan/atomic_file.hpp"
-#include "qftplan/device_source.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/qasm_writer.hpp"
-#include "qftplan/report.hpp"
+#include "qftplan/core/atomic_file.hpp"
+#include "qftplan/device/device_source.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/qasm/qasm_writer.hpp"
+#include "qftplan/report/report.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {

@@ -13,9 +13,9 @@
 #include <string>
 #include <vector>
 
-#include "qftplan/device_yaml.hpp"
-#include "qftplan/input_error.hpp"
-#include "qftplan/lattices.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/device/device_yaml.hpp"
+#include "qftplan/device/lattices.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {

@@ -11,13 +11,13 @@
 
 #include <fmt/format.h>
 
-#include "qftplan/device_source.hpp"
-#include "qftplan/input_error.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/plan_drawing.hpp"
-#include "qftplan/report.hpp"
-#include "qftplan/svg_document.hpp"
-#include "qftplan/svg_layout.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/device/device_source.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/report/report.hpp"
+#include "qftplan/svg/plan_drawing.hpp"
+#include "qftplan/svg/svg_document.hpp"
+#include "qftplan/svg/svg_layout.hpp"
 #include "svg_probe.hpp"
 #include "test_support.hpp"
 

@@ -12,15 +12,15 @@
 #include <numeric>
 #include <random>
 
-#include "qftplan/chain_qft.hpp"
-#include "qftplan/device_source.hpp"
-#include "qftplan/end_order.hpp"
-#include "qftplan/input_error.hpp"
-#include "qftplan/lattices.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/qft_checker.hpp"
-#include "qftplan/qft_network.hpp"
-#include "qftplan/statevector.hpp"
+#include "qftplan/check/qft_checker.hpp"
+#include "qftplan/check/statevector.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/device/device_source.hpp"
+#include "qftplan/device/lattices.hpp"
+#include "qftplan/networks/chain_qft.hpp"
+#include "qftplan/networks/end_order.hpp"
+#include "qftplan/networks/qft_network.hpp"
+#include "qftplan/planners/plan.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {

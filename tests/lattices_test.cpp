@@ -16,8 +16,8 @@
 #include <string>
 #include <vector>
 
-#include "qftplan/input_error.hpp"
-#include "qftplan/lattices.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/device/lattices.hpp"
 
 namespace qftplan {
 namespace {
@@ -186,7 +186,7 @@ TEST(Lattices, HeavyHexCountsForAFewSizes) {
 
 TEST(Lattices, HeavyHexNumberingFollowsTheDrawing) {
   // heavy-hex:1x1 is one subdivided hexagon: top chain 0-1-2-3-4, bridges 5 (left) and 6 (right),
-  // bottom chain 7-8-9-10-11 (see the numbering note in src/lattices.cpp).
+  // bottom chain 7-8-9-10-11 (see the numbering note in src/device/lattices.cpp).
   const Device one = make_heavy_hex(1, 1);
   const std::vector<std::pair<int, int>> cycle = {{0, 1},   {1, 2},  {2, 3}, {3, 4}, {4, 6}, {6, 11},
                                                   {11, 10}, {10, 9}, {9, 8}, {8, 7}, {7, 5}, {5, 0}};

@@ -8,14 +8,14 @@
 #include <numbers>
 #include <random>
 
-#include "qftplan/approximation.hpp"
-#include "qftplan/atomic_file.hpp"
-#include "qftplan/chain_search.hpp"
-#include "qftplan/device_source.hpp"
-#include "qftplan/lattices.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/qasm_program.hpp"
-#include "qftplan/qasm_writer.hpp"
+#include "qftplan/core/approximation.hpp"
+#include "qftplan/core/atomic_file.hpp"
+#include "qftplan/device/device_source.hpp"
+#include "qftplan/device/lattices.hpp"
+#include "qftplan/planners/chain_search.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/qasm/qasm_program.hpp"
+#include "qftplan/qasm/qasm_writer.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {

@@ -4,11 +4,11 @@
 
 #include <gtest/gtest.h>
 
-#include "qftplan/device_source.hpp"
-#include "qftplan/input_error.hpp"
-#include "qftplan/lattices.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/qft_checker.hpp"
+#include "qftplan/check/qft_checker.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/device/device_source.hpp"
+#include "qftplan/device/lattices.hpp"
+#include "qftplan/planners/plan.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {

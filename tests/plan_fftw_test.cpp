@@ -7,11 +7,11 @@
 #include <complex>
 #include <numbers>
 
-#include "qftplan/device_source.hpp"
-#include "qftplan/lattices.hpp"
-#include "qftplan/native_gates.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/statevector.hpp"
+#include "qftplan/check/statevector.hpp"
+#include "qftplan/device/device_source.hpp"
+#include "qftplan/device/lattices.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/sinks/native_gates.hpp"
 
 namespace qftplan {
 namespace {

@@ -15,13 +15,13 @@
 #include <string>
 #include <vector>
 
-#include "qftplan/atomic_file.hpp"
-#include "qftplan/device_yaml.hpp"
-#include "qftplan/input_error.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/qasm_program.hpp"
-#include "qftplan/qasm_writer.hpp"
-#include "qftplan/qft_checker.hpp"
+#include "qftplan/check/qft_checker.hpp"
+#include "qftplan/core/atomic_file.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/device/device_yaml.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/qasm/qasm_program.hpp"
+#include "qftplan/qasm/qasm_writer.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {

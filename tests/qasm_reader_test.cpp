@@ -14,8 +14,8 @@
 #include <random>
 #include <string>
 
-#include "qftplan/input_error.hpp"
-#include "qftplan/qasm_program.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/qasm/qasm_program.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {

@@ -26,12 +26,12 @@
 #include <numbers>
 #include <random>
 
-#include "qftplan/chain_qft.hpp"
-#include "qftplan/device.hpp"
-#include "qftplan/native_gates.hpp"
-#include "qftplan/qasm_program.hpp"
-#include "qftplan/qft_checker.hpp"
-#include "qftplan/statevector.hpp"
+#include "qftplan/check/qft_checker.hpp"
+#include "qftplan/check/statevector.hpp"
+#include "qftplan/device/device.hpp"
+#include "qftplan/networks/chain_qft.hpp"
+#include "qftplan/qasm/qasm_program.hpp"
+#include "qftplan/sinks/native_gates.hpp"
 
 namespace qftplan {
 namespace {

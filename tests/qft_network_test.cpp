@@ -4,12 +4,12 @@
 
 #include <set>
 
-#include "qftplan/chain_qft.hpp"
-#include "qftplan/chain_search.hpp"
-#include "qftplan/circuit_metrics.hpp"
-#include "qftplan/lattices.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/qft_network.hpp"
+#include "qftplan/device/lattices.hpp"
+#include "qftplan/networks/chain_qft.hpp"
+#include "qftplan/networks/qft_network.hpp"
+#include "qftplan/planners/chain_search.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/sinks/circuit_metrics.hpp"
 
 namespace qftplan {
 namespace {

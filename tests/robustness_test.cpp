@@ -21,14 +21,14 @@
 #include <nlohmann/json.hpp>
 
 #include "fuzz_inputs.hpp"
-#include "qftplan/atomic_file.hpp"
-#include "qftplan/chain_search.hpp"
-#include "qftplan/device_yaml.hpp"
-#include "qftplan/input_error.hpp"
-#include "qftplan/lattices.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/qasm_writer.hpp"
-#include "qftplan/run_budget.hpp"
+#include "qftplan/core/atomic_file.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/core/run_budget.hpp"
+#include "qftplan/device/device_yaml.hpp"
+#include "qftplan/device/lattices.hpp"
+#include "qftplan/planners/chain_search.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/qasm/qasm_writer.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {

@@ -10,8 +10,8 @@
 #include <random>
 #include <stdexcept>
 
-#include "qftplan/qft_checker.hpp"
-#include "qftplan/statevector.hpp"
+#include "qftplan/check/qft_checker.hpp"
+#include "qftplan/check/statevector.hpp"
 
 namespace qftplan {
 namespace {

@@ -8,15 +8,15 @@
 #include <random>
 #include <set>
 
-#include "qftplan/atomic_file.hpp"
-#include "qftplan/chain_search.hpp"
-#include "qftplan/device_source.hpp"
-#include "qftplan/input_error.hpp"
-#include "qftplan/lattices.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/qasm_program.hpp"
-#include "qftplan/qasm_writer.hpp"
-#include "qftplan/qft_checker.hpp"
+#include "qftplan/check/qft_checker.hpp"
+#include "qftplan/core/atomic_file.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/device/device_source.hpp"
+#include "qftplan/device/lattices.hpp"
+#include "qftplan/planners/chain_search.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/qasm/qasm_program.hpp"
+#include "qftplan/qasm/qasm_writer.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {
@@ -102,7 +102,7 @@ TEST(Spine, HeavyHexagonDepthMeetsThePublishedLinearBound) {
 // qubits numbered in a shuffled order. The spine must not depend on either (found by an audit: the
 // chain search's preference for straight lines needs positions, and without them the longest chain
 // left qubits two hops away). Same bound as above. Larger lattices without positions are beyond the
-// covering search's budget (src/spine_layout.cpp).
+// covering search's budget (src/planners/spine_layout.cpp).
 TEST(Spine, HeavyHexagonWithoutPositionsOrTheirNumbering) {
   std::mt19937 rng(5);
   for (const std::string spec : {"heavy-hex:2x2", "heavy-hex:3x3", "heavy-hex:4x4", "heavy-hex:5x5", "heavy-hex:6x6", "heavy-hex:3x8"}) {

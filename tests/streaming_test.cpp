@@ -7,19 +7,19 @@
 
 #include <cmath>
 
-#include "qftplan/chain_qft.hpp"
-#include "qftplan/chain_search.hpp"
-#include "qftplan/device_source.hpp"
-#include "qftplan/device_yaml.hpp"
-#include "qftplan/circuit_metrics.hpp"
-#include "qftplan/end_order.hpp"
-#include "qftplan/lattices.hpp"
-#include "qftplan/native_gates.hpp"
-#include "qftplan/noise_model.hpp"
-#include "qftplan/placement_search.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/qft_checker.hpp"
-#include "qftplan/qft_network.hpp"
+#include "qftplan/check/qft_checker.hpp"
+#include "qftplan/device/device_source.hpp"
+#include "qftplan/device/device_yaml.hpp"
+#include "qftplan/device/lattices.hpp"
+#include "qftplan/networks/chain_qft.hpp"
+#include "qftplan/networks/end_order.hpp"
+#include "qftplan/networks/qft_network.hpp"
+#include "qftplan/planners/chain_search.hpp"
+#include "qftplan/planners/placement_search.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/sinks/circuit_metrics.hpp"
+#include "qftplan/sinks/native_gates.hpp"
+#include "qftplan/sinks/noise_model.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {

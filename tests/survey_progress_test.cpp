@@ -8,7 +8,7 @@
 
 #include <cstdio>
 
-#include "qftplan/survey_progress.hpp"
+#include "qftplan/survey/survey_progress.hpp"
 
 namespace qftplan {
 namespace {

@@ -5,9 +5,9 @@
 #include <algorithm>
 #include <set>
 
-#include "qftplan/input_error.hpp"
-#include "qftplan/lattices.hpp"
-#include "qftplan/survey_request.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/device/lattices.hpp"
+#include "qftplan/survey/survey_request.hpp"
 
 namespace qftplan {
 namespace {

@@ -12,11 +12,11 @@
 
 #include <fmt/format.h>
 
-#include "qftplan/survey_plots.hpp"
-#include "qftplan/svg_chart.hpp"
-#include "qftplan/svg_document.hpp"
-#include "qftplan/svg_markers.hpp"
-#include "qftplan/svg_palette.hpp"
+#include "qftplan/survey/survey_plots.hpp"
+#include "qftplan/svg/svg_chart.hpp"
+#include "qftplan/svg/svg_document.hpp"
+#include "qftplan/svg/svg_markers.hpp"
+#include "qftplan/svg/svg_palette.hpp"
 #include "svg_probe.hpp"
 #include "test_support.hpp"
 

@@ -4,9 +4,9 @@
 #include <cstdio>
 #include <exception>
 
-#include "qftplan/device_source.hpp"
-#include "qftplan/plan.hpp"
-#include "qftplan/report.hpp"
+#include "qftplan/device/device_source.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/report/report.hpp"
 
 int main() {
   try {

@@ -4,7 +4,7 @@
 # Variables: BUILD_DIR, CONSUMER_DIR, WORK_DIR, CXX, and optionally PYTHON and PYTHON_DIR (the module's
 # folder relative to the prefix).
 
-# Exact QFT on 8 qubits of a line: the parity network (ours, include/qftplan/parity_qft.hpp) has one
+# Exact QFT on 8 qubits of a line: the parity network (ours, include/qftplan/networks/parity_qft.hpp) has one
 # step of 2 CX for each of the n(n-1)/2 = 28 meetings of the linear-nearest-neighbour network
 # (Fowler, Devitt and Hollenberg, Quantum Inf. Comput. 4, 237, 2004) and a closing ladder of n-1 CX:
 # n^2 - 1 = 63.
@@ -25,7 +25,7 @@ file(MAKE_DIRECTORY ${WORK_DIR})
 
 # 1. Install.
 run(${CMAKE_COMMAND} --install ${BUILD_DIR} --prefix ${prefix})
-foreach(f bin/qftplan include/qftplan/plan.hpp include/qftplan/end_order.hpp share/man/man1/qftplan.1
+foreach(f bin/qftplan include/qftplan/planners/plan.hpp include/qftplan/networks/end_order.hpp share/man/man1/qftplan.1
           share/qftplan/schemas/plan-report.schema.json)
   if(NOT EXISTS ${prefix}/${f})
     message(FATAL_ERROR "not installed: ${f}")

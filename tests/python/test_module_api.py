@@ -58,7 +58,7 @@ def test_report_matches_the_command_line(qftplan, tmp_path):
 def test_network_choice_matches_the_command_line(qftplan):
     # Counts from the README's networks table: on a chain of n qubits the exact QFT needs 3 n(n-1)/2 CX
     # on the reversal network (Fowler, Devitt and Hollenberg 2004, fused blocks of 3 CX) and n^2 - 1 on
-    # the parity network (ours, include/qftplan/parity_qft.hpp).
+    # the parity network (ours, include/qftplan/networks/parity_qft.hpp).
     n = 7
     for network, cx in (("reversal", 3 * n * (n - 1) // 2), ("parity", n * n - 1)):
         mine = qftplan.plan("line:7", n, network=network, strategy="chain", circuit=False).report

@@ -1,0 +1,77 @@
+#pragma once
+/// \file qft_checker.hpp
+/// Decides whether a circuit on a device implements a given QFT with given qubit maps.
+
+#include <atomic>
+#include <complex>
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "qftplan/core/gate.hpp"
+#include "qftplan/core/qft_spec.hpp"
+#include "qftplan/device/device.hpp"
+#include "qftplan/qasm/qasm_program.hpp"
+
+namespace qftplan {
+
+/// What to check against.
+struct CheckRequest {
+  QftSpec spec;
+  std::vector<int> placement;        ///< physical qubit holding input bit k at the start
+  std::vector<int> final_placement;  ///< physical qubit holding output bit k at the end
+  int statevector_limit = 16;        ///< simulate when spec.qubits <= this
+  bool structural = true;            ///< run the structural proof (any size)
+  const std::atomic<bool>* interrupt = nullptr;  ///< when set and true: throw Interrupted (run_budget.hpp)
+};
+
+/// Outcome. `ok` false comes with the first offending gate's line (0 when not tied to a line).
+struct CheckResult {
+  bool ok = true;
+  std::string message;               ///< why it failed, or a one-line account of what was proved
+  int line = 0;
+  bool structural_proved = false;    ///< the structural proof ran and passed
+  bool simulated = false;            ///< the state-vector comparison ran and passed
+  /// The structural proof met a construct it cannot reason about (sx, wide parities, phases of
+  /// degree > 2): "cannot prove", not a refutation. Set with `ok` false unless simulation passed.
+  bool inconclusive = false;
+};
+
+/// Streaming structural proof: tracks the parity (GF(2)-linear function of the input and
+/// Hadamard-output variables) held by every physical qubit and the phase polynomial in monomial
+/// form, and at every Hadamard requires exactly the controlled phases the QFT order demands.
+/// Handles h, x, rz, p, cx, cz, cp, swap and cp_swap, and h-cz-h sandwiches written as cz.
+class StructuralChecker final : public GateSink {
+ public:
+  /// `device` must outlive the checker; `placement[k]` is the qubit holding input bit k.
+  StructuralChecker(const Device& device, const QftSpec& spec, std::vector<int> placement);
+  /// Feeds one gate; `line` is reported on failure (0 for none).
+  void gate(const Gate& g, int line);
+  void gate(const Gate& g) override { gate(g, 0); }
+  /// Checks the end state against `final_placement` and returns the verdict.
+  CheckResult finish(const std::vector<int>& final_placement);
+  bool failed() const;
+  /// Number of gates fed so far.
+  long long gate_count() const;
+
+ private:
+  struct Impl;
+  std::shared_ptr<Impl> impl_;
+};
+
+/// Checks a parsed program: couplers, then the structural proof and/or state-vector simulation.
+CheckResult check_qft_circuit(const Device& device, const QasmProgram& program, const CheckRequest& request);
+
+/// The exact QFT of a logical state vector (index bit k = bit k of the register): forward
+/// b_y = 2^(-n/2) sum_j exp(+2 pi i j y / 2^n) a_j, inverse with the opposite sign. Radix-2 FFT.
+std::vector<std::complex<double>> exact_qft(std::vector<std::complex<double>> a, bool inverse);
+
+/// The transform `spec` asks for, applied to a logical state vector of spec.qubits qubits:
+/// exact_qft when every rotation is kept, else the textbook approximate-QFT gate list simulated.
+std::vector<std::complex<double>> reference_qft(const QftSpec& spec, const std::vector<std::complex<double>>& a);
+
+/// A readable angle: "pi/8", "-3*pi/32", or "pi/2**40" for tiny ones.
+std::string angle_text(const Angle& a);
+
+}  // namespace qftplan

@@ -1,0 +1,58 @@
+#pragma once
+/// \file qft_spec.hpp
+/// What transform is asked for: register size, approximation degree, direction.
+
+#include <algorithm>
+#include <optional>
+#include <string>
+
+#include "qftplan/core/angle.hpp"
+
+namespace qftplan {
+
+/// Largest register planned: the exact QFT of n qubits has n(n-1)/2 two-qubit blocks (1.3e8 at
+/// this cap), and OpenQASM 2 writes angles pi/2^k with all decimal digits of 2^k.
+inline constexpr int kMaxRegisterQubits = 16'384;
+
+/// The QFT to plan. Logical qubit k holds the input bit of weight 2^k (little-endian).
+/// The forward QFT maps |j> to 2^(-n/2) sum_y exp(2 pi i j y / 2^n) |y>
+/// (Nielsen & Chuang, Quantum Computation and Quantum Information, 2000, section 5.1, eq. 5.2).
+struct QftSpec {
+  int qubits = 0;
+  /// Approximate QFT of degree M: keep controlled rotations R_k = diag(1, e^{2 pi i/2^k}) with
+  /// k <= M and drop the rest (Coppersmith, IBM RC19642, 1994; Barenco et al., PRA 54, 139, 1996).
+  /// Absent: exact.
+  std::optional<int> approx_degree;
+  bool inverse = false;
+
+  /// Largest distance j - i in processing order whose controlled phase is kept: M - 1, or n - 1
+  /// when exact (the rotation between processing indices i < j is R_{j-i+1}, angle pi/2^(j-i)).
+  int max_distance() const {
+    const int full = qubits - 1;
+    if (!approx_degree) return full;
+    return std::max(0, std::min(full, *approx_degree - 1));
+  }
+  /// True when the degree keeps every rotation.
+  bool effectively_exact() const { return max_distance() == qubits - 1; }
+  /// The controlled-phase angle between processing indices at distance `dist` (>= 1):
+  /// pi/2^dist, negated for the inverse.
+  Angle rotation(int dist) const {
+    const Angle a = Angle::pi_over_pow2(static_cast<std::uint32_t>(dist));
+    return inverse ? -a : a;
+  }
+  /// Processing index: the forward QFT treats logical qubit n-1 first (processing index 0), then
+  /// n-2, and so on; the wire of processing index i ends holding output bit i (the textbook bit
+  /// reversal, which we never emit). The inverse runs the same network backwards.
+  /// Processing index whose wire holds input bit `k` at the start.
+  int input_wire(int k) const { return inverse ? k : qubits - 1 - k; }
+  /// Processing index whose wire holds output bit `k` at the end.
+  int output_wire(int k) const { return inverse ? qubits - 1 - k : k; }
+
+  /// Number of controlled phases kept: sum over distances 1..max_distance of (n - dist).
+  long long kept_rotations() const {
+    const long long n = qubits, d = max_distance();
+    return d * n - d * (d + 1) / 2;
+  }
+};
+
+}  // namespace qftplan

@@ -1,0 +1,31 @@
+#pragma once
+/// \file parity_qft.hpp
+/// The parity network (ours): the reversal network's meetings done with two CX each, the register
+/// travelling along the chain as parities instead of being swapped.
+///
+/// Wires meet in the reversal network's order (Fowler, Devitt and Hollenberg, Quantum Inf. Comput. 4,
+/// 237, 2004), but a meeting of a right-moving wire a with a left-moving wire b is one parity_step
+/// (cx b->a; rz a; cx a->b, gate.hpp) instead of a fused controlled phase and SWAP. The right-mover a
+/// carries y_a XOR y_(a-1) (y: output bits), the left-mover b carries x_b XOR y_a after meeting a
+/// (x: input bits), so every meeting makes exactly the parity y_a XOR x_b the rotation between them
+/// needs, and the rz on it is the rotation's parity term (a controlled phase c on bits u, v is
+/// c/2 (u + v - (u XOR v))). The Hadamard of wire b meets x_b XOR y_(b-1): naming its output so that
+/// the qubit holds y_b XOR y_(b-1) turns the Hadamard's phase into pi x_b y_b plus pi x_b y_(b-1)
+/// (taken off the meeting of b-1 and b), pi y_(b-1) y_b (cancelled by an rz on y_b XOR y_(b-1)) and
+/// pi y_(b-1). The one-bit terms go on x_b at the start and on y_a at the end, and a last CX ladder
+/// turns the differences y_a XOR y_(a-1) back into y_a. Cost: n(n-1)/2 parity steps and n-1 CX, that
+/// is n^2 - 1 CX for the exact QFT of n qubits (the fused network needs 3 n(n-1)/2), in 2n-1 block
+/// layers; the final placement is the reversal network's.
+
+#include <span>
+
+#include "qftplan/networks/chain_qft.hpp"
+
+namespace qftplan {
+
+/// Streams the QFT of `spec` on `chain` with the parity network (`network` must be the reversal
+/// network of spec's register and degree, as make_parity_network gives) as h, rz, cx and
+/// parity_step gates; the inverse runs the circuit backwards. Returns the qubit maps.
+QubitMaps emit_parity_qft(const QftSpec& spec, const QftNetwork& network, std::span<const int> chain, GateSink& sink);
+
+}  // namespace qftplan

@@ -1,0 +1,182 @@
+#pragma once
+/// \file plan.hpp
+/// Planning a QFT on a device: choose where the register goes, stream the circuit through
+/// counters (and an optional output), and report what it costs.
+
+#include <array>
+#include <cstdint>
+#include <map>
+#include <memory>
+#include <optional>
+#include <stdexcept>
+#include <string>
+#include <vector>
+
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/core/qft_spec.hpp"
+#include "qftplan/device/device.hpp"
+#include "qftplan/networks/chain_qft.hpp"
+#include "qftplan/networks/end_order.hpp"
+#include "qftplan/networks/qft_network.hpp"
+#include "qftplan/planners/chain_search.hpp"
+#include "qftplan/planners/placement_search.hpp"
+#include "qftplan/planners/routed_planner.hpp"
+#include "qftplan/sinks/native_gates.hpp"
+#include "qftplan/sinks/noise_model.hpp"
+
+namespace qftplan {
+
+class RunBudget;
+
+/// What `--strategy auto` optimises when it compares strategies.
+enum class Objective { esp, depth, cx };
+/// Parses "esp", "depth", "cx"; InputError listing them otherwise.
+Objective parse_objective(const std::string& text);
+const char* objective_name(Objective o);
+
+/// What the user asked for.
+struct PlanOptions {
+  QftSpec spec;
+  std::optional<GateSet> gates;                  ///< emitted gate set; default: the device's native gate
+  std::optional<std::vector<int>> placement;     ///< pinned: physical qubit of input bit k
+  bool measure = false;                          ///< end with a measurement of every register qubit
+  bool swap_as_cx = false;                       ///< OpenQASM 2: swap written as three cx, cp and p counted as cu1, u1
+  ChainSearchOptions search;                     ///< seed and budget of the chain search
+  bool auto_approx = false;                      ///< choose the degree (spec.approx_degree is ignored)
+  bool calibration_aware = true;                 ///< pick the chain of highest ESP when calibrated
+  PlacementSearchOptions placement_search;       ///< budget of that choice
+  const RunBudget* budget = nullptr;             ///< time limit / interruption of every search (null: none)
+  std::string strategy = "auto";                 ///< a name from plan_strategies()
+  Objective objective = Objective::esp;          ///< what --strategy auto maximises or minimises
+  RoutingOptions routing;                        ///< settings of the routed strategy
+  EndOrder end_order = EndOrder::free;           ///< same: SWAPs at the end make final_placement == placement
+  NetworkChoice network = NetworkChoice::automatic;  ///< chain network of the chain and spine strategies
+};
+
+/// One approximation degree considered by the automatic choice.
+struct DegreeCandidate {
+  std::optional<int> degree;     ///< absent: exact
+  double log_esp = 0;            ///< ln ESP of the planned circuit with this degree
+  double error_bound = 0;        ///< approx_error_bound
+  double fidelity_bound = 1;     ///< lower bound on the fidelity to the exact QFT
+  double score = 0;              ///< esp * fidelity_bound
+  long long native_2q = 0;       ///< native two-qubit gates of the network (network_native_cost)
+};
+
+/// How the degree was chosen (--approx auto).
+struct DegreeChoice {
+  std::optional<int> chosen;
+  std::vector<DegreeCandidate> considered;  ///< every degree scored, in increasing order, exact last
+};
+
+/// How the chain was chosen.
+struct PlacementReport {
+  std::string method;                  ///< "pinned", "first-found", "exhaustive", "beam"
+  long long chains_scored = 0;
+  std::vector<ScoredChain> best;       ///< best first (ESP before idling)
+};
+
+/// One strategy tried by --strategy auto, with its figures (or why it failed).
+struct StrategyOutcome {
+  std::string strategy;
+  std::string network;
+  bool ok = false;
+  std::string reason;        ///< why it could not plan, when !ok
+  long long cx_count = 0;
+  long long depth_2q = 0;
+  long long swaps = 0;
+  double log_esp = 0;
+};
+
+struct PlanReport;
+
+/// Decisions made before any gate is emitted.
+struct PreparedPlan {
+  std::string strategy;                  ///< registry name of the planner ("chain")
+  std::unique_ptr<QftNetwork> network;
+  std::vector<int> chain;                ///< physical qubits along the chain, position 0 first
+  QubitMaps maps;
+  GateSet gates = GateSet::cx;
+  long long search_work = 0;             ///< neighbour inspections spent finding the chain
+  QftSpec spec;                          ///< the spec planned (degree filled in by --approx auto)
+  std::optional<DegreeChoice> degree_choice;
+  PlacementReport placement;
+  /// Empty when every search finished; else which searches the time limit cut short: the plan is
+  /// the best found so far and the command line warns and exits with status 3.
+  std::string cut_short;
+  std::optional<RoutedCircuit> routed;   ///< set by the routed strategy (then network and chain are unused)
+  std::vector<std::array<int, 3>> detours;  ///< spine strategy: (a, b, via) for uncoupled line neighbours
+  std::vector<StrategyOutcome> alternatives;  ///< every strategy --strategy auto tried
+  long long end_swaps = 0;               ///< SWAPs added by --end-order same (merged ones included)
+  std::shared_ptr<const PlanReport> evaluated;  ///< figures already computed while choosing (no output)
+};
+
+/// Figures of a planned circuit (the JSON report; README "Report fields" documents each).
+struct PlanReport {
+  int qubits = 0;
+  std::string device;
+  int device_qubits = 0;
+  std::string strategy;
+  std::string network;
+  std::optional<int> approx_degree;
+  bool inverse = false;
+  std::string gates;
+  std::string native_2q;
+  std::vector<int> placement;
+  std::vector<int> final_placement;
+  std::vector<int> chain;
+  long long two_qubit_blocks = 0;
+  long long swaps = 0;
+  long long rotations = 0;             ///< controlled phases kept
+  long long depth_2q = 0;
+  long long depth = 0;
+  long long cx_count = 0;
+  long long cx_depth = 0;
+  std::map<std::string, long long> gate_counts;
+  long long output_bytes = 0;
+  double elapsed_ms = 0;
+  NoiseFigures noise;
+  bool calibrated = false;
+  bool measured = false;
+  double approx_error_bound = 0;
+  std::optional<DegreeChoice> degree_choice;
+  PlacementReport placement_choice;
+  long long depth_2q_unfused = 0;      ///< two-qubit depth counting a fused block as cp then swap
+  long long lower_bound_blocks = 0;    ///< kept rotations: each needs its own two-qubit gate
+  long long lower_bound_depth_2q = 0;  ///< n-1 (see plan.cpp for the derivation)
+  std::vector<StrategyOutcome> alternatives;
+  std::string end_order = "free";      ///< end-order policy: "free" or "same"
+  long long end_swaps = 0;             ///< SWAPs added to restore the order (in swaps and cx_count too)
+  std::uint64_t seed = 1;              ///< --seed of the searches (re-planning with it gives this plan)
+};
+
+/// A planning strategy: its name (as given to --strategy), a one-line description, and its entry.
+struct StrategyInfo {
+  const char* name;
+  const char* description;
+  PreparedPlan (*prepare)(const Device& device, const PlanOptions& options);
+};
+
+/// Every strategy, "auto" first. The same table drives --help and the "unknown strategy" error.
+const std::vector<StrategyInfo>& plan_strategies();
+
+/// Validates the request and decides the placement. Throws InputError for invalid pins and
+/// PlanningError when the device cannot hold the register.
+PreparedPlan prepare_plan(const Device& device, const PlanOptions& options);
+
+/// Streams the circuit through the counters and, when given, `output` (in the chosen gate set),
+/// and fills the report. `elapsed_ms` covers only this call; callers add the preparation time.
+PlanReport execute_plan(const Device& device, const PlanOptions& options, const PreparedPlan& plan, GateSink* output);
+
+/// Both steps; no output.
+PlanReport plan_qft(const Device& device, const PlanOptions& options);
+
+/// Parses "a,b,c" into qubit ids; InputError on malformed text.
+std::vector<int> parse_id_list(const std::string& text, const std::string& what);
+
+/// Parses an approximation degree as `--approx` takes it: "none" (nullopt) or a whole M in
+/// 1 .. kMaxRegisterQubits; InputError with the command line's message otherwise. ("auto" is the
+/// caller's to handle.)
+std::optional<int> parse_approx_degree(const std::string& text);
+
+}  // namespace qftplan

@@ -1,0 +1,68 @@
+#pragma once
+/// \file qasm_writer.hpp
+/// OpenQASM 3 and 2 text output of a gate stream, buffered for speed.
+
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "qftplan/core/atomic_file.hpp"
+#include "qftplan/core/gate.hpp"
+#include "qftplan/core/qft_spec.hpp"
+
+namespace qftplan {
+
+enum class QasmVersion { v2, v3 };
+
+/// Parses "qasm3" / "qasm2"; InputError otherwise.
+QasmVersion parse_qasm_version(const std::string& text);
+
+/// What the header comment of an emitted file records.
+struct CircuitHeader {
+  std::string device_name;
+  int device_qubits = 0;
+  std::string strategy;              ///< e.g. "chain (reversal network)"
+  QftSpec spec;
+  std::vector<int> placement;
+  std::vector<int> final_placement;
+  int measured_bits = 0;             ///< > 0: declare a bit register of this size
+};
+
+/// Writes gates as OpenQASM text. Version 3 addresses physical qubits as $k with stdgates.inc
+/// names; version 2 declares qreg q[D] with qelib1.inc names (cu1 for cp, u1 for p, three cx for
+/// swap). A cp_swap is written as cp then swap, a parity_step as cx, rz, cx. Angles are exact (pi/2**k,
+/// or pi/K in version 2).
+class QasmWriter final : public GateSink {
+ public:
+  QasmWriter(QasmVersion version, const CircuitHeader& header, TextOutput& out);
+  void gate(const Gate& g) override;
+  void finish() override;
+  /// Bytes written so far.
+  long long bytes() const { return bytes_ + static_cast<long long>(len_); }
+
+ private:
+  // The text goes into a fixed buffer through a cursor (no per-append capacity checks); room() makes
+  // sure a whole gate's line fits, handing the buffer on when it is full.
+  char* room(std::size_t n);
+  char* qubit(char* p, int q) const;
+  char* angle(char* p, const Angle& a);
+  void append(std::string_view text);
+  void flush();
+  QasmVersion version_;
+  TextOutput& out_;
+  std::vector<char> buf_;
+  std::size_t len_ = 0;
+  std::string angle2_;  // an OpenQASM 2 angle (its denominator can have thousands of digits)
+  // Each gate names one or two qubits and most angles are +-pi/2^k, so their texts are made once:
+  // 16-byte slots holding the length then the characters ("$17", "q[17]"; "pi/2**5", "-pi/2**5").
+  static constexpr std::size_t kSlot = 16;
+  std::vector<char> qubit_text_;
+  std::vector<char> angle_text_;  // OpenQASM 3: slot 2k for pi/2^k, 2k+1 for -pi/2^k
+  long long bytes_ = 0;
+};
+
+/// The human-readable description of the transform used in headers and summaries,
+/// e.g. "inverse QFT on 8 qubits, approximate (degree 3)".
+std::string describe_transform(const QftSpec& spec);
+
+}  // namespace qftplan

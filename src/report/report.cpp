@@ -1,0 +1,169 @@
+#include "qftplan/report/report.hpp"
+
+#include <fmt/format.h>
+
+#include "qftplan/qasm/qasm_writer.hpp"
+
+namespace qftplan {
+
+nlohmann::ordered_json report_to_json(const PlanReport& r) {
+  nlohmann::ordered_json j;
+  j["schema_version"] = kReportSchemaVersion;
+  j["qubits"] = r.qubits;
+  j["device"] = r.device;
+  j["device_qubits"] = r.device_qubits;
+  j["strategy"] = r.strategy;
+  j["network"] = r.network;
+  j["approx_degree"] = r.approx_degree ? nlohmann::ordered_json(*r.approx_degree) : nlohmann::ordered_json(nullptr);
+  j["inverse"] = r.inverse;
+  j["gates"] = r.gates;
+  j["native_2q"] = r.native_2q;
+  j["placement"] = r.placement;
+  j["final_placement"] = r.final_placement;
+  j["chain"] = r.chain;
+  j["two_qubit_blocks"] = r.two_qubit_blocks;
+  j["swaps"] = r.swaps;
+  j["rotations"] = r.rotations;
+  j["depth_2q"] = r.depth_2q;
+  j["depth"] = r.depth;
+  j["depth_2q_unfused"] = r.depth_2q_unfused;
+  j["lower_bound_blocks"] = r.lower_bound_blocks;
+  j["lower_bound_depth_2q"] = r.lower_bound_depth_2q;
+  j["blocks_over_bound"] = r.lower_bound_blocks > 0 ? nlohmann::ordered_json(double(r.two_qubit_blocks) / r.lower_bound_blocks)
+                                                    : nlohmann::ordered_json(nullptr);
+  j["depth_2q_over_bound"] = r.lower_bound_depth_2q > 0
+                                 ? nlohmann::ordered_json(double(r.depth_2q) / r.lower_bound_depth_2q)
+                                 : nlohmann::ordered_json(nullptr);
+  j["end_order"] = r.end_order;
+  j["end_swaps"] = r.end_swaps;
+  j["seed"] = r.seed;
+  j["cx_count"] = r.cx_count;
+  j["cx_depth"] = r.cx_depth;
+  j["gate_counts"] = r.gate_counts;
+  j["esp"] = r.noise.esp;
+  j["log_esp"] = r.noise.log_esp;
+  j["esp_with_idle"] = r.noise.esp_with_idle;
+  j["esp_with_readout"] = r.measured ? nlohmann::ordered_json(r.noise.esp_with_readout) : nlohmann::ordered_json(nullptr);
+  j["duration_ns"] = r.noise.duration_ns;
+  j["calibrated"] = r.calibrated;
+  j["approx_error_bound"] = r.approx_error_bound;
+  if (r.degree_choice) {
+    nlohmann::ordered_json d;
+    d["chosen"] = r.degree_choice->chosen ? nlohmann::ordered_json(*r.degree_choice->chosen) : nlohmann::ordered_json(nullptr);
+    auto& list = d["considered"] = nlohmann::ordered_json::array();
+    for (const auto& c : r.degree_choice->considered)
+      list.push_back({{"degree", c.degree ? nlohmann::ordered_json(*c.degree) : nlohmann::ordered_json(nullptr)},
+                      {"esp", std::exp(c.log_esp)},
+                      {"approx_error_bound", c.error_bound},
+                      {"fidelity_bound", c.fidelity_bound},
+                      {"score", c.score}});
+    j["approx_choice"] = d;
+  } else {
+    j["approx_choice"] = nullptr;
+  }
+  nlohmann::ordered_json pc;
+  pc["method"] = r.placement_choice.method;
+  pc["chains_scored"] = r.placement_choice.chains_scored;
+  auto& best = pc["best"] = nlohmann::ordered_json::array();
+  for (const auto& c : r.placement_choice.best) best.push_back({{"chain", c.chain}, {"esp", std::exp(c.log_esp)}});
+  j["placement_choice"] = pc;
+  auto& alts = j["alternatives"] = nlohmann::ordered_json::array();
+  for (const auto& a : r.alternatives) {
+    nlohmann::ordered_json x;
+    x["strategy"] = a.strategy;
+    x["ok"] = a.ok;
+    if (a.ok) {
+      x["network"] = a.network;
+      x["cx_count"] = a.cx_count;
+      x["depth_2q"] = a.depth_2q;
+      x["swaps"] = a.swaps;
+      x["esp"] = std::exp(a.log_esp);
+    } else {
+      x["reason"] = a.reason;
+    }
+    alts.push_back(x);
+  }
+  j["elapsed_ms"] = r.elapsed_ms;
+  return j;
+}
+
+std::string report_to_json_text(const PlanReport& r) { return report_to_json(r).dump(2) + "\n"; }
+
+namespace {
+std::string short_list(const std::vector<int>& v) {
+  if (v.size() <= 16) return fmt::format("{}", fmt::join(v, " "));
+  return fmt::format("{} ... {} ({} entries)", fmt::join(v.begin(), v.begin() + 8, " "),
+                     fmt::join(v.end() - 4, v.end(), " "), v.size());
+}
+}  // namespace
+
+std::string format_plan_summary(const PlanReport& r) {
+  QftSpec spec{r.qubits, r.approx_degree, r.inverse};
+  std::string s;
+  s += fmt::format("{} on {} ({} qubits)\n", describe_transform(spec), r.device, r.device_qubits);
+  s += fmt::format("  strategy        {} ({} network)\n", r.strategy, r.network);
+  s += fmt::format("  placement       {}\n", short_list(r.placement));
+  s += fmt::format("  final placement {}\n", short_list(r.final_placement));
+  s += fmt::format("  blocks          {} two-qubit blocks, {} with a SWAP, {} rotations\n", r.two_qubit_blocks, r.swaps,
+                   r.rotations);
+  s += fmt::format("  depth           {} two-qubit layers, {} layers in all ({} gates)\n", r.depth_2q, r.depth, r.gates);
+  s += fmt::format("  native {}       {} gates in {} layers\n", r.native_2q, r.cx_count, r.cx_depth);
+  if (r.calibrated) {
+    s += fmt::format("  ESP             {:.4g} (gates), {:.4g} with idling over {:.0f} ns", r.noise.esp, r.noise.esp_with_idle,
+                     r.noise.duration_ns);
+    if (r.measured) s += fmt::format(", {:.4g} with readout", r.noise.esp_with_readout);
+    s += "\n";
+  }
+  if (r.end_order == "same")
+    s += fmt::format("  end order       same as the start ({} SWAP{} added)\n", r.end_swaps, r.end_swaps == 1 ? "" : "s");
+  if (r.approx_degree) s += fmt::format("  approximation   error bound {:.3g} (operator norm)\n", r.approx_error_bound);
+  if (r.lower_bound_depth_2q > 0)
+    s += fmt::format("  vs lower bound  blocks x{:.2f}, two-qubit depth x{:.2f}\n",
+                     double(r.two_qubit_blocks) / std::max<long long>(1, r.lower_bound_blocks),
+                     double(r.depth_2q) / r.lower_bound_depth_2q);
+  for (const auto& a : r.alternatives) {
+    if (a.strategy == r.strategy) continue;
+    if (a.ok)
+      s += fmt::format("  vs {:<12} {} CX (x{:.2f}), two-qubit depth {} (x{:.2f})\n", a.strategy, a.cx_count,
+                       double(a.cx_count) / std::max<long long>(1, r.cx_count), a.depth_2q,
+                       double(a.depth_2q) / std::max<long long>(1, r.depth_2q));
+    else
+      s += fmt::format("  vs {:<12} {}\n", a.strategy, a.reason);
+  }
+  s += fmt::format("  planned in      {:.1f} ms\n", r.elapsed_ms);
+  return s;
+}
+
+std::string format_plan_explanation(const PlanReport& r) {
+  std::string s;
+  const auto& pc = r.placement_choice;
+  s += fmt::format("placement: {} ({} chain{} scored)\n", pc.method, pc.chains_scored, pc.chains_scored == 1 ? "" : "s");
+  for (std::size_t i = 0; i < pc.best.size(); ++i) {
+    const auto& c = pc.best[i];
+    const char* tag = i == 0 ? "chosen   " : i == 1 ? "runner-up" : "         ";
+    s += fmt::format("  {}  esp {:<10.4g}  chain {}\n", tag, std::exp(c.log_esp), short_list(c.chain));
+  }
+  if (r.degree_choice) {
+    const auto& d = *r.degree_choice;
+    auto name = [](const std::optional<int>& m) { return m ? std::to_string(*m) : std::string("exact"); };
+    s += fmt::format("approximation degree: {} chosen\n", name(d.chosen));
+    s += "  degree   esp          error bound  fidelity >=  score\n";
+    double exact_score = -1;
+    for (const auto& c : d.considered)
+      if (!c.degree) exact_score = c.score;
+    for (const auto& c : d.considered) {
+      const bool mark = c.degree == d.chosen;
+      s += fmt::format("  {:<6}   {:<11.4g}  {:<11.3g}  {:<11.6f}  {:.4g}{}\n", name(c.degree), std::exp(c.log_esp), c.error_bound,
+                       c.fidelity_bound, c.score, mark ? "  <- chosen" : "");
+    }
+    if (exact_score > 0) {
+      for (const auto& c : d.considered)
+        if (c.degree == d.chosen) s += fmt::format("  chosen against exact: {:.4g}x the score\n", c.score / exact_score);
+    } else {
+      s += "  exact not scored (too large to plan twice)\n";
+    }
+  }
+  return s;
+}
+
+}  // namespace qftplan

@@ -1,0 +1,359 @@
+#include "qftplan/svg/svg_chart.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <tuple>
+
+#include <fmt/format.h>
+
+#include "qftplan/svg/svg_markers.hpp"
+#include "qftplan/svg/svg_palette.hpp"
+
+namespace qftplan {
+namespace {
+
+// Heckbert (1990), "nicenum": a number of the form 1, 2 or 5 times a power of ten near x, rounded
+// to the nearest such number or taken as the next one up.
+double nice_number(double x, bool round) {
+  const double e = std::floor(std::log10(x));
+  const double f = x / std::pow(10.0, e);
+  double nf;
+  if (round) nf = f < 1.5 ? 1 : f < 3 ? 2 : f < 7 ? 5 : 10;
+  else nf = f <= 1 ? 1 : f <= 2 ? 2 : f <= 5 ? 5 : 10;
+  return nf * std::pow(10.0, e);
+}
+
+const SvgFont kTickFont{11, "end", "#333333"};
+const char* kAxisColour = "#4d4d4d";
+const char* kGridColour = "#e3e3e3";
+const char* kReferenceColour = "#8c8c8c";
+
+// Margins of the plot inside a chart box, and the legend's measures.
+constexpr double kLeft = 78, kTop = 34, kBottom = 52;
+constexpr double kRightLegendW = 250;    // legend beside the plot
+constexpr double kLegendFont = 11.5, kLegendRow = 18, kSample = 26, kSampleGap = 8;
+// Width of a legend character: about 0.6 em in DejaVu Sans (its lowercase letters and digits run
+// 0.3 to 0.7 em; common practice to estimate so), with a little to spare.
+constexpr double kCharEm = 0.62;
+
+// Characters of a UTF-8 string (continuation bytes not counted).
+std::size_t char_count(const std::string& s) {
+  return static_cast<std::size_t>(std::count_if(s.begin(), s.end(), [](char c) { return (static_cast<unsigned char>(c) & 0xC0) != 0x80; }));
+}
+
+// Cuts a legend name to at most max_chars characters (only names too long for a whole row are cut).
+std::string fit_name(const std::string& name, std::size_t max_chars) {
+  if (char_count(name) <= max_chars) return name;
+  std::string out;
+  std::size_t chars = 0;
+  for (const char c : name) {
+    const bool start = (static_cast<unsigned char>(c) & 0xC0) != 0x80;
+    if (start && ++chars > max_chars - 1) break;
+    out += c;
+  }
+  return out + "\u2026";
+}
+
+double text_width(const std::string& s, double font) { return static_cast<double>(char_count(s)) * font * kCharEm; }
+
+// Where the legend goes: beside the plot while its entries fit there, else under the plot in as
+// many columns as the width holds (column-major), the chart box growing by its height.
+struct LegendLayout {
+  bool below = false;
+  std::size_t entries = 0, columns = 1, rows = 0;
+  double column_w = kRightLegendW;
+  double height = 0;        // extra height under the plot (0 beside it)
+  std::size_t max_chars = 0;
+};
+
+std::vector<std::string> legend_names(const ChartSpec& c) {
+  std::vector<std::string> names;
+  for (const auto& s : c.series) names.push_back(s.name);
+  if (c.reference && !c.reference->points.empty()) names.push_back(c.reference->name);
+  return names;
+}
+
+LegendLayout legend_layout(const ChartSpec& c, double w) {
+  LegendLayout L;
+  const auto names = legend_names(c);
+  L.entries = names.size();
+  double widest = 0;
+  for (const auto& n : names) widest = std::max(widest, text_width(n, kLegendFont));
+  const double text_room = kRightLegendW - kSample - kSampleGap - 14;
+  const double plot_h = kChartBaseHeight - kTop - kBottom;
+  if (static_cast<double>(L.entries) * kLegendRow <= plot_h - 6 && widest <= text_room) {
+    L.rows = L.entries;
+    L.max_chars = static_cast<std::size_t>(text_room / (kLegendFont * kCharEm));
+    return L;
+  }
+  L.below = true;
+  const double room = std::max(120.0, w - kLeft - 10);
+  L.column_w = std::min(room, kSample + kSampleGap + widest + 22);
+  L.columns = std::max<std::size_t>(1, static_cast<std::size_t>(room / L.column_w));
+  L.rows = (L.entries + L.columns - 1) / L.columns;
+  L.height = 10 + static_cast<double>(L.rows) * kLegendRow;
+  L.max_chars = static_cast<std::size_t>((L.column_w - kSample - kSampleGap - 10) / (kLegendFont * kCharEm));
+  return L;
+}
+
+// A series line; light colours get a dark casing under it.
+void series_line(SvgDocument& doc, const std::vector<SvgPoint>& pts, const std::string& colour, const std::string& dash) {
+  if (pts.size() < 2) return;
+  SvgPaint line{"none", colour, 2, dash};
+  line.linejoin = "round";
+  if (needs_outline(colour)) {
+    SvgPaint casing = line;
+    casing.stroke = kOutlineColour;
+    casing.stroke_width = 3.3;
+    doc.polyline(pts, casing);
+  }
+  doc.polyline(pts, line);
+}
+
+}  // namespace
+
+AxisTicks nice_ticks(double lo, double hi, int target, bool whole) {
+  if (!std::isfinite(lo) || !std::isfinite(hi)) lo = 0, hi = 1;
+  if (hi < lo) std::swap(lo, hi);
+  if (hi - lo < 1e-12 * std::max(1.0, std::abs(hi))) lo -= 1, hi += 1;
+  target = std::max(target, 2);
+  const double range = nice_number(hi - lo, false);
+  // 1 is itself a nice number, so a whole-number axis keeps Heckbert's steps from 1 up.
+  const double d = std::max(nice_number(range / (target - 1), true), whole ? 1.0 : 0.0);
+  AxisTicks t;
+  t.step = d;
+  t.lo = std::floor(lo / d) * d;
+  t.hi = std::ceil(hi / d) * d;
+  for (double v = t.lo; v < t.hi + 0.5 * d; v += d) t.values.push_back(std::abs(v) < 1e-9 * d ? 0.0 : v);
+  return t;
+}
+
+AxisTicks decade_ticks(double lo, double hi, int target) {
+  if (!std::isfinite(lo) || !std::isfinite(hi)) lo = -1, hi = 0;
+  if (hi < lo) std::swap(lo, hi);
+  double a = std::floor(lo), b = std::ceil(hi);
+  if (a == b) a -= 1, b += 1;
+  target = std::max(target, 2);
+  double step = 1;
+  while ((b - a) / step > target) step = nice_number(step * 1.5, false);
+  step = std::max(1.0, std::round(step));
+  AxisTicks t;
+  t.step = step;
+  t.lo = std::floor(a / step) * step;
+  t.hi = std::ceil(b / step) * step;
+  for (double v = t.lo; v <= t.hi + 1e-9; v += step) t.values.push_back(v);
+  return t;
+}
+
+std::string format_tick(double value, double step) {
+  const int decimals = step >= 1 ? 0 : static_cast<int>(std::ceil(-std::log10(step) - 1e-9));
+  if (std::abs(value) < 1e-9 * step) value = 0;  // no "-0"
+  return fmt::format("{:.{}f}", value, decimals);
+}
+
+std::string format_decade(int exponent, bool power_form) {
+  if (!power_form) {
+    if (exponent >= 0) return "1" + std::string(static_cast<std::size_t>(exponent), '0');
+    return "0." + std::string(static_cast<std::size_t>(-exponent - 1), '0') + "1";
+  }
+  static const char* digits[] = {"\u2070", "\u00B9", "\u00B2", "\u00B3", "\u2074",
+                                 "\u2075", "\u2076", "\u2077", "\u2078", "\u2079"};
+  std::string s = "10";
+  if (exponent < 0) s += "\u207B";
+  for (const char c : std::to_string(std::abs(exponent))) s += digits[c - '0'];
+  return s;
+}
+
+std::vector<std::string> decade_labels(const AxisTicks& ticks) {
+  bool decimal = true;
+  for (const double v : ticks.values) decimal = decimal && std::abs(v) <= 3 + 1e-9;
+  std::vector<std::string> out;
+  for (const double v : ticks.values) out.push_back(format_decade(static_cast<int>(std::lround(v)), !decimal));
+  return out;
+}
+
+double chart_height(const ChartSpec& chart, double w) { return kChartBaseHeight + legend_layout(chart, w).height; }
+
+void draw_chart(SvgDocument& doc, const ChartSpec& chart, double x, double y, double w, double h) {
+  const LegendLayout legend = legend_layout(chart, w);
+  const double base_h = std::max(kTop + kBottom + 40, h - legend.height);
+  const double right = legend.below ? 24 : kRightLegendW + 16;
+  const double px = x + kLeft, py = y + kTop, pw = std::max(40.0, w - kLeft - right),
+               ph = std::max(40.0, base_h - kTop - kBottom);
+
+  doc.begin_group({}, "chart");
+  doc.text(x + kLeft, y + 20, chart.title, SvgFont{15, "start", "#1a1a1a", true});
+
+  // Data range over every series and the reference.
+  double xmin = std::numeric_limits<double>::infinity(), xmax = -xmin, ymin = xmin, ymax = -xmin;
+  auto cover = [&](const ChartSeries& s) {
+    for (const auto& p : s.points) {
+      if (!std::isfinite(p.x) || !std::isfinite(p.y)) continue;
+      xmin = std::min(xmin, p.x), xmax = std::max(xmax, p.x);
+      ymin = std::min(ymin, p.y), ymax = std::max(ymax, p.y);
+    }
+  };
+  for (const auto& s : chart.series) cover(s);
+  if (chart.reference) cover(*chart.reference);
+  const bool empty = !std::isfinite(xmin);
+  if (empty) xmin = 0, xmax = 1, ymin = chart.log_y ? -1 : 0, ymax = 1;
+  if (!chart.log_y) {
+    ymin = std::min(ymin, 0.0);           // counts start at zero
+    if (ymax <= ymin) ymax = ymin + 1;    // all zero: the axis runs 0..1, not below zero
+  }
+  if (chart.x_span) xmin = std::min(xmin, chart.x_span->x), xmax = std::max(xmax, chart.x_span->y);
+
+  const AxisTicks xt = nice_ticks(xmin, xmax, 8, chart.integer_x);
+  const AxisTicks yt = chart.log_y ? decade_ticks(ymin, ymax, 8) : nice_ticks(ymin, ymax, 6, chart.integer_y);
+  auto sx = [&](double v) { return px + (v - xt.lo) / (xt.hi - xt.lo) * pw; };
+  auto sy = [&](double v) { return py + ph - (v - yt.lo) / (yt.hi - yt.lo) * ph; };
+
+  // Grid and ticks; the labels of one axis share one style.
+  SvgPaint grid{"none", kGridColour, 1};
+  SvgPaint axis{"none", kAxisColour, 1.2};
+  const std::vector<std::string> ylabels = chart.log_y ? decade_labels(yt) : std::vector<std::string>{};
+  doc.begin_group({}, "y-ticks");
+  for (std::size_t i = 0; i < yt.values.size(); ++i) {
+    const double v = yt.values[i];
+    doc.line(px, sy(v), px + pw, sy(v), grid);
+    doc.line(px - 5, sy(v), px, sy(v), axis);
+    SvgFont f = kTickFont;
+    f.middle = true;
+    doc.text(px - 8, sy(v), chart.log_y ? ylabels[i] : format_tick(v, yt.step), f);
+  }
+  doc.end_group();
+  doc.begin_group({}, "x-ticks");
+  for (const double v : xt.values) {
+    doc.line(sx(v), py, sx(v), py + ph, grid);
+    doc.line(sx(v), py + ph, sx(v), py + ph + 5, axis);
+    SvgFont f = kTickFont;
+    f.anchor = "middle";
+    doc.text(sx(v), py + ph + 19, format_tick(v, xt.step), f);
+  }
+  doc.end_group();
+  doc.line(px, py + ph, px + pw, py + ph, axis);
+  doc.line(px, py, px, py + ph, axis);
+  doc.text(px + pw / 2, y + base_h - 10, chart.x_label, SvgFont{12, "middle", "#1a1a1a"});
+  SvgFont ylab{12, "middle", "#1a1a1a"};
+  ylab.rotate = -90;
+  doc.text(x + 18, py + ph / 2, chart.y_label, ylab);
+  if (empty) doc.text(px + pw / 2, py + ph / 2, "no planned runs to show", SvgFont{13, "middle", "#777777"});
+
+  // The reference first, so that series are drawn over it; a single point is a short level dash.
+  const SvgPaint ref_paint{"none", kReferenceColour, 1.5, "5 4"};
+  if (chart.reference && !chart.reference->points.empty()) {
+    std::vector<SvgPoint> pts;
+    for (const auto& p : chart.reference->points)
+      if (std::isfinite(p.x) && std::isfinite(p.y)) pts.push_back({sx(p.x), sy(p.y)});
+    std::stable_sort(pts.begin(), pts.end(), [](const SvgPoint& a, const SvgPoint& b) { return a.x < b.x; });
+    doc.begin_group({}, "reference");
+    if (pts.size() == 1) doc.line(pts[0].x - 18, pts[0].y, pts[0].x + 18, pts[0].y, ref_paint);
+    else if (pts.size() > 1) doc.polyline(pts, ref_paint);
+    doc.end_group();
+  }
+
+  auto style = [&](std::size_t i) {
+    return chart.series[i].style >= 0 ? static_cast<std::size_t>(chart.series[i].style) : i;
+  };
+  // Every series' points in px, in order of x.
+  struct Mark {
+    std::size_t series;
+    double data_x, x, y;
+  };
+  std::vector<std::vector<SvgPoint>> scaled(chart.series.size());
+  std::vector<Mark> marks;
+  for (std::size_t i = 0; i < chart.series.size(); ++i) {
+    auto pts = chart.series[i].points;
+    std::erase_if(pts, [](const SvgPoint& p) { return !std::isfinite(p.x) || !std::isfinite(p.y); });
+    std::stable_sort(pts.begin(), pts.end(), [](const SvgPoint& a, const SvgPoint& b) { return a.x < b.x; });
+    for (const auto& p : pts) {
+      scaled[i].push_back({sx(p.x), sy(p.y)});
+      marks.push_back({i, p.x, sx(p.x), sy(p.y)});
+    }
+  }
+  // Markers of different series at one x whose y are closer than a marker are spread sideways,
+  // centred on x, a marker apart, the whole spread within 40 % of the gap to the next x (so that
+  // each stays nearer its own x than any other; their rims keep crowded ones apart).
+  std::vector<double> xs;
+  for (const auto& m : marks) xs.push_back(m.x);
+  std::sort(xs.begin(), xs.end());
+  xs.erase(std::unique(xs.begin(), xs.end(), [](double a, double b) { return std::abs(a - b) < 0.5; }), xs.end());
+  double gap = pw / 4;
+  for (std::size_t k = 1; k < xs.size(); ++k) gap = std::min(gap, xs[k] - xs[k - 1]);
+  std::sort(marks.begin(), marks.end(), [](const Mark& a, const Mark& b) {
+    return std::tie(a.data_x, a.y, a.series) < std::tie(b.data_x, b.y, b.series);
+  });
+  for (std::size_t a = 0; a < marks.size();) {
+    std::size_t b = a + 1;
+    while (b < marks.size() && marks[b].data_x == marks[a].data_x && marks[b].y - marks[b - 1].y < kChartMarkerSize * 0.8) ++b;
+    const std::size_t k = b - a;
+    if (k > 1) {
+      std::sort(marks.begin() + static_cast<long>(a), marks.begin() + static_cast<long>(b),
+                [](const Mark& p, const Mark& q) { return p.series < q.series; });
+      const double step = std::min(kChartMarkerSize, 0.4 * gap / static_cast<double>(k - 1));
+      for (std::size_t j = 0; j < k; ++j) marks[a + j].x += (static_cast<double>(j) - static_cast<double>(k - 1) / 2) * step;
+    }
+    a = b;
+  }
+  // Lines through their own (spread) markers, so that coinciding series show two lines side by side;
+  // lines under every marker; markers in series order, so the legend's order is the painting order.
+  std::stable_sort(marks.begin(), marks.end(), [](const Mark& p, const Mark& q) {
+    return std::tie(p.series, p.data_x) < std::tie(q.series, q.data_x);
+  });
+  for (auto& pts : scaled) pts.clear();
+  for (const auto& m : marks) scaled[m.series].push_back({m.x, m.y});
+  doc.begin_group({}, "lines");
+  for (std::size_t i = 0; i < chart.series.size(); ++i) series_line(doc, scaled[i], series_colour(style(i)), series_dash(style(i)));
+  doc.end_group();
+  doc.begin_group({}, "markers");
+  for (const auto& m : marks)
+    draw_marker(doc, series_marker(style(m.series)), m.x, m.y, kChartMarkerSize, series_colour(style(m.series)));
+  doc.end_group();
+
+  // Legend: every series (and the reference), a line sample with the series' marker, then the name;
+  // beside the plot, or under it in columns.
+  doc.begin_group({}, "legend");
+  const auto names = legend_names(chart);
+  const double lx0 = legend.below ? px : px + pw + 18;
+  const double ly0 = legend.below ? y + base_h + 4 : py + 6;
+  SvgFont name_font{kLegendFont, "start", "#1a1a1a"};
+  name_font.middle = true;
+  for (std::size_t e = 0; e < names.size(); ++e) {
+    const std::size_t col = e / std::max<std::size_t>(legend.rows, 1), row = e % std::max<std::size_t>(legend.rows, 1);
+    const double lx = lx0 + static_cast<double>(col) * legend.column_w, ly = ly0 + static_cast<double>(row) * kLegendRow;
+    if (e < chart.series.size()) {
+      const std::string colour = series_colour(style(e));
+      series_line(doc, {{lx, ly}, {lx + kSample, ly}}, colour, series_dash(style(e)));
+      draw_marker(doc, series_marker(style(e)), lx + kSample / 2, ly, kChartMarkerSize, colour);
+      doc.text(lx + kSample + kSampleGap, ly, fit_name(names[e], legend.max_chars), name_font);
+    } else {
+      doc.line(lx, ly, lx + kSample, ly, ref_paint);
+      SvgFont f = name_font;
+      f.fill = "#555555";
+      doc.text(lx + kSample + kSampleGap, ly, fit_name(names[e], legend.max_chars), f);
+    }
+  }
+  doc.end_group();
+  doc.end_group();
+}
+
+std::string render_chart_page(const std::string& heading, const std::string& subheading,
+                              const std::vector<ChartSpec>& charts) {
+  const double width = 980, head = 64;
+  std::vector<double> heights;
+  double total = head + 10;
+  for (const auto& c : charts) heights.push_back(chart_height(c, width - 20)), total += heights.back();
+  SvgDocument doc(width, total, heading);
+  doc.rect(0, 0, doc.width(), doc.height(), SvgPaint{"#ffffff"});
+  doc.text(20, 30, heading, SvgFont{18, "start", "#1a1a1a", true});
+  doc.text(20, 51, subheading, SvgFont{12, "start", "#555555"});
+  double y = head;
+  for (std::size_t i = 0; i < charts.size(); ++i) {
+    draw_chart(doc, charts[i], 10, y, width - 20, heights[i]);
+    y += heights[i];
+  }
+  return doc.str();
+}
+
+}  // namespace qftplan
