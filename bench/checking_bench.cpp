@@ -8,6 +8,7 @@
 #include "qftplan/planners/plan.hpp"
 #include "qftplan/qasm/qasm_program.hpp"
 #include "qftplan/qasm/qasm_writer.hpp"
+#include "qftplan/report/circuit_header.hpp"
 
 namespace {
 
@@ -23,14 +24,7 @@ void check_grid_cx_file(benchmark::State& state) {
   const PreparedPlan plan = prepare_plan(dev, opt);
   {
     AtomicFile file(path);
-    CircuitHeader h;
-    h.device_name = dev.name();
-    h.device_qubits = dev.qubit_count();
-    h.strategy = plan.strategy;
-    h.spec = plan.spec;
-    h.placement = plan.maps.placement;
-    h.final_placement = plan.maps.final_placement;
-    QasmWriter writer(QasmVersion::v3, h, file);
+    QasmWriter writer(QasmVersion::v3, circuit_header(dev, opt, plan), file);
     execute_plan(dev, opt, plan, &writer);
     file.commit();
   }

@@ -11,6 +11,7 @@
 #include "qftplan/device/device_source.hpp"
 #include "qftplan/planners/plan.hpp"
 #include "qftplan/qasm/qasm_writer.hpp"
+#include "qftplan/report/circuit_header.hpp"
 
 namespace {
 
@@ -38,14 +39,7 @@ void run_plan_case(benchmark::State& state, const PlanCase& c) {
     const PreparedPlan plan = prepare_plan(dev, opt);
     if (c.write_file) {
       AtomicFile file(path);
-      CircuitHeader h;
-      h.device_name = dev.name();
-      h.device_qubits = dev.qubit_count();
-      h.strategy = plan.strategy;
-      h.spec = plan.spec;
-      h.placement = plan.maps.placement;
-      h.final_placement = plan.maps.final_placement;
-      QasmWriter writer(QasmVersion::v3, h, file);
+      QasmWriter writer(QasmVersion::v3, circuit_header(dev, opt, plan), file);
       last = execute_plan(dev, opt, plan, &writer);
       last.output_bytes = writer.bytes();
       file.commit();

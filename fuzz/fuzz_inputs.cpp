@@ -22,6 +22,7 @@
 #include "qftplan/device/device_yaml.hpp"
 #include "qftplan/device/lattices.hpp"
 #include "qftplan/planners/plan.hpp"
+#include "qftplan/report/circuit_header.hpp"
 #include "qftplan/qasm/qasm_program.hpp"
 #include "qftplan/qasm/qasm_writer.hpp"
 
@@ -325,15 +326,7 @@ std::string plan_text(const Device& dev, const PlanOptions& opt, QasmVersion ver
                       PreparedPlan* plan_out) {
   PreparedPlan plan = prepare_plan(dev, opt);
   StringOutput text;
-  CircuitHeader h;
-  h.device_name = dev.name();
-  h.device_qubits = dev.qubit_count();
-  h.strategy = plan.strategy;
-  h.spec = plan.spec;
-  h.placement = plan.maps.placement;
-  h.final_placement = plan.maps.final_placement;
-  h.measured_bits = opt.measure ? opt.spec.qubits : 0;
-  QasmWriter writer(version, h, text);
+  QasmWriter writer(version, circuit_header(dev, opt, plan), text);
   StructuralChecker proof(dev, plan.spec, plan.maps.placement);
   TeeSink both({&writer, &proof});
   PlanReport r = execute_plan(dev, opt, plan, &both);
@@ -368,7 +361,7 @@ void plan_input(std::string_view data) {
   opt.spec.inverse = flags & 1u;
   opt.measure = flags & 2u;
   const QasmVersion version = (flags & 4u) ? QasmVersion::v2 : QasmVersion::v3;
-  opt.swap_as_cx = version == QasmVersion::v2;
+  opt.format = version;
   opt.calibration_aware = !(flags & 16u);
   if (flags & 32u) opt.end_order = EndOrder::same;
   switch (r.below(4)) {

@@ -12,6 +12,7 @@
 #include "qftplan/core/run_budget.hpp"
 #include "qftplan/planners/plan.hpp"
 #include "qftplan/qasm/qasm_writer.hpp"
+#include "qftplan/report/circuit_header.hpp"
 #include "qftplan/report/report.hpp"
 
 namespace qftplan::python {
@@ -44,19 +45,6 @@ struct Plan {
   std::optional<std::string> qasm;
 };
 
-// The header comment `qftplan plan --output` writes (kept in step with src/cli/main.cpp).
-CircuitHeader header_of(const Device& dev, const PlanOptions& opt, const PreparedPlan& plan) {
-  CircuitHeader h;
-  h.device_name = dev.name();
-  h.device_qubits = dev.qubit_count();
-  h.strategy = plan.routed ? plan.strategy : fmt::format("{} ({} network)", plan.strategy, plan.network->name());
-  h.spec = plan.spec;
-  h.placement = plan.maps.placement;
-  h.final_placement = plan.maps.final_placement;
-  h.measured_bits = opt.measure ? opt.spec.qubits : 0;
-  return h;
-}
-
 Plan make_plan(const py::object& device, int qubits, const py::object& approx, bool inverse, const py::object& gates,
                const py::object& placement, std::uint64_t seed, bool measure, const std::string& end_order,
                const std::string& strategy, const std::string& objective, const py::object& format, bool circuit,
@@ -79,7 +67,7 @@ Plan make_plan(const py::object& device, int qubits, const py::object& approx, b
   opt.end_order = parse_end_order(end_order);
   opt.measure = measure;
   p.version = version_arg(format);
-  opt.swap_as_cx = p.version == QasmVersion::v2;
+  opt.format = p.version;
   if (time_limit && !(*time_limit > 0))
     throw InputError(fmt::format("--time-limit expects a positive number of seconds, got '{}'", *time_limit));
   {
@@ -89,7 +77,7 @@ Plan make_plan(const py::object& device, int qubits, const py::object& approx, b
     auto prepared = std::make_shared<PreparedPlan>(prepare_plan(*p.device, opt));
     StringOutput text;
     std::unique_ptr<QasmWriter> writer;
-    if (circuit) writer = std::make_unique<QasmWriter>(p.version, header_of(*p.device, opt, *prepared), text);
+    if (circuit) writer = std::make_unique<QasmWriter>(p.version, circuit_header(*p.device, opt, *prepared), text);
     p.report = execute_plan(*p.device, opt, *prepared, writer.get());
     if (writer) {
       p.report.output_bytes = writer->bytes();

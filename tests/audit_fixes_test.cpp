@@ -153,7 +153,9 @@ TEST(Routed, FusesPhasesWithTheirSwaps) {
   opt.strategy = "routed";
   opt.gates = GateSet::logical;
   const PreparedPlan plan = prepare_plan(dev, opt);
-  const auto& g = plan.routed->gates;
+  VectorSink routed;
+  plan.circuit->emit(routed);
+  const auto& g = routed.gates;
   int fused = 0;
   for (std::size_t k = 0; k < g.size(); ++k) {
     if (g[k].kind == GateKind::cp_swap) ++fused;

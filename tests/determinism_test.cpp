@@ -14,6 +14,7 @@
 #include "qftplan/planners/plan.hpp"
 #include "qftplan/qasm/qasm_writer.hpp"
 #include "qftplan/report/report.hpp"
+#include "qftplan/report/circuit_header.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {
@@ -112,13 +113,7 @@ TEST(Determinism, SameProcessTwice) {
     opt.search.seed = 9;
     const auto plan = prepare_plan(dev, opt);
     StringOutput out;
-    CircuitHeader h;
-    h.device_name = dev.name();
-    h.device_qubits = dev.qubit_count();
-    h.spec = plan.spec;
-    h.placement = plan.maps.placement;
-    h.final_placement = plan.maps.final_placement;
-    QasmWriter w(QasmVersion::v2, h, out);
+    QasmWriter w(QasmVersion::v2, circuit_header(dev, opt, plan), out);
     PlanReport r = execute_plan(dev, opt, plan, &w);
     r.elapsed_ms = 0;
     return out.text() + report_to_json_text(r);

@@ -16,6 +16,7 @@
 #include "qftplan/planners/plan.hpp"
 #include "qftplan/qasm/qasm_program.hpp"
 #include "qftplan/qasm/qasm_writer.hpp"
+#include "qftplan/report/circuit_header.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {
@@ -41,15 +42,7 @@ struct Emitted {
 Emitted plan_and_read(const Device& dev, PlanOptions opt) {
   const auto plan = prepare_plan(dev, opt);
   StringOutput text;
-  CircuitHeader h;
-  h.device_name = dev.name();
-  h.device_qubits = dev.qubit_count();
-  h.strategy = "chain";
-  h.spec = plan.spec;
-  h.placement = plan.maps.placement;
-  h.final_placement = plan.maps.final_placement;
-  h.measured_bits = opt.measure ? opt.spec.qubits : 0;
-  QasmWriter w(QasmVersion::v3, h, text);
+  QasmWriter w(QasmVersion::v3, circuit_header(dev, opt, plan), text);
   Emitted e{execute_plan(dev, opt, plan, &w), {}};
   e.program = parse_qasm(text.text(), "<memory>");
   return e;

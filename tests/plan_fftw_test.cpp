@@ -131,7 +131,7 @@ TEST_P(PlanAgainstFftw, UnitaryMatchesTheReference) {
   // Parity and reversal are built as named at every degree (they end in order); the others give way
   // to the hadamard-only and adjacent networks at degrees 1 and 2.
   if ((c.network == NetworkChoice::parity || c.network == NetworkChoice::reversal) && c.n >= 2)
-    EXPECT_EQ(plan.network->name(), network_choice_name(c.network));
+    EXPECT_EQ(plan.circuit->network_name(), network_choice_name(c.network));
   VectorSink out;
   execute_plan(dev, opt, plan, &out);
   const Matrix got = simulate(dev, opt, plan, out.gates);

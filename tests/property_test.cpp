@@ -22,6 +22,7 @@
 #include "qftplan/planners/plan.hpp"
 #include "qftplan/qasm/qasm_program.hpp"
 #include "qftplan/qasm/qasm_writer.hpp"
+#include "qftplan/report/circuit_header.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {
@@ -116,15 +117,7 @@ bool plan_and_check(const Device& dev, const PlanOptions& opt, QasmVersion versi
     return false;
   }
   StringOutput text;
-  CircuitHeader h;
-  h.device_name = dev.name();
-  h.device_qubits = dev.qubit_count();
-  h.strategy = plan.strategy;
-  h.spec = plan.spec;
-  h.placement = plan.maps.placement;
-  h.final_placement = plan.maps.final_placement;
-  h.measured_bits = opt.measure ? opt.spec.qubits : 0;
-  QasmWriter writer(version, h, text);
+  QasmWriter writer(version, circuit_header(dev, opt, plan), text);
   const PlanReport r = execute_plan(dev, opt, plan, &writer);
   const QasmProgram prog = parse_qasm(text.text(), what);
   CheckRequest req;
@@ -164,7 +157,7 @@ TEST(Property, RandomDevicesEveryPlanIsTheQft) {
       opt.gates = std::vector<GateSet>{GateSet::logical, GateSet::cx, GateSet::cz}[(i + variant) % 3];
       opt.measure = (i + variant) % 5 == 0;
       const QasmVersion version = (i + variant) % 2 ? QasmVersion::v2 : QasmVersion::v3;
-      opt.swap_as_cx = version == QasmVersion::v2;
+      opt.format = version;
       opt.search.seed = i;
       // Auto-approx is offered by the strategies that score degrees; "auto" picks among them.
       opt.strategy = opt.auto_approx ? "auto" : strategies[uniform(rng, 0, static_cast<int>(strategies.size()) - 1)].name;

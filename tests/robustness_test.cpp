@@ -29,6 +29,7 @@
 #include "qftplan/planners/chain_search.hpp"
 #include "qftplan/planners/plan.hpp"
 #include "qftplan/qasm/qasm_writer.hpp"
+#include "qftplan/report/circuit_header.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {
@@ -248,11 +249,8 @@ TEST(AtomicOutputs, LibraryPropagatesAWriterFailure) {
   PlanOptions opt;
   opt.spec.qubits = 64;
   const auto plan = prepare_plan(dev, opt);
-  CircuitHeader h;
-  h.device_name = dev.name();
-  h.spec = plan.spec;
   FailingOutput out(10'000);  // the file is about 60 kB
-  QasmWriter w(QasmVersion::v3, h, out);
+  QasmWriter w(QasmVersion::v3, circuit_header(dev, opt, plan), out);
   EXPECT_THROW(execute_plan(dev, opt, plan, &w), std::runtime_error);
 }
 

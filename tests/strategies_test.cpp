@@ -17,6 +17,7 @@
 #include "qftplan/planners/plan.hpp"
 #include "qftplan/qasm/qasm_program.hpp"
 #include "qftplan/qasm/qasm_writer.hpp"
+#include "qftplan/report/circuit_header.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {
@@ -27,14 +28,7 @@ namespace {
 PlanReport plan_and_check(const Device& dev, const PlanOptions& opt) {
   const auto plan = prepare_plan(dev, opt);
   StringOutput text;
-  CircuitHeader h;
-  h.device_name = dev.name();
-  h.device_qubits = dev.qubit_count();
-  h.strategy = plan.strategy;
-  h.spec = plan.spec;
-  h.placement = plan.maps.placement;
-  h.final_placement = plan.maps.final_placement;
-  QasmWriter w(QasmVersion::v3, h, text);
+  QasmWriter w(QasmVersion::v3, circuit_header(dev, opt, plan), text);
   const PlanReport r = execute_plan(dev, opt, plan, &w);
   const QasmProgram prog = parse_qasm(text.text(), "<memory>");
   CheckRequest req;

@@ -32,6 +32,7 @@
 #include "qftplan/planners/plan.hpp"
 #include "qftplan/qasm/qasm_program.hpp"
 #include "qftplan/qasm/qasm_writer.hpp"
+#include "qftplan/report/circuit_header.hpp"
 #include "qftplan/report/report.hpp"
 // survey, merge, draw (issue 6)
 #include "qftplan/survey/survey_merge.hpp"
@@ -179,7 +180,7 @@ int run_plan(const PlanArgs& a) {
   opt.network = parse_network_choice(a.network);
   opt.measure = a.measure;
   const QasmVersion version = parse_qasm_version(a.format);
-  opt.swap_as_cx = version == QasmVersion::v2;
+  opt.format = version;
 
   const PreparedPlan plan = prepare_plan(dev, opt);
   std::optional<Destination> circuit_dest, report_dest;
@@ -188,15 +189,7 @@ int run_plan(const PlanArgs& a) {
 
   std::unique_ptr<QasmWriter> writer;
   if (circuit_dest) {
-    CircuitHeader h;
-    h.device_name = dev.name();
-    h.device_qubits = dev.qubit_count();
-    h.strategy = plan.routed ? plan.strategy : fmt::format("{} ({} network)", plan.strategy, plan.network->name());
-    h.spec = plan.spec;
-    h.placement = plan.maps.placement;
-    h.final_placement = plan.maps.final_placement;
-    h.measured_bits = opt.measure ? opt.spec.qubits : 0;
-    writer = std::make_unique<QasmWriter>(version, h, circuit_dest->sink());
+    writer = std::make_unique<QasmWriter>(version, circuit_header(dev, opt, plan), circuit_dest->sink());
   }
   // Ctrl-C while the circuit streams stops it (execute_plan polls opt.budget; the writer's temporary
   // is then removed). With no circuit to write, a plan already streamed while choosing the strategy

@@ -8,8 +8,23 @@
 
 #include "qftplan/core/decimal_digits.hpp"
 #include "qftplan/core/input_error.hpp"
+#include "qftplan/sinks/native_gates.hpp"
 
 namespace qftplan {
+
+std::unique_ptr<GateSink> as_written(QasmVersion version, GateSink& next) {
+  if (version == QasmVersion::v2) return std::make_unique<SwapExpander>(next);
+  return nullptr;
+}
+
+void rename_as_written(QasmVersion version, std::map<std::string, long long>& counts) {
+  if (version != QasmVersion::v2) return;
+  for (const auto& [from, to] : {std::pair<std::string, std::string>{"cp", "cu1"}, {"p", "u1"}})
+    if (auto it = counts.find(from); it != counts.end()) {
+      counts[to] += it->second;
+      counts.erase(it);
+    }
+}
 
 namespace {
 constexpr std::size_t kFlushBytes = 1 << 20;

@@ -19,8 +19,11 @@
 #include "qftplan/networks/end_order.hpp"
 #include "qftplan/networks/qft_network.hpp"
 #include "qftplan/planners/chain_search.hpp"
+#include "qftplan/planners/circuit_figures.hpp"
+#include "qftplan/planners/planned_circuit.hpp"
 #include "qftplan/planners/placement_search.hpp"
 #include "qftplan/planners/routed_planner.hpp"
+#include "qftplan/qasm/qasm_writer.hpp"
 #include "qftplan/sinks/native_gates.hpp"
 #include "qftplan/sinks/noise_model.hpp"
 
@@ -40,7 +43,7 @@ struct PlanOptions {
   std::optional<GateSet> gates;                  ///< emitted gate set; default: the device's native gate
   std::optional<std::vector<int>> placement;     ///< pinned: physical qubit of input bit k
   bool measure = false;                          ///< end with a measurement of every register qubit
-  bool swap_as_cx = false;                       ///< OpenQASM 2: swap written as three cx, cp and p counted as cu1, u1
+  QasmVersion format = QasmVersion::v3;          ///< the emitted gates are counted as a file of this format spells them
   ChainSearchOptions search;                     ///< seed and budget of the chain search
   bool auto_approx = false;                      ///< choose the degree (spec.approx_degree is ignored)
   bool calibration_aware = true;                 ///< pick the chain of highest ESP when calibrated
@@ -88,14 +91,11 @@ struct StrategyOutcome {
   double log_esp = 0;
 };
 
-struct PlanReport;
-
-/// Decisions made before any gate is emitted.
+/// Decisions made before any gate is emitted: the strategy's circuit and how it was chosen.
 struct PreparedPlan {
   std::string strategy;                  ///< registry name of the planner ("chain")
-  std::unique_ptr<QftNetwork> network;
-  std::vector<int> chain;                ///< physical qubits along the chain, position 0 first
-  QubitMaps maps;
+  std::shared_ptr<const PlannedCircuit> circuit;  ///< the planned circuit (maps, network name, gates)
+  QubitMaps maps;                        ///< circuit->maps()
   GateSet gates = GateSet::cx;
   long long search_work = 0;             ///< neighbour inspections spent finding the chain
   QftSpec spec;                          ///< the spec planned (degree filled in by --approx auto)
@@ -104,11 +104,11 @@ struct PreparedPlan {
   /// Empty when every search finished; else which searches the time limit cut short: the plan is
   /// the best found so far and the command line warns and exits with status 3.
   std::string cut_short;
-  std::optional<RoutedCircuit> routed;   ///< set by the routed strategy (then network and chain are unused)
-  std::vector<std::array<int, 3>> detours;  ///< spine strategy: (a, b, via) for uncoupled line neighbours
   std::vector<StrategyOutcome> alternatives;  ///< every strategy --strategy auto tried
   long long end_swaps = 0;               ///< SWAPs added by --end-order same (merged ones included)
-  std::shared_ptr<const PlanReport> evaluated;  ///< figures already computed while choosing (no output)
+  /// Figures already counted while choosing (--strategy auto), with the request's count settings:
+  /// a run without output reports them instead of streaming the circuit again.
+  std::shared_ptr<const CircuitFigures> counted;
 };
 
 /// Figures of a planned circuit (the JSON report; README "Report fields" documents each).
@@ -155,10 +155,15 @@ struct StrategyInfo {
   const char* name;
   const char* description;
   PreparedPlan (*prepare)(const Device& device, const PlanOptions& options);
+  bool takes_placement;  ///< accepts a pinned placement (PlanOptions::placement)
 };
 
-/// Every strategy, "auto" first. The same table drives --help and the "unknown strategy" error.
+/// Every strategy, "auto" first. The same table drives dispatch, --help, the Python module and the
+/// one "unknown strategy" error.
 const std::vector<StrategyInfo>& plan_strategies();
+
+/// The strategy named `name`; InputError "unknown strategy 'NAME' (valid: ...)" otherwise.
+const StrategyInfo& find_strategy(const std::string& name);
 
 /// Validates the request and decides the placement. Throws InputError for invalid pins and
 /// PlanningError when the device cannot hold the register.

@@ -2,6 +2,8 @@
 /// \file qasm_writer.hpp
 /// OpenQASM 3 and 2 text output of a gate stream, buffered for speed.
 
+#include <map>
+#include <memory>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -16,6 +18,14 @@ enum class QasmVersion { v2, v3 };
 
 /// Parses "qasm3" / "qasm2"; InputError otherwise.
 QasmVersion parse_qasm_version(const std::string& text);
+
+/// A sink that hands on the gates as a file of `version` spells them, so that counts and depths are
+/// the file's: OpenQASM 2 (qelib1.inc has no swap in our files) writes each swap as three cx. Null
+/// when the version needs no rewriting (then count the stream itself).
+std::unique_ptr<GateSink> as_written(QasmVersion version, GateSink& next);
+
+/// Renames gate counts to the names a file of `version` uses: OpenQASM 2 calls cp and p cu1 and u1.
+void rename_as_written(QasmVersion version, std::map<std::string, long long>& counts);
 
 /// What the header comment of an emitted file records.
 struct CircuitHeader {

@@ -12,6 +12,7 @@
 
 #include "qftplan/core/gate.hpp"
 #include "qftplan/device/device.hpp"
+#include "qftplan/planners/plan.hpp"
 
 namespace qftplan {
 
@@ -62,11 +63,13 @@ struct ChainBand {
 /// qubit (the a of a detour) are hops. Every coupler carrying blocks of a chain or spine plan is in it.
 ChainBand chain_band(const Device& device, const DrawnPlan& plan);
 
-/// Reads a plan report (the JSON of `qftplan plan --report`) made for `device`, re-plans it through
-/// the library with the report's settings (and its placement pinned where the strategy allows),
-/// checks that the re-planned maps equal the report's, and counts the blocks on every coupler.
-/// InputError (naming `name`) on malformed JSON, missing fields, another device, or a plan that
-/// cannot be reproduced.
+/// What a drawing shows of `plan`, whose figures are `report`: its circuit streamed into a
+/// CouplerLoadSink (the planner's own blocks), its line and detours, and its maps. The drawing reads
+/// a plan; it never makes one.
+DrawnPlan drawn_plan(const Device& device, const PreparedPlan& plan, const PlanReport& report);
+
+/// The drawing of a report's plan: the plan made again from the report (report_replan.hpp), then
+/// drawn_plan. InputError (naming `name`) as replan_report gives it.
 DrawnPlan drawn_plan_from_report(const Device& device, const nlohmann::json& report, const std::string& name);
 
 /// The same, reading the report from a file.

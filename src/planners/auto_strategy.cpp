@@ -1,0 +1,120 @@
+// --strategy auto: every strategy that applies, compared by --objective on the figures of their
+// circuits streamed through the counters.
+
+#include <algorithm>
+#include <tuple>
+
+#include <fmt/format.h>
+
+#include "qftplan/core/run_budget.hpp"
+#include "strategies.hpp"
+
+namespace qftplan {
+
+namespace {
+
+// Largest register on which --strategy auto also runs the router next to a structured strategy.
+constexpr int kRoutedCompareLimit = 128;
+
+// Lexicographic comparison by the objective (ties broken by the other figures).
+bool better(const StrategyOutcome& a, const StrategyOutcome& b, Objective o) {
+  auto key = [o](const StrategyOutcome& x) {
+    switch (o) {
+      case Objective::esp: return std::make_tuple(-x.log_esp, double(x.cx_count), double(x.depth_2q));
+      case Objective::depth: return std::make_tuple(double(x.depth_2q), double(x.cx_count), -x.log_esp);
+      case Objective::cx: return std::make_tuple(double(x.cx_count), double(x.depth_2q), -x.log_esp);
+    }
+    return std::make_tuple(0.0, 0.0, 0.0);
+  };
+  return key(a) < key(b);
+}
+
+struct Candidate {
+  PreparedPlan plan;
+  std::size_t outcome;  // index in the outcomes
+};
+
+// Why strategy `name` is not tried, or empty when it is.
+std::string reason_to_skip(const std::string& name, const std::vector<Candidate>& prepared, const PlanOptions& options) {
+  const bool chain_planned =
+      std::any_of(prepared.begin(), prepared.end(), [](const Candidate& c) { return c.plan.strategy == "chain"; });
+  // The spine is for registers no chain holds: when the chain strategy planned, it is not needed.
+  if (name == "spine" && chain_planned) return "not needed: a chain holds the register";
+  // The router costs O(n^2) SWAP decisions: as a comparison it runs only on registers of at most
+  // kRoutedCompareLimit qubits; beyond that it runs only when nothing structured could plan.
+  if (name == "routed" && !prepared.empty() && options.spec.qubits > kRoutedCompareLimit)
+    return fmt::format("not tried: registers above {} qubits are routed only when no chain exists", kRoutedCompareLimit);
+  return {};
+}
+
+}  // namespace
+
+PreparedPlan prepare_auto(const Device& device, const PlanOptions& options) {
+  std::vector<Candidate> prepared;
+  std::vector<StrategyOutcome> outcomes;
+  std::string first_error;
+  bool timed_out = false;
+  for (const auto& s : plan_strategies()) {
+    if (std::string(s.name) == "auto") continue;
+    StrategyOutcome o;
+    o.strategy = s.name;
+    o.reason = reason_to_skip(s.name, prepared, options);
+    if (!o.reason.empty()) {
+      outcomes.push_back(o);
+      continue;
+    }
+    // Out of time (or interrupted): keep the best strategy so far rather than start another.
+    if (!prepared.empty() && options.budget && options.budget->exhausted()) {
+      o.reason = "not tried: the time limit ran out";
+      outcomes.push_back(o);
+      timed_out = true;
+      continue;
+    }
+    try {
+      PreparedPlan p = s.prepare(device, options);
+      o.ok = true;
+      o.network = p.circuit->network_name();
+      prepared.push_back({std::move(p), outcomes.size()});
+    } catch (const PlanningError& e) {
+      o.reason = e.what();
+      if (first_error.empty()) first_error = e.what();
+    } catch (const TimeLimitReached& e) {
+      // Out of time in this strategy: keep an earlier strategy's plan when there is one.
+      if (prepared.empty()) throw;
+      o.reason = std::string("cut short: ") + e.what();
+      timed_out = true;
+    } catch (const InputError& e) {
+      // A pinned placement is an input only the chain strategy accepts; other errors are real.
+      if (!options.placement) throw;
+      o.reason = e.what();
+      if (std::string(s.name) == "chain") throw;
+    }
+    outcomes.push_back(o);
+  }
+  throw_if_interrupted(options.budget);
+  if (prepared.empty()) throw PlanningError(first_error.empty() ? "no strategy could plan this request" : first_error);
+  // Several plans: stream each through the counters (no output) with the request's count settings and
+  // keep the best by the objective; the figures are kept, so a report-only run does not stream the
+  // chosen plan again. A single plan needs no comparison: execute_plan fills in its outcome.
+  std::size_t pick = 0;
+  if (prepared.size() > 1) {
+    for (std::size_t i = 0; i < prepared.size(); ++i) {
+      PreparedPlan& p = prepared[i].plan;
+      const CountSettings settings{p.gates, options.measure, options.format, options.budget};
+      const auto f = std::make_shared<const CircuitFigures>(count_circuit(device, *p.circuit, settings, nullptr));
+      StrategyOutcome& o = outcomes[prepared[i].outcome];
+      o.cx_count = f->cx_count;
+      o.depth_2q = f->depth_2q;
+      o.swaps = f->swaps;
+      o.log_esp = f->noise.log_esp;
+      p.counted = f;
+      if (i > 0 && better(o, outcomes[prepared[pick].outcome], options.objective)) pick = i;
+    }
+  }
+  PreparedPlan best = std::move(prepared[pick].plan);
+  best.alternatives = outcomes;
+  if (timed_out) best.cut_short += std::string(best.cut_short.empty() ? "" : ", ") + "the strategy comparison";
+  return best;
+}
+
+}  // namespace qftplan

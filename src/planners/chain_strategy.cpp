@@ -1,0 +1,161 @@
+// The chain strategy: a simple path of n qubits carrying one of the chain networks, the path chosen
+// by ESP on calibrated devices (placement_search.hpp) and the degree by the one degree choice.
+
+#include <cmath>
+#include <limits>
+
+#include <fmt/format.h>
+
+#include "qftplan/core/run_budget.hpp"
+#include "strategies.hpp"
+
+namespace qftplan {
+
+namespace {
+
+// The chain that puts input bit k on pinned[k] at the start of the (possibly inverse) network.
+std::vector<int> chain_from_pin(const Device& device, const QftSpec& spec, const QftNetwork& net,
+                                const std::vector<int>& pinned) {
+  const int n = spec.qubits;
+  if (static_cast<int>(pinned.size()) != n)
+    throw InputError(fmt::format("--placement lists {} qubits but the register has {}", pinned.size(), n));
+  std::vector<bool> seen(device.qubit_count(), false);
+  for (int q : pinned) {
+    if (q < 0 || q >= device.qubit_count())
+      throw InputError(fmt::format("--placement names qubit {}, but {} has qubits 0..{}", q, device.name(),
+                                   device.qubit_count() - 1));
+    if (seen[q]) throw InputError(fmt::format("--placement names qubit {} twice", q));
+    seen[q] = true;
+  }
+  const auto start = spec.inverse ? net.final_positions() : net.initial_positions();
+  std::vector<int> chain(n);
+  for (int k = 0; k < n; ++k) chain[start[spec.input_wire(k)]] = pinned[k];
+  if (!is_chain(device, chain)) {
+    for (int p = 0; p + 1 < n; ++p)
+      if (!device.coupled(chain[p], chain[p + 1]))
+        throw InputError(fmt::format(
+            "--placement is not a chain for the chain strategy: this network needs qubits {} and {} coupled "
+            "(chain order {})",
+            chain[p], chain[p + 1], fmt::join(chain, ",")));
+  }
+  return chain;
+}
+
+// Largest network (in blocks) whose ESP we evaluate by a dry run during --approx auto.
+constexpr long long kMaxScoredBlocks = 4'000'000;
+
+// The degree choice on a chain: uniform errors give the ESP from the numbers of gates (no dry run of
+// the whole network); otherwise the network's loads on the chain.
+DegreeChoice choose_chain_degree(const Device& device, const QftSpec& base, const std::vector<int>& chain,
+                                 const PlanOptions& options, bool* cut) {
+  const bool uniform = uniform_errors(device);
+  const int n = base.qubits;
+  const auto cost = [&](std::optional<int> degree) {
+    QftSpec spec = base;
+    spec.approx_degree = degree;
+    const auto net = choose_network(spec, options.end_order, options.network);
+    DegreeCost c;
+    c.log_esp = uniform ? uniform_log_esp(device, *net, device.native_2q())
+                        : chain_log_esp(device, chain_loads(spec, *net, device.native_2q(), options.budget), chain);
+    c.native_2q = network_native_cost(*net);
+    return c;
+  };
+  return choose_degree(n, static_cast<long long>(n) * (n - 1) / 2 <= kMaxScoredBlocks, cost, cut);
+}
+
+// A first chain: found by the chain finder (TimeLimitReached / PlanningError when there is none).
+std::vector<int> first_chain(const Device& device, const PlanOptions& options, PreparedPlan& plan) {
+  const int n = plan.spec.qubits;
+  ChainSearchOptions cso = options.search;
+  if (!cso.budget) cso.budget = options.budget;
+  const auto found = find_chain(device, n, cso);
+  plan.search_work = found.work;
+  throw_if_interrupted(options.budget);
+  if (found.chain.empty() && found.time_out) {
+    throw TimeLimitReached(fmt::format(
+        "the time limit ran out before a chain of {} qubits was found in {} (longest so far: {} qubits)", n,
+        device.name(), found.longest.size()));
+  }
+  if (found.chain.empty()) {
+    throw PlanningError(fmt::format(
+        "no chain of {} qubits found in {} (longest found: {} qubits{}); a chain strategy needs one", n,
+        device.name(), found.longest.size(), found.budget_exhausted ? ", search budget exhausted" : ""));
+  }
+  plan.placement.method = "first-found";
+  return found.chain;
+}
+
+// The chain of highest ESP for the plan's network (placement_search.hpp); false when cut short.
+bool choose_chain(const Device& device, const PlanOptions& options, PreparedPlan& plan, std::vector<int>& chain,
+                  bool& changed) {
+  const auto net = choose_network(plan.spec, options.end_order, options.network);
+  ChainLoads loads;
+  try {
+    loads = chain_loads(plan.spec, *net, device.native_2q(), options.budget);
+  } catch (const TimeLimitReached&) {
+    note_cut_short(plan, "the placement search");
+    return false;
+  }
+  PlacementSearchOptions pso = options.placement_search;
+  pso.seed = options.search.seed;
+  if (!pso.budget) pso.budget = options.budget;
+  const auto choice = best_chain(device, loads, chain, pso);
+  throw_if_interrupted(options.budget);
+  if (choice.time_out) note_cut_short(plan, "the placement search");
+  plan.placement.method = choice.time_out ? "time-limited" : choice.exhaustive ? "exhaustive" : "beam";
+  plan.placement.chains_scored = choice.chains_scored;
+  plan.placement.best = choice.best;
+  changed = !choice.best.empty() && choice.best.front().chain != chain;
+  if (!choice.best.empty()) chain = choice.best.front().chain;
+  return true;
+}
+
+}  // namespace
+
+PreparedPlan prepare_chain(const Device& device, const PlanOptions& options) {
+  PreparedPlan plan = start_plan(device, options, "chain");
+  const int n = plan.spec.qubits;
+  const auto pinned_chain = [&] {
+    // The pin is of input bits; which chain that is depends on the network, so for --approx auto it
+    // is derived again once the degree is known.
+    return chain_from_pin(device, plan.spec, *choose_network(plan.spec, options.end_order, options.network),
+                          *options.placement);
+  };
+  std::vector<int> chain;
+  if (options.placement) {
+    chain = pinned_chain();
+    plan.placement.method = "pinned";
+  } else {
+    chain = first_chain(device, options, plan);
+  }
+  const bool by_esp = !options.placement && options.calibration_aware && device.has_calibration() &&
+                      !uniform_errors(device) && n >= 2;
+  // Degree and chain depend on each other; two rounds settle them in practice.
+  for (int round = 0; round < 2; ++round) {
+    if (options.auto_approx) {
+      bool cut = false;
+      plan.degree_choice = choose_chain_degree(device, plan.spec, chain, options, &cut);
+      if (cut) note_cut_short(plan, "the approximation-degree scoring");
+      plan.spec.approx_degree = plan.degree_choice->chosen;
+      if (options.placement) chain = pinned_chain();
+    }
+    if (!by_esp || !plan.cut_short.empty()) break;
+    bool changed = false;
+    if (!choose_chain(device, options, plan, chain, changed)) break;
+    if (!options.auto_approx || !changed) break;
+  }
+  throw_if_interrupted(options.budget);
+  if (plan.placement.best.empty()) {
+    // One chain, not chosen by score: its ESP is the plan's own, which execute_plan measures while
+    // streaming (a dry run here would stream the whole network once more).
+    plan.placement.best.push_back({chain, std::numeric_limits<double>::quiet_NaN()});
+    plan.placement.chains_scored = 1;
+  }
+  std::shared_ptr<const QftNetwork> network = choose_network(plan.spec, options.end_order, options.network);
+  plan.end_swaps = end_swap_count(*network);
+  plan.circuit = make_line_circuit(plan.spec, std::move(network), chain);
+  plan.maps = plan.circuit->maps();
+  return plan;
+}
+
+}  // namespace qftplan

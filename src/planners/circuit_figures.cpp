@@ -1,0 +1,80 @@
+#include "qftplan/planners/circuit_figures.hpp"
+
+#include <memory>
+#include <optional>
+#include <vector>
+
+#include "qftplan/core/run_budget.hpp"
+#include "qftplan/sinks/circuit_metrics.hpp"
+
+namespace qftplan {
+
+CircuitFigures count_circuit(const Device& device, const PlannedCircuit& circuit, const CountSettings& settings,
+                             GateSink* output) {
+  const int D = device.qubit_count();
+  const TwoQubitGate native_gate = device.native_2q();
+  const bool emitted_is_native = settings.gates == gate_set_of(native_gate);
+
+  // Sinks: the fused stream feeds the logical counters (which also count the depth the blocks
+  // would have unfused) and, replayed as native programs, the native counters and the noise model
+  // (the native gates themselves are made only for a writer of them). The emitted circuit is the
+  // native one when the gate set is native, so then those counters serve both; otherwise a second
+  // path rewrites the stream into the emitted gate set.
+  MetricsSink logical(D, /*unfused_depth=*/true), native(D);
+  std::optional<MetricsSink> emitted_counter;
+  if (!emitted_is_native) emitted_counter.emplace(D);
+  NoiseSink noise(device, circuit.maps().placement);
+  NativeReplay to_native(native_gate, native, noise);
+  std::vector<GateSink*> emitted_targets;
+  if (emitted_counter) emitted_targets.push_back(&*emitted_counter);
+  if (output) emitted_targets.push_back(output);
+  std::unique_ptr<GateSink> emit_path, written_form;
+  TeeSink emitted_tee(emitted_targets);
+  if (emitted_is_native) {
+    if (output) emit_path = std::make_unique<NativeDecomposer>(native_gate, emitted_tee);
+  } else if (settings.gates == GateSet::logical) {
+    // The file's own spelling of the logical gates decides what is counted (OpenQASM 2: swap as cx).
+    written_form = as_written(settings.format, emitted_tee);
+    emit_path = std::make_unique<FusedBlockSplitter>(written_form ? *written_form : emitted_tee);
+  } else {
+    emit_path = std::make_unique<NativeDecomposer>(
+        settings.gates == GateSet::cz ? TwoQubitGate::cz : TwoQubitGate::cx, emitted_tee);
+  }
+  MetricsSink& emitted = emitted_counter ? *emitted_counter : native;
+  std::vector<GateSink*> top{&logical, &to_native};
+  if (emit_path) top.push_back(emit_path.get());
+  // Ctrl-C stops a long stream (every 4096 gates; the deadline is not checked: this is no search).
+  InterruptCheckSink interrupt(settings.budget, nullptr);
+  if (settings.budget) top.push_back(&interrupt);
+  TeeSink all(top);
+
+  circuit.emit(all);
+  if (settings.measure)
+    for (int k = 0; k < circuit.spec().qubits; ++k)
+      all.gate(make_gate(GateKind::measure, circuit.maps().final_placement[k], k));
+  all.finish();
+
+  CircuitFigures f;
+  f.two_qubit_blocks = logical.two_qubit_count();
+  f.swaps = logical.count(GateKind::swap) + logical.count(GateKind::cp_swap);
+  f.rotations = circuit.rotations_inside_gates().value_or(logical.rotations());
+  f.depth_2q = logical.depth_2q();
+  f.depth_2q_unfused = logical.depth_2q_unfused();
+  f.depth = emitted.depth();
+  f.cx_count = native.two_qubit_count();
+  f.cx_depth = native.depth_2q();
+  f.gate_counts = emitted.counts_by_name();
+  rename_as_written(settings.format, f.gate_counts);
+  f.noise = noise.figures();
+  return f;
+}
+
+double circuit_log_esp(const Device& device, const PlannedCircuit& circuit) {
+  NoiseSink noise(device, circuit.maps().placement);
+  NativeDecomposer dec(device.native_2q(), noise);
+  circuit.emit(dec);
+  dec.finish();
+  return noise.figures().log_esp;
+}
+
+}  // namespace qftplan

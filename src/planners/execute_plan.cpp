@@ -1,0 +1,94 @@
+// Executing a prepared plan: its circuit through the counters (and an output), then the report.
+
+#include <chrono>
+#include <cmath>
+
+#include "qftplan/core/approximation.hpp"
+#include "strategies.hpp"
+
+namespace qftplan {
+
+namespace {
+
+// The chosen strategy's row of the comparison gets the report's own figures (the same plan), also
+// when it was the only strategy that could plan and so was never streamed for a comparison.
+void fill_chosen_outcome(PlanReport& r) {
+  for (auto& o : r.alternatives)
+    if (o.ok && o.strategy == r.strategy) {
+      o.cx_count = r.cx_count;
+      o.depth_2q = r.depth_2q;
+      o.swaps = r.swaps;
+      o.log_esp = r.noise.log_esp;
+    }
+}
+
+PlanReport assemble_report(const Device& device, const PlanOptions& options, const PreparedPlan& plan,
+                           const CircuitFigures& f) {
+  PlanReport r;
+  r.qubits = plan.spec.qubits;
+  r.device = device.name();
+  r.device_qubits = device.qubit_count();
+  r.strategy = plan.strategy;
+  r.network = plan.circuit->network_name();
+  r.approx_degree = plan.spec.approx_degree;
+  r.inverse = plan.spec.inverse;
+  r.gates = gate_set_name(plan.gates);
+  r.native_2q = two_qubit_gate_name(device.native_2q());
+  r.placement = plan.maps.placement;
+  r.final_placement = plan.maps.final_placement;
+  r.chain = plan.circuit->region();
+  r.two_qubit_blocks = f.two_qubit_blocks;
+  r.swaps = f.swaps;
+  r.rotations = f.rotations;
+  r.depth_2q = f.depth_2q;
+  r.depth = f.depth;
+  r.cx_count = f.cx_count;
+  r.cx_depth = f.cx_depth;
+  r.gate_counts = f.gate_counts;
+  r.noise = f.noise;
+  r.calibrated = device.has_calibration();
+  r.measured = options.measure;
+  r.approx_error_bound = approx_error_bound(plan.spec.qubits, plan.spec.approx_degree);
+  r.degree_choice = plan.degree_choice;
+  r.placement_choice = plan.placement;
+  // A chain the time limit left unscored gets the ESP just measured (the same quantity).
+  if (!r.placement_choice.best.empty() && std::isnan(r.placement_choice.best.front().log_esp))
+    r.placement_choice.best.front().log_esp = r.noise.log_esp;
+  r.depth_2q_unfused = f.depth_2q_unfused;
+  // Lower bounds (ours). Blocks: every kept controlled phase needs a two-qubit gate of its own, and
+  // a block carries at most one. Depth: the Hadamard of wire j waits for the rotation between wires
+  // j-1 and j, which waits for the Hadamard of wire j-1, so the rotations (0,1), (1,2), ..., (n-2,n-1)
+  // form a chain of n-1 two-qubit gates that must run one after another (when d >= 1).
+  r.lower_bound_blocks = plan.spec.kept_rotations();
+  r.lower_bound_depth_2q = plan.spec.qubits >= 2 && plan.spec.max_distance() >= 1 ? plan.spec.qubits - 1 : 0;
+  r.alternatives = plan.alternatives;
+  fill_chosen_outcome(r);
+  r.end_order = end_order_name(options.end_order);
+  r.end_swaps = plan.end_swaps;
+  r.seed = options.search.seed;
+  return r;
+}
+
+}  // namespace
+
+PlanReport execute_plan(const Device& device, const PlanOptions& options, const PreparedPlan& plan, GateSink* output) {
+  const auto t0 = std::chrono::steady_clock::now();
+  // --strategy auto already streamed this plan through the counters while choosing it.
+  const CircuitFigures f = !output && plan.counted
+                               ? *plan.counted
+                               : count_circuit(device, *plan.circuit,
+                                               {plan.gates, options.measure, options.format, options.budget}, output);
+  PlanReport r = assemble_report(device, options, plan, f);
+  r.elapsed_ms = std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - t0).count();
+  return r;
+}
+
+PlanReport plan_qft(const Device& device, const PlanOptions& options) {
+  const auto t0 = std::chrono::steady_clock::now();
+  const auto plan = prepare_plan(device, options);
+  auto r = execute_plan(device, options, plan, nullptr);
+  r.elapsed_ms = std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - t0).count();
+  return r;
+}
+
+}  // namespace qftplan

@@ -1,0 +1,100 @@
+// The text parsers of planning settings and the checks every strategy shares.
+
+#include <algorithm>
+
+#include <fmt/format.h>
+
+#include "qftplan/core/input_error.hpp"
+#include "strategies.hpp"
+
+namespace qftplan {
+
+std::optional<int> parse_approx_degree(const std::string& text) {
+  if (text == "none") return std::nullopt;
+  std::size_t used = 0;
+  int v = 0;
+  try {
+    v = std::stoi(text, &used);
+  } catch (const std::exception&) {
+    used = 0;
+  }
+  if (used != text.size() || text.empty())
+    throw InputError("--approx expects 'none', 'auto' (plan and survey) or a whole degree M >= 1, got '" + text + "'");
+  if (v < 1 || v > kMaxRegisterQubits)
+    throw InputError("--approx " + text + " is outside 1 .. " + std::to_string(kMaxRegisterQubits));
+  return v;
+}
+
+std::vector<int> parse_id_list(const std::string& text, const std::string& what) {
+  std::vector<int> out;
+  std::size_t i = 0;
+  while (i <= text.size()) {
+    const std::size_t j = text.find(',', i);
+    const std::string part = text.substr(i, j == std::string::npos ? std::string::npos : j - i);
+    std::size_t used = 0;
+    long long v = -1;
+    try {
+      v = std::stoll(part, &used);
+    } catch (const std::exception&) {
+      used = 0;
+    }
+    if (part.empty() || used != part.size() || v < 0 || v > kMaxDeviceQubits)
+      throw InputError(fmt::format("{}: '{}' is not a qubit id (expected comma-separated non-negative integers)", what, part));
+    out.push_back(static_cast<int>(v));
+    if (j == std::string::npos) break;
+    i = j + 1;
+  }
+  return out;
+}
+
+Objective parse_objective(const std::string& text) {
+  if (text == "esp") return Objective::esp;
+  if (text == "depth") return Objective::depth;
+  if (text == "cx") return Objective::cx;
+  throw InputError("unknown objective '" + text + "' (valid: esp, depth, cx)");
+}
+
+const char* objective_name(Objective o) {
+  switch (o) {
+    case Objective::esp: return "esp";
+    case Objective::depth: return "depth";
+    case Objective::cx: return "cx";
+  }
+  return "?";
+}
+
+void validate_spec(const Device& device, const QftSpec& spec) {
+  if (spec.qubits < 1) throw InputError(fmt::format("--qubits must be at least 1, got {}", spec.qubits));
+  if (spec.qubits > kMaxRegisterQubits)
+    throw InputError(fmt::format("--qubits {} is more than the limit of {} qubits per register", spec.qubits,
+                                 kMaxRegisterQubits));
+  if (spec.qubits > device.qubit_count())
+    throw PlanningError(fmt::format("device {} has {} qubits, fewer than the {} requested", device.name(),
+                                    device.qubit_count(), spec.qubits));
+  if (spec.approx_degree && *spec.approx_degree < 1)
+    throw InputError(fmt::format("--approx must be at least 1 (1 keeps Hadamards only), got {}", *spec.approx_degree));
+}
+
+bool uniform_errors(const Device& device) {
+  for (int c = 1; c < device.coupler_count(); ++c)
+    if (device.coupler_calibration(c).error != device.coupler_calibration(0).error) return false;
+  for (int q = 1; q < device.qubit_count(); ++q)
+    if (device.qubit_calibration(q).error_1q != device.qubit_calibration(0).error_1q) return false;
+  return true;
+}
+
+PreparedPlan start_plan(const Device& device, const PlanOptions& options, const char* strategy) {
+  PreparedPlan plan;
+  plan.spec = options.spec;
+  if (options.auto_approx) plan.spec.approx_degree.reset();
+  validate_spec(device, plan.spec);
+  plan.strategy = strategy;
+  plan.gates = options.gates.value_or(gate_set_of(device.native_2q()));
+  return plan;
+}
+
+void note_cut_short(PreparedPlan& plan, const std::string& what) {
+  if (plan.cut_short.find(what) == std::string::npos) plan.cut_short += (plan.cut_short.empty() ? "" : ", ") + what;
+}
+
+}  // namespace qftplan

@@ -1,0 +1,61 @@
+// The spine strategy: a main chain plus the qubits dangling one hop off it, read as one virtual line
+// (each dangling qubit right after the chain qubit it hangs from); the chain networks run on that
+// line, and a gate between line neighbours that are not coupled steps through the chain qubit both
+// hang from (swap, gate, swap). For registers that do not fit on one chain: heavy-hexagon lattices
+// (the setting of Gao, Jin, Guo, Chen and Zhang, arXiv:2402.09705, 2024) and defective chips.
+
+#include "qftplan/core/run_budget.hpp"
+#include "qftplan/planners/spine_layout.hpp"
+#include "strategies.hpp"
+
+namespace qftplan {
+
+namespace {
+
+// One spine plan for a fixed degree on a given layout. The end order restores along the virtual
+// line; its SWAPs between uncoupled neighbours take the same detours as every other gate.
+PreparedPlan spine_plan(const Device& device, const PlanOptions& options, const SpineLayout& layout,
+                        const QftSpec& spec) {
+  PreparedPlan plan;
+  plan.spec = spec;
+  plan.strategy = "spine";
+  plan.gates = options.gates.value_or(gate_set_of(device.native_2q()));
+  std::shared_ptr<const QftNetwork> network = choose_network(plan.spec, options.end_order, options.network);
+  plan.end_swaps = end_swap_count(*network);
+  plan.circuit = make_line_circuit(plan.spec, std::move(network), layout.line, layout.detours);
+  plan.maps = plan.circuit->maps();
+  plan.placement.method = "spine";
+  return plan;
+}
+
+}  // namespace
+
+PreparedPlan prepare_spine(const Device& device, const PlanOptions& options) {
+  QftSpec spec = options.spec;
+  if (options.auto_approx) spec.approx_degree.reset();
+  validate_spec(device, spec);
+  if (options.placement) throw InputError("--placement pins a chain; the spine strategy chooses its own line");
+  const SpineLayout layout = make_spine_layout(device, spec.qubits, options.search.seed, options.budget);
+  throw_if_interrupted(options.budget);
+  if (layout.detours.empty() || static_cast<int>(layout.spine.size()) >= spec.qubits)
+    throw PlanningError("the register fits on one chain: the chain strategy covers it");
+  if (!options.auto_approx) return spine_plan(device, options, layout, spec);
+  // Each degree is scored by streaming its spine plan through the counters.
+  const auto cost = [&](std::optional<int> degree) {
+    QftSpec s = spec;
+    s.approx_degree = degree;
+    const auto p = spine_plan(device, options, layout, s);
+    const CircuitFigures f =
+        count_circuit(device, *p.circuit, {gate_set_of(device.native_2q()), options.measure}, nullptr);
+    return DegreeCost{f.noise.log_esp, f.cx_count};
+  };
+  bool cut = false;
+  const DegreeChoice choice = choose_degree(spec.qubits, true, cost, &cut);
+  spec.approx_degree = choice.chosen;
+  PreparedPlan plan = spine_plan(device, options, layout, spec);
+  plan.degree_choice = choice;
+  if (cut) note_cut_short(plan, "the approximation-degree scoring");
+  return plan;
+}
+
+}  // namespace qftplan

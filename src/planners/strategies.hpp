@@ -1,0 +1,48 @@
+#pragma once
+// What the strategy files share (private to src/planners): the checks every strategy makes, the one
+// degree scorer, and the entry of each strategy for the registry (strategy_registry.cpp).
+
+#include <functional>
+#include <optional>
+
+#include "qftplan/planners/plan.hpp"
+
+namespace qftplan {
+
+/// Throws InputError / PlanningError when `spec` cannot be planned on `device` at all.
+void validate_spec(const Device& device, const QftSpec& spec);
+
+/// True when every coupler has the same two-qubit error and every qubit the same one-qubit error:
+/// then all chains of a network have the same ESP and there is nothing to choose.
+bool uniform_errors(const Device& device);
+
+/// A new plan of `strategy` for `options` before any decision: the spec (degree cleared for
+/// --approx auto, validated) and the emitted gate set.
+PreparedPlan start_plan(const Device& device, const PlanOptions& options, const char* strategy);
+
+/// Records that the time limit cut `what` short (once).
+void note_cut_short(PreparedPlan& plan, const std::string& what);
+
+/// What one approximation degree costs, as the strategy measured it.
+struct DegreeCost {
+  double log_esp = 0;        ///< ln ESP of the planned circuit with this degree
+  long long native_2q = 0;   ///< its native two-qubit gates
+};
+
+/// The one degree choice of every strategy (--approx auto). Scores degrees 1, 2, ... of an n-qubit
+/// register with `cost` until the fidelity bound is 1 to within 1e-12 (more rotations then only add
+/// gates), then the exact transform when `score_exact` (or when nothing was scored), and keeps the
+/// best score ESP x fidelity bound. Near-ties (within 1e-12 relative) go to the fewest native
+/// two-qubit gates, then to the larger degree (exact last): a degree that saves no gate is no reason
+/// to approximate. When `cost` runs out of time, chooses among the degrees scored so far and sets
+/// `*cut` (the exact transform when none was).
+DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCost(std::optional<int>)>& cost,
+                           bool* cut);
+
+/// The strategies (one file each), for the registry.
+PreparedPlan prepare_auto(const Device& device, const PlanOptions& options);
+PreparedPlan prepare_chain(const Device& device, const PlanOptions& options);
+PreparedPlan prepare_spine(const Device& device, const PlanOptions& options);
+PreparedPlan prepare_routed(const Device& device, const PlanOptions& options);
+
+}  // namespace qftplan

@@ -1,0 +1,39 @@
+// The table of planning strategies: dispatch, the --help text, the Python module and the one
+// "unknown strategy" error all come from it. A new strategy is one new file and one row here.
+
+#include "qftplan/core/run_budget.hpp"
+#include "strategies.hpp"
+
+namespace qftplan {
+
+const std::vector<StrategyInfo>& plan_strategies() {
+  static const std::vector<StrategyInfo> table{
+      {"auto", "try every strategy that applies and keep the best by --objective", &prepare_auto, true},
+      {"chain", "a chain of n qubits carrying one of the networks of --network (needs a simple path of n qubits)",
+       &prepare_chain, true},
+      {"spine", "a main chain plus the qubits dangling off it as one line (heavy-hexagon, defective chips)",
+       &prepare_spine, false},
+      {"routed", "SWAP routing with look-ahead on any connected device; also the in-house baseline", &prepare_routed, false},
+  };
+  return table;
+}
+
+const StrategyInfo& find_strategy(const std::string& name) {
+  for (const auto& s : plan_strategies())
+    if (name == s.name) return s;
+  std::string names;
+  for (const auto& s : plan_strategies()) names += std::string(names.empty() ? "" : ", ") + s.name;
+  throw InputError("unknown strategy '" + name + "' (valid: " + names + ")");
+}
+
+PreparedPlan prepare_plan(const Device& device, const PlanOptions& options) {
+  PreparedPlan p = find_strategy(options.strategy).prepare(device, options);
+  throw_if_interrupted(options.budget);
+  // A search that stopped at the deadline without saying so (it kept its best so far) still means
+  // the time limit decided: report it, so the command line exits 3.
+  if (p.cut_short.empty() && options.budget && options.budget->stop_reason() == StopReason::time_limit)
+    p.cut_short = "the searches";
+  return p;
+}
+
+}  // namespace qftplan
