@@ -52,22 +52,23 @@ Plan make_plan(const py::object& device, int qubits, const py::object& approx, b
   const auto t0 = std::chrono::steady_clock::now();
   Plan p;
   p.device = device_arg(device);
-  PlanOptions& opt = p.options;
-  opt.spec.qubits = qubits;
-  const std::string approx_str = approx_text(approx);
-  if (approx_str == "auto") opt.auto_approx = true;
-  else opt.spec.approx_degree = parse_approx_degree(approx_str);
-  opt.spec.inverse = inverse;
-  if (!gates.is_none()) opt.gates = parse_gate_set(gates.cast<std::string>());
-  opt.placement = placement_arg(placement);
-  opt.search.seed = seed;
-  opt.strategy = strategy;
-  opt.objective = parse_objective(objective);
-  opt.network = parse_network_choice(network);
-  opt.end_order = parse_end_order(end_order);
-  opt.measure = measure;
+  // The same settings `qftplan plan` takes, turned into options by the one builder.
+  PlanSettings settings;
+  settings.qubits = qubits;
+  settings.approx = approx_text(approx);
+  settings.inverse = inverse;
+  if (!gates.is_none()) settings.gates = gates.cast<std::string>();
+  settings.placement = placement_arg(placement);
+  settings.seed = seed;
+  settings.strategy = strategy;
+  settings.objective = objective;
+  settings.network = network;
+  settings.end_order = end_order;
+  settings.measure = measure;
   p.version = version_arg(format);
-  opt.format = p.version;
+  settings.format = p.version;
+  p.options = plan_options(settings);
+  PlanOptions& opt = p.options;
   if (time_limit && !(*time_limit > 0))
     throw InputError(fmt::format("--time-limit expects a positive number of seconds, got '{}'", *time_limit));
   {

@@ -63,6 +63,30 @@ const char* objective_name(Objective o) {
   return "?";
 }
 
+PlanOptions plan_options(const PlanSettings& s) {
+  PlanOptions opt;
+  opt.spec.qubits = s.qubits;
+  if (s.approx == "auto") opt.auto_approx = true;
+  else opt.spec.approx_degree = parse_approx_degree(s.approx);
+  opt.spec.inverse = s.inverse;
+  if (s.gates) opt.gates = parse_gate_set(*s.gates);
+  opt.placement = s.placement;
+  opt.search.seed = s.seed;
+  // The effort scales the work budgets of the chain and placement searches (not the time limit).
+  if (!(s.effort >= 0.01 && s.effort <= 1000))
+    throw InputError(fmt::format("--effort {} is outside 0.01 .. 1000", s.effort));
+  opt.search.work_budget = static_cast<long long>(static_cast<double>(opt.search.work_budget) * s.effort);
+  opt.placement_search.work_budget =
+      std::max(1LL, static_cast<long long>(static_cast<double>(opt.placement_search.work_budget) * s.effort));
+  opt.strategy = s.strategy;
+  opt.objective = parse_objective(s.objective);
+  opt.end_order = parse_end_order(s.end_order);
+  opt.network = parse_network_choice(s.network);
+  opt.measure = s.measure;
+  opt.format = s.format;
+  return opt;
+}
+
 void validate_spec(const Device& device, const QftSpec& spec) {
   if (spec.qubits < 1) throw InputError(fmt::format("--qubits must be at least 1, got {}", spec.qubits));
   if (spec.qubits > kMaxRegisterQubits)

@@ -1,6 +1,6 @@
 #pragma once
 // What the strategy files share (private to src/planners): the checks every strategy makes, the one
-// degree scorer, and the entry of each strategy for the registry (strategy_registry.cpp).
+// degree scorer. Each strategy's entry is declared where it is registered (strategy_registry.cpp).
 
 #include <functional>
 #include <optional>
@@ -38,11 +38,5 @@ struct DegreeCost {
 /// `*cut` (the exact transform when none was).
 DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCost(std::optional<int>)>& cost,
                            bool* cut);
-
-/// The strategies (one file each), for the registry.
-PreparedPlan prepare_auto(const Device& device, const PlanOptions& options);
-PreparedPlan prepare_chain(const Device& device, const PlanOptions& options);
-PreparedPlan prepare_spine(const Device& device, const PlanOptions& options);
-PreparedPlan prepare_routed(const Device& device, const PlanOptions& options);
 
 }  // namespace qftplan

@@ -6,6 +6,12 @@
 
 namespace qftplan {
 
+// The strategies, one file each (NAME_strategy.cpp).
+PreparedPlan prepare_auto(const Device& device, const PlanOptions& options);
+PreparedPlan prepare_chain(const Device& device, const PlanOptions& options);
+PreparedPlan prepare_spine(const Device& device, const PlanOptions& options);
+PreparedPlan prepare_routed(const Device& device, const PlanOptions& options);
+
 const std::vector<StrategyInfo>& plan_strategies() {
   static const std::vector<StrategyInfo> table{
       {"auto", "try every strategy that applies and keep the best by --objective", &prepare_auto, true},

@@ -38,13 +38,13 @@ SurveyRow run_survey_case(const SurveyRequest& request, const SurveyCase& c) {
     row.device_qubits = dev->qubit_count();
 
     // The same options `qftplan plan` sets for the same flags, so a row equals a single plan.
-    PlanOptions opt;
-    opt.spec.qubits = c.qubits;
-    opt.spec.inverse = c.inverse;
-    if (c.approx.kind == ApproxSetting::Kind::automatic) opt.auto_approx = true;
-    else if (c.approx.kind == ApproxSetting::Kind::degree) opt.spec.approx_degree = c.approx.degree;
-    opt.search.seed = request.seed;
-    opt.strategy = c.strategy;
+    PlanSettings settings;
+    settings.qubits = c.qubits;
+    settings.inverse = c.inverse;
+    settings.approx = c.approx.text();
+    settings.seed = request.seed;
+    settings.strategy = c.strategy;
+    PlanOptions opt = plan_options(settings);
     // Each run has its own deadline; all share the interruption flag.
     std::optional<RunBudget> budget;
     if (request.time_limit || request.interrupt) budget.emplace(request.time_limit, request.interrupt, request.clock);

@@ -56,6 +56,28 @@ struct PlanOptions {
   NetworkChoice network = NetworkChoice::automatic;  ///< chain network of the chain and spine strategies
 };
 
+/// The settings of one plan as the front ends (command line, Python, surveys, fuzzers, benchmarks) take
+/// them: text where a user types text. plan_options() turns them into PlanOptions, the one place that
+/// does.
+struct PlanSettings {
+  int qubits = 0;
+  std::string approx = "none";                   ///< "none", "auto" or a whole degree M
+  bool inverse = false;
+  std::optional<std::string> gates;              ///< "logical", "cx", "cz"; absent: the device's native gate
+  std::optional<std::vector<int>> placement;     ///< pinned: physical qubit of input bit k
+  std::uint64_t seed = 1;                        ///< seed of every randomised search
+  bool measure = false;
+  double effort = 1;                             ///< scales the work budgets of the searches (0.01 .. 1000)
+  std::string strategy = "auto";
+  std::string objective = "esp";
+  std::string end_order = "free";
+  std::string network = "auto";
+  QasmVersion format = QasmVersion::v3;
+};
+
+/// PlanOptions for `settings`; InputError naming the setting for a value out of range or unknown.
+PlanOptions plan_options(const PlanSettings& settings);
+
 /// One approximation degree considered by the automatic choice.
 struct DegreeCandidate {
   std::optional<int> degree;     ///< absent: exact
