@@ -35,16 +35,16 @@ Verdict check_program(const QasmProgram& prog, const std::string& source, const 
   // `check` takes a degree or none (an automatic choice names no transform to check against).
   req.spec.approx_degree = parse_approx_degree(approx_str);
   req.spec.inverse = inverse;
-  if (qubits < 1) throw InputError("--qubits must be at least 1");
-  if (auto m = map_arg(initial, "--initial")) req.placement = *m;
+  if (qubits < 1) throw SettingError("qubits", " must be at least 1");
+  if (auto m = map_arg(initial, "initial")) req.placement = *m;
   else if (prog.placement) req.placement = *prog.placement;
-  else throw InputError(source, 0, 0, "no '// placement:' header comment; give --initial");
-  if (auto m = map_arg(final_, "--final")) req.final_placement = *m;
+  else throw InputError(source, 0, 0, "no '// placement:' header comment; give initial=");
+  if (auto m = map_arg(final_, "final")) req.final_placement = *m;
   else if (prog.final_placement) req.final_placement = *prog.final_placement;
-  else throw InputError(source, 0, 0, "no '// final_placement:' header comment; give --final");
+  else throw InputError(source, 0, 0, "no '// final_placement:' header comment; give final=");
   for (const auto* v : {&req.placement, &req.final_placement})
     if (static_cast<int>(v->size()) != qubits)
-      throw InputError(fmt::format("a qubit map lists {} qubits but --qubits is {}", v->size(), qubits));
+      throw InputError(fmt::format("a qubit map lists {} qubits but qubits is {}", v->size(), qubits));
   Verdict out{{}, source};
   py::gil_scoped_release release;
   out.result = check_qft_circuit(*dev, prog, req);

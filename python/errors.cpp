@@ -1,6 +1,7 @@
 // qftplan.InputError and qftplan.PlanningError: the library's two kinds of failure as Python
-// exceptions, carrying the command line's message text.
+// exceptions, carrying the library's message text with settings named as this module's arguments.
 
+#include <algorithm>
 #include <exception>
 
 #include "bindings.hpp"
@@ -41,11 +42,19 @@ void bind_errors(py::module_& m) {
       if (p) std::rethrow_exception(p);
     } catch (const InputError& e) {
       py::object type = py::reinterpret_borrow<py::object>(g_input_error);
-      py::object exc = type(py::str(e.what()));
+      // A setting's name is worded as this module's keyword argument (time-limit -> time_limit).
+      const auto* setting = dynamic_cast<const SettingError*>(&e);
+      const std::string text = setting ? setting->worded([](std::string_view name) {
+        std::string arg(name);
+        std::replace(arg.begin(), arg.end(), '-', '_');
+        return arg;
+      })
+                                       : std::string(e.what());
+      py::object exc = type(py::str(text));
       exc.attr("file") = or_none(e.file());
       exc.attr("line") = or_none(e.line());
       exc.attr("column") = or_none(e.column());
-      exc.attr("message") = py::str(e.message());
+      exc.attr("message") = py::str(setting ? text : e.message());
       PyErr_SetObject(g_input_error, exc.ptr());
     } catch (const PlanningError& e) {
       PyErr_SetString(g_planning_error, e.what());

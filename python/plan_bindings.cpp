@@ -31,7 +31,7 @@ QasmVersion version_arg(const py::object& format) {
 
 std::optional<std::vector<int>> placement_arg(const py::object& placement) {
   if (placement.is_none()) return std::nullopt;
-  if (py::isinstance<py::str>(placement)) return parse_id_list(placement.cast<std::string>(), "--placement");
+  if (py::isinstance<py::str>(placement)) return parse_id_list(placement.cast<std::string>(), "placement");
   return placement.cast<std::vector<int>>();
 }
 
@@ -70,7 +70,7 @@ Plan make_plan(const py::object& device, int qubits, const py::object& approx, b
   p.options = plan_options(settings);
   PlanOptions& opt = p.options;
   if (time_limit && !(*time_limit > 0))
-    throw InputError(fmt::format("--time-limit expects a positive number of seconds, got '{}'", *time_limit));
+    throw InputError(fmt::format("time_limit expects a positive number of seconds, got '{}'", *time_limit));
   {
     py::gil_scoped_release release;
     const RunBudget budget(time_limit, nullptr, BudgetClock::from_environment());

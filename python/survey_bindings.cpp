@@ -73,18 +73,18 @@ std::vector<SurveyRow> run(const py::object& devices, const py::object& qubits, 
   req.sizes = parse_size_list(joined(qubits, int_text));
   req.approx = parse_approx_list(joined(approx, approx_text));
   req.directions = directions_arg(inverse);
-  req.strategies = parse_name_list(joined(strategy, str_text), "--strategy");
+  req.strategies = parse_name_list(joined(strategy, str_text), "strategy");
   // The same check and message as `qftplan survey`.
   for (const auto& s : req.strategies) {
     const auto& table = plan_strategies();
     if (std::none_of(table.begin(), table.end(), [&](const StrategyInfo& i) { return s == i.name; })) {
       std::string known;
       for (const auto& i : table) known += (known.empty() ? "" : ", ") + std::string(i.name);
-      throw InputError("--strategy: unknown strategy '" + s + "' (known: " + known + ")");
+      throw InputError("strategy: unknown strategy '" + s + "' (known: " + known + ")");
     }
   }
   req.seed = seed;
-  if (jobs < 1) throw InputError(fmt::format("--jobs must be at least 1, got {}", jobs));
+  if (jobs < 1) throw InputError(fmt::format("jobs must be at least 1, got {}", jobs));
   py::gil_scoped_release release;
   const auto cases = expand_survey(req);
   return run_survey(req, cases, static_cast<long long>(cases.size()), jobs);

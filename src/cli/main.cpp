@@ -664,6 +664,10 @@ int main(int argc, char** argv) {
     if (survey->parsed()) return finish(run_survey_command(sa));  // issue 6
     if (merge->parsed()) return finish(run_merge_command(ma));    // issue 6
     if (draw->parsed()) return finish(run_draw_command(wa));      // issue 6
+  } catch (const SettingError& e) {
+    // The library names the setting; the command line words it as its option.
+    std::fprintf(stderr, "qftplan: %s\n", e.worded([](std::string_view name) { return "--" + std::string(name); }).c_str());
+    return kExitBadInput;
   } catch (const InputError& e) {
     std::fprintf(stderr, "qftplan: %s\n", e.what());
     return kExitBadInput;

@@ -18,13 +18,13 @@ std::vector<int> chain_from_pin(const Device& device, const QftSpec& spec, const
                                 const std::vector<int>& pinned) {
   const int n = spec.qubits;
   if (static_cast<int>(pinned.size()) != n)
-    throw InputError(fmt::format("--placement lists {} qubits but the register has {}", pinned.size(), n));
+    throw SettingError("placement", fmt::format(" lists {} qubits but the register has {}", pinned.size(), n));
   std::vector<bool> seen(device.qubit_count(), false);
   for (int q : pinned) {
     if (q < 0 || q >= device.qubit_count())
-      throw InputError(fmt::format("--placement names qubit {}, but {} has qubits 0..{}", q, device.name(),
+      throw SettingError("placement", fmt::format(" names qubit {}, but {} has qubits 0..{}", q, device.name(),
                                    device.qubit_count() - 1));
-    if (seen[q]) throw InputError(fmt::format("--placement names qubit {} twice", q));
+    if (seen[q]) throw SettingError("placement", fmt::format(" names qubit {} twice", q));
     seen[q] = true;
   }
   const auto start = spec.inverse ? net.final_positions() : net.initial_positions();
@@ -33,8 +33,7 @@ std::vector<int> chain_from_pin(const Device& device, const QftSpec& spec, const
   if (!is_chain(device, chain)) {
     for (int p = 0; p + 1 < n; ++p)
       if (!device.coupled(chain[p], chain[p + 1]))
-        throw InputError(fmt::format(
-            "--placement is not a chain for the chain strategy: this network needs qubits {} and {} coupled "
+        throw SettingError("placement", fmt::format(" is not a chain for the chain strategy: this network needs qubits {} and {} coupled "
             "(chain order {})",
             chain[p], chain[p + 1], fmt::join(chain, ",")));
   }

@@ -19,9 +19,9 @@ std::optional<int> parse_approx_degree(const std::string& text) {
     used = 0;
   }
   if (used != text.size() || text.empty())
-    throw InputError("--approx expects 'none', 'auto' (plan and survey) or a whole degree M >= 1, got '" + text + "'");
+    throw SettingError("approx", " expects 'none', 'auto' (plan and survey) or a whole degree M >= 1, got '" + text + "'");
   if (v < 1 || v > kMaxRegisterQubits)
-    throw InputError("--approx " + text + " is outside 1 .. " + std::to_string(kMaxRegisterQubits));
+    throw SettingError("approx", " " + text + " is outside 1 .. " + std::to_string(kMaxRegisterQubits));
   return v;
 }
 
@@ -74,7 +74,7 @@ PlanOptions plan_options(const PlanSettings& s) {
   opt.search.seed = s.seed;
   // The effort scales the work budgets of the chain and placement searches (not the time limit).
   if (!(s.effort >= 0.01 && s.effort <= 1000))
-    throw InputError(fmt::format("--effort {} is outside 0.01 .. 1000", s.effort));
+    throw SettingError("effort", fmt::format(" {} is outside 0.01 .. 1000", s.effort));
   opt.search.work_budget = static_cast<long long>(static_cast<double>(opt.search.work_budget) * s.effort);
   opt.placement_search.work_budget =
       std::max(1LL, static_cast<long long>(static_cast<double>(opt.placement_search.work_budget) * s.effort));
@@ -88,15 +88,15 @@ PlanOptions plan_options(const PlanSettings& s) {
 }
 
 void validate_spec(const Device& device, const QftSpec& spec) {
-  if (spec.qubits < 1) throw InputError(fmt::format("--qubits must be at least 1, got {}", spec.qubits));
+  if (spec.qubits < 1) throw SettingError("qubits", fmt::format(" must be at least 1, got {}", spec.qubits));
   if (spec.qubits > kMaxRegisterQubits)
-    throw InputError(fmt::format("--qubits {} is more than the limit of {} qubits per register", spec.qubits,
+    throw SettingError("qubits", fmt::format(" {} is more than the limit of {} qubits per register", spec.qubits,
                                  kMaxRegisterQubits));
   if (spec.qubits > device.qubit_count())
     throw PlanningError(fmt::format("device {} has {} qubits, fewer than the {} requested", device.name(),
                                     device.qubit_count(), spec.qubits));
   if (spec.approx_degree && *spec.approx_degree < 1)
-    throw InputError(fmt::format("--approx must be at least 1 (1 keeps Hadamards only), got {}", *spec.approx_degree));
+    throw SettingError("approx", fmt::format(" must be at least 1 (1 keeps Hadamards only), got {}", *spec.approx_degree));
 }
 
 bool uniform_errors(const Device& device) {

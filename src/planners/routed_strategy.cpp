@@ -9,7 +9,7 @@ namespace qftplan {
 PreparedPlan prepare_routed(const Device& device, const PlanOptions& options) {
   PreparedPlan plan = start_plan(device, options, "routed");
   if (options.placement)
-    throw InputError("--placement pins a chain; the routed strategy chooses its own starting region");
+    throw SettingError("placement", " pins a chain; the routed strategy chooses its own starting region");
   RoutingOptions ro = options.routing;
   ro.seed = options.search.seed;
   if (!ro.budget) ro.budget = options.budget;

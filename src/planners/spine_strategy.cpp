@@ -34,7 +34,7 @@ PreparedPlan prepare_spine(const Device& device, const PlanOptions& options) {
   QftSpec spec = options.spec;
   if (options.auto_approx) spec.approx_degree.reset();
   validate_spec(device, spec);
-  if (options.placement) throw InputError("--placement pins a chain; the spine strategy chooses its own line");
+  if (options.placement) throw SettingError("placement", " pins a chain; the spine strategy chooses its own line");
   const SpineLayout layout = make_spine_layout(device, spec.qubits, options.search.seed, options.budget);
   throw_if_interrupted(options.budget);
   if (layout.detours.empty() || static_cast<int>(layout.spine.size()) >= spec.qubits)

@@ -5,6 +5,7 @@
 
 #include <stdexcept>
 #include <string>
+#include <string_view>
 
 namespace qftplan {
 
@@ -28,6 +29,28 @@ class InputError : public std::runtime_error {
   int line_ = 0;
   int column_ = 0;
   std::string message_;
+};
+
+/// How a front end spells the name of a setting: "--time-limit" on the command line, "time_limit" in
+/// Python. Setting names are the command line's option names without the dashes.
+using SettingNamer = std::string (*)(std::string_view setting);
+
+/// Bad input in a setting of the request (no file behind it). The message starts with the setting's
+/// name: what() spells it plainly ("approx expects ..."), and each front end words it as its own flag
+/// or argument with worded() ("--approx expects ..." on the command line).
+class SettingError : public InputError {
+ public:
+  /// `rest` follows the setting's name, separator included (" expects ...", ": 'x' is not ...").
+  SettingError(std::string setting, std::string rest)
+      : InputError(setting + rest), setting_(std::move(setting)), rest_(std::move(rest)) {}
+  /// The setting's name ("time-limit").
+  const std::string& setting() const { return setting_; }
+  /// The message with the setting spelled by `namer`.
+  std::string worded(SettingNamer namer) const { return namer(setting_) + rest_; }
+
+ private:
+  std::string setting_;
+  std::string rest_;
 };
 
 /// A request that is well-formed but cannot be planned on this device (exit status 1).
