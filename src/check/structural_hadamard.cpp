@@ -1,0 +1,188 @@
+// The structural proof's Hadamard rule. A Hadamard consumes the only copy of a wire's input
+// variable, so every term of the phase polynomial with that variable is final right there: the
+// rule compares them with the controlled phases the QFT order demands, then creates the wire's
+// output variable. The method is described in structural_state.hpp.
+
+#include <algorithm>
+#include <cstdlib>
+#include <string>
+#include <vector>
+
+#include "structural_state.hpp"
+
+namespace qftplan {
+
+using proof::kMaxParity;
+
+void StructuralChecker::Impl::hadamard(int q, int line) {
+  const Parity p = par[q];  // a copy: par[q] is replaced below and p still read
+  const int v = consumed_input(q, p, line);
+  if (v < 0) return;
+  const int w = v;  // wire w's input is variable w
+
+  // A parity x XOR L (+ c) on the qubit. Name the new output variable y so that the qubit holds
+  // y XOR L afterwards (a change of summation variables, v' = y XOR L, triangular in the order of
+  // the Hadamards, hence a bijection). The Hadamard's phase pi (x XOR L XOR c)(y XOR L) expands mod 2
+  // into x y + x L + L y + (1 + c) L + c y; the x y term is the one every Hadamard makes; the x L
+  // terms (pi on x and each variable of L) are terms of x and belong to the closing check below.
+  int rest[kMaxParity];
+  int rest_size = 0;
+  for (int i = 0; i < p.size; ++i)
+    if (p.v[i] != v) rest[rest_size++] = p.v[i];
+  for (int i = 0; i < rest_size; ++i) add_pair(v, rest[i], Angle(1, 0), line);
+  if (failed) return;
+
+  const Window win = closing_window(w);
+  if (!check_closing_phases(w, win, line)) return;
+  if (!clear_terms_of(w, win, line)) return;
+  create_output(q, p, w, rest, rest_size, line);
+}
+
+// The input variable the Hadamard on q consumes, or -1 after a failure: the qubit's only
+// variable, or, when it holds a parity x XOR L (the parity network), the one input x that no
+// other qubit holds. It must be an input not yet consumed, held nowhere else, with no phase of
+// its own.
+int StructuralChecker::Impl::consumed_input(int q, const Parity& p, int line) {
+  if (p.size == 0) {
+    cannot_prove("Hadamard on qubit " + std::to_string(q) + ", which holds " + describe(p) +
+                     " rather than one register wire",
+                 line);
+    return -1;
+  }
+  int v = p.v[0];
+  if (p.size > 1) {
+    int found = 0;
+    for (int i = 0; i < p.size; ++i)
+      if (p.v[i] < n && occ[p.v[i]] == 1) {
+        v = p.v[i];
+        ++found;
+      }
+    if (found != 1) {
+      cannot_prove("Hadamard on qubit " + std::to_string(q) + ", which holds " + describe(p) +
+                       " rather than one register wire",
+                   line);
+      return -1;
+    }
+  }
+  if (v >= n) {
+    const int w = v - n;
+    fail("second Hadamard on the wire of " + lq(w) + " (qubit " + std::to_string(q) + "; the first was" +
+             (h_line[w] > 0 ? " on line " + std::to_string(h_line[w]) : " earlier") + ")",
+         line);
+    return -1;
+  }
+  const int w = v;
+  if (occ[v] != 1) {
+    cannot_prove("Hadamard on " + lq(w) + " while another qubit still holds a parity containing its input", line);
+    return -1;
+  }
+  if (!single[v].is_zero()) {
+    fail("a phase of " + single_text(single[v]) + " acts on " + lq(w) +
+             " before its Hadamard; the QFT has no such phase" + at_line(line) ,
+         single_line[v] > 0 ? single_line[v] : line);
+    return -1;
+  }
+  return v;
+}
+
+// The controlled phases the Hadamard on wire w must close (forward: with the outputs of the wires
+// k in [w-d, w); inverse: with the outputs of the wires j in (w, w+d]).
+auto StructuralChecker::Impl::closing_window(int w) const -> Window {
+  const int lo = spec.inverse ? w + 1 : std::max(0, w - d);
+  const int hi = spec.inverse ? std::min(n - 1, w + d) : w - 1;
+  return Window{lo, hi};
+}
+
+// Each wire k of the window has had its Hadamard, and the term between w's input and k's output
+// has the QFT's angle.
+bool StructuralChecker::Impl::check_closing_phases(int w, Window win, int line) {
+  const int v = w;
+  for (int k = win.lo; k <= win.hi; ++k) {
+    const Angle want = spec.rotation(std::abs(w - k));
+    if (!h_done[k]) {
+      fail("the Hadamard on " + lq(w) + " comes before the Hadamard on " + lq(k) +
+               ", but their controlled phase (" + angle_text(want) + ") must come between them" +
+               (spec.inverse ? " (inverse QFT order)" : ""),
+           line);
+      return false;
+    }
+    auto it = pairs.find(proof::pair_key(v, n + k));
+    if (it == pairs.end()) {
+      fail("controlled phase between " + lqs(w, k) + " is missing (expected angle " +
+               angle_text(want) + " before the Hadamard on " + lq(w) + ")",
+           line);
+      return false;
+    }
+    if (!(it->second.angle == want)) {
+      fail("controlled phase between " + lqs(w, k) + " has angle " +
+               angle_text(it->second.angle) + ", expected " + angle_text(want) + at_line(it->second.line),
+           it->second.line > 0 ? it->second.line : line);
+      return false;
+    }
+  }
+  return true;
+}
+
+// Every other term with w's input is wrong; the expected ones are removed as we go, and the
+// variable's terms are cleared.
+bool StructuralChecker::Impl::clear_terms_of(int w, Window win, int line) {
+  const int v = w;
+  for (int u : partners[v]) {
+    auto it = pairs.find(proof::pair_key(v, u));
+    if (it == pairs.end()) continue;
+    const bool expected = u >= n && win.contains(u - n);
+    if (!expected) {
+      const int other = u >= n ? u - n : u;
+      std::string what = "an unexpected controlled phase of " + angle_text(it->second.angle) + " between " + lqs(w, other);
+      if (u < n)
+        what += ", applied before either of their Hadamards";
+      else if (spec.inverse ? other < w : other > w)
+        what += ", applied after the Hadamard on " + lq(other) + " (wrong order)";
+      else
+        what += " (beyond the approximation degree or duplicated)";
+      fail(what + at_line(it->second.line), it->second.line > 0 ? it->second.line : line);
+      return false;
+    }
+    ++terms_checked;
+    pairs.erase(it);
+  }
+  std::vector<int>().swap(partners[v]);
+  single[v] = WideAngle{};
+  return true;
+}
+
+// |v> -> sum_y (-1)^(v y) |y>: the new output variable y of wire w replaces the input on qubit q,
+// which then holds y XOR L (L = rest); a constant 1 on v adds pi * y.
+void StructuralChecker::Impl::create_output(int q, const Parity& p, int w, const int* rest, int rest_size,
+                                             int line) {
+  const int v = w;
+  h_done[w] = 1;
+  h_line[w] = line;
+  ++h_count;
+  --occ[v];
+  const int y = n + w;
+  ++occ[y];
+  // The qubit now holds y XOR L (kept sorted).
+  Parity np;
+  np.c = 0;
+  if (rest_size >= kMaxParity) return cannot_prove("a Hadamard on a parity too wide to track", line);
+  // rest is sorted (taken in order from a sorted parity): put y in its place.
+  bool placed = false;
+  for (int i = 0; i < rest_size; ++i) {
+    if (!placed && y < rest[i]) {
+      np.v[np.size++] = y;
+      placed = true;
+    }
+    np.v[np.size++] = rest[i];
+  }
+  if (!placed) np.v[np.size++] = y;
+  par[q] = np;
+  if (p.c) add_single(y, Angle(1, 0), line);
+  // The remaining terms of the parity case: pi L y, and pi L when c = 0.
+  for (int i = 0; i < rest_size; ++i) {
+    add_pair(rest[i], y, Angle(1, 0), line);
+    if (!p.c) add_single(rest[i], Angle(1, 0), line);
+  }
+}
+
+}  // namespace qftplan

@@ -1,0 +1,160 @@
+#pragma once
+// Private to the checker: the state of the structural proof (StructuralChecker::Impl), shared by
+// its three parts:
+//   structural_checker.cpp  set-up, the streaming front end (ranges, couplers, measurements,
+//                           h-cz-h sandwiches), the end-of-circuit checks;
+//   phase_polynomial.cpp    the path-sum state: parities per qubit and the phase polynomial;
+//   structural_hadamard.cpp the Hadamard rule, where the QFT's controlled phases are compared.
+//
+// Structural proof (path-sum / phase-polynomial method). Every physical qubit holds an affine
+// GF(2) function (a parity of variables plus a constant bit) of the input bits and of fresh
+// variables created by Hadamards; phase gates add terms to a phase polynomial kept as a map from
+// monomials to angles mod 2 pi, a representation that is unique. A circuit with exactly one
+// Hadamard per register wire whose end state puts output variables where `final_placement` says
+// implements 2^(-n/2) sum_y exp(i phi(x, y)) |y>, so it is the QFT exactly when phi equals the
+// QFT's phase polynomial. A term with an input variable can only be created while some qubit
+// holds that variable, so at the wire's Hadamard (which must consume the only copy) those terms
+// are final and are compared with what the QFT needs right there.
+//
+// Variables: 0..n-1 are the inputs of the wires (processing index), n..2n-1 the outputs the
+// wires' Hadamards create (variable n + w for wire w).
+
+#include <cstdint>
+#include <string>
+#include <unordered_map>
+#include <utility>
+#include <vector>
+
+#include "exact_angles.hpp"
+#include "qftplan/check/qft_checker.hpp"
+
+namespace qftplan {
+
+namespace proof {
+
+/// The widest parity a qubit may hold before the proof gives up ("cannot prove").
+constexpr int kMaxParity = 4;
+
+/// An affine GF(2) function: XOR of up to kMaxParity variables (sorted ids) and a constant bit.
+struct Parity {
+  std::int32_t v[kMaxParity] = {0, 0, 0, 0};
+  std::uint8_t size = 0;
+  std::uint8_t c = 0;
+};
+
+/// A degree-2 term of the phase polynomial.
+struct Term {
+  Angle angle;
+  int line = 0;  ///< last gate that changed it
+};
+
+/// The key of the degree-2 monomial of variables a and b (order-free).
+inline std::uint64_t pair_key(int a, int b) {
+  if (a > b) std::swap(a, b);
+  return (static_cast<std::uint64_t>(static_cast<std::uint32_t>(a)) << 32) | static_cast<std::uint32_t>(b);
+}
+
+}  // namespace proof
+
+/// The structural proof's state and rules (see the comment at the top of this header).
+struct StructuralChecker::Impl {
+  using Parity = proof::Parity;
+  using WideAngle = proof::WideAngle;
+
+  const Device* device;
+  QftSpec spec;
+  int n;
+  int d;
+  int nq;  // device qubits
+  std::vector<int> placement;
+
+  std::vector<Parity> par;        // per physical qubit
+  std::vector<int> occ;           // per variable: how many qubits' parities contain it
+  // Per variable: coefficient of the degree-1 monomial (of any spread: WideAngle), and the last
+  // gate that changed it.
+  std::vector<WideAngle> single;
+  std::vector<int> single_line;
+  std::unordered_map<std::uint64_t, proof::Term> pairs;  // degree-2 monomials
+  std::vector<std::vector<int>> partners;  // per variable: possible pair partners (may be stale)
+  std::vector<char> h_done;       // per wire
+  std::vector<int> h_line;        // per wire
+  std::vector<char> measured;     // per physical qubit
+
+  // h-cz-h sandwiches (h t; cz c,t; h t == cx c,t). An H is held back until the next gate on its
+  // qubit; a cz meeting a held H is held too (on both its qubits, since either may turn out to be
+  // the target), and the next gate on either qubit decides: an h on a qubit with a held H closes
+  // the sandwich, anything else releases the held gates unchanged. Two H's held on one qubit (h h)
+  // are the identity unless a cz follows: then the first is a Hadamard of its own and the second
+  // opens a sandwich.
+  std::vector<char> pend_h;       // H's held on the qubit: 0, 1 or 2
+  std::vector<int> pend_h_line;   // line of the first
+  std::vector<int> cz_partner;    // the other qubit of a held cz, or -1 (kept on both qubits)
+  std::vector<int> cz_line;
+
+  bool failed = false;
+  bool inconclusive = false;
+  std::string message;
+  int fail_line = 0;
+  long long gates = 0;
+  long long terms_checked = 0;
+  int h_count = 0;
+
+  // ----- structural_checker.cpp: set-up, messages, front end, end of circuit -----
+
+  Impl(const Device& dev, const QftSpec& s, std::vector<int> pl);
+  void place_inputs();
+  void fail(std::string msg, int line, bool cannot_prove = false);
+  void cannot_prove(const std::string& why, int line) { fail("cannot prove: " + why, line, true); }
+
+  // Names for messages. A wire is called by the logical qubit whose input bit it starts with.
+  int logical_of_wire(int w) const { return spec.inverse ? w : n - 1 - w; }
+  int output_bit_of_wire(int w) const { return spec.inverse ? n - 1 - w : w; }
+  std::string lq(int w) const { return "logical qubit " + std::to_string(logical_of_wire(w)); }
+  std::string lqs(int w, int k) const;
+  std::string var_name(int v) const;
+  std::string describe(const Parity& p) const;
+  static std::string at_line(int line) { return line > 0 ? " (line " + std::to_string(line) + ")" : ""; }
+
+  bool check_qubit(int q, int line);
+  bool check_gate_qubits(const Gate& g, int line);
+  void feed(const Gate& g, int line);
+  void feed_h(int q, int line);
+  bool hold_cz(const Gate& g, int line);
+  void release(int q);
+  void flush_pair(int q);
+  void flush_all();
+
+  CheckResult finish(const std::vector<int>& final_placement);
+  void final_checks(const std::vector<int>& fp);
+  void check_no_terms_left();
+  void check_final_placement(const std::vector<int>& fp);
+
+  // ----- phase_polynomial.cpp: the path-sum state -----
+
+  void apply(const Gate& g, int line);
+  void xor_into(int t, int c, int line);
+  void add_single(int v, const Angle& a, int line);
+  static std::string single_text(const WideAngle& s);
+  void add_pair(int u, int v, const Angle& a, int line);
+  void add_monomial(const int* vars, unsigned mask, std::int64_t coef, const Angle& theta, int line);
+  static void expand(unsigned pmask, std::int64_t scale, std::int64_t* coef);
+  void phase1(int q, const Angle& theta, int line);
+  void phase2(int qa, int qb, const Angle& theta, int line);
+
+  // ----- structural_hadamard.cpp: the Hadamard rule -----
+
+  /// The wires whose outputs the Hadamard on wire w must meet in a controlled phase: [lo, hi].
+  struct Window {
+    int lo;
+    int hi;
+    bool contains(int k) const { return k >= lo && k <= hi; }
+  };
+  void hadamard(int q, int line);
+  int consumed_input(int q, const Parity& p, int line);
+  Window closing_window(int w) const;
+  bool check_closing_phases(int w, Window win, int line);
+  bool clear_terms_of(int w, Window win, int line);
+  void create_output(int q, const Parity& p, int w, const int* rest, int rest_size, int line);
+};
+
+}  // namespace qftplan
