@@ -667,7 +667,7 @@ TEST(QftChecker, RandomMutationsNeverFoolTheStructuralProof) {
 }
 
 // The parity network (ours, parity_qft.hpp) as written in a file (cx, rz, h): the structural proof
-// follows its Hadamards on parities x XOR L by renaming the output (qft_checker.cpp). The renaming
+// follows its Hadamards on parities x XOR L by renaming the output (src/check/structural_hadamard.cpp). The renaming
 // must stay sound: random damage is accepted only where simulation accepts too, and the undamaged
 // circuits are always proved, forwards and inverse, exact and approximate.
 std::vector<Gate> parity_circuit(int n, std::optional<int> degree, bool inverse) {
