@@ -1,8 +1,11 @@
 #pragma once
 // Helpers shared by the tests: paths, running the command-line program, temporary folders.
 
+#include <cstdint>
 #include <filesystem>
 #include <string>
+
+#include "qftplan/device/device.hpp"
 
 namespace qftplan::testing {
 
@@ -25,5 +28,16 @@ std::filesystem::path temp_dir();
 void write_file(const std::filesystem::path& path, const std::string& text);
 /// Reads a whole file.
 std::string read_file(const std::filesystem::path& path);
+
+}  // namespace qftplan::testing
+
+namespace qftplan::testing {
+
+/// A defective chip as real files describe them: the built-in lattice `spec` with `dead_qubits` qubits
+/// and `broken_couplers` couplers removed at random (seeded), the remaining qubits renumbered in a
+/// random order, no positions and no calibration. With `largest_component`, only the largest connected
+/// piece is kept. Deterministic for a seed.
+Device make_defective_chip(const std::string& spec, int dead_qubits, int broken_couplers, std::uint64_t seed,
+                           bool largest_component = true);
 
 }  // namespace qftplan::testing
