@@ -175,111 +175,136 @@ std::vector<std::string> decade_labels(const AxisTicks& ticks) {
 
 double chart_height(const ChartSpec& chart, double w) { return kChartBaseHeight + legend_layout(chart, w).height; }
 
-void draw_chart(SvgDocument& doc, const ChartSpec& chart, double x, double y, double w, double h) {
-  const LegendLayout legend = legend_layout(chart, w);
-  const double base_h = std::max(kTop + kBottom + 40, h - legend.height);
-  const double right = legend.below ? 24 : kRightLegendW + 16;
-  const double px = x + kLeft, py = y + kTop, pw = std::max(40.0, w - kLeft - right),
-               ph = std::max(40.0, base_h - kTop - kBottom);
+namespace {
 
-  doc.begin_group({}, "chart");
-  doc.text(x + kLeft, y + 20, chart.title, SvgFont{15, "start", "#1a1a1a", true});
+const SvgPaint kReferencePaint{"none", kReferenceColour, 1.5, "5 4"};
 
-  // Data range over every series and the reference.
+// The style index of series i: its own when it names one, else its position.
+std::size_t series_style(const ChartSpec& chart, std::size_t i) {
+  return chart.series[i].style >= 0 ? static_cast<std::size_t>(chart.series[i].style) : i;
+}
+
+// The data range over every series and the reference, widened to what the axes must show.
+struct DataRange {
   double xmin = std::numeric_limits<double>::infinity(), xmax = -xmin, ymin = xmin, ymax = -xmin;
+  bool empty = false;  // no finite point at all
+};
+
+DataRange data_range(const ChartSpec& chart) {
+  DataRange r;
   auto cover = [&](const ChartSeries& s) {
     for (const auto& p : s.points) {
       if (!std::isfinite(p.x) || !std::isfinite(p.y)) continue;
-      xmin = std::min(xmin, p.x), xmax = std::max(xmax, p.x);
-      ymin = std::min(ymin, p.y), ymax = std::max(ymax, p.y);
+      r.xmin = std::min(r.xmin, p.x), r.xmax = std::max(r.xmax, p.x);
+      r.ymin = std::min(r.ymin, p.y), r.ymax = std::max(r.ymax, p.y);
     }
   };
   for (const auto& s : chart.series) cover(s);
   if (chart.reference) cover(*chart.reference);
-  const bool empty = !std::isfinite(xmin);
-  if (empty) xmin = 0, xmax = 1, ymin = chart.log_y ? -1 : 0, ymax = 1;
+  r.empty = !std::isfinite(r.xmin);
+  if (r.empty) r.xmin = 0, r.xmax = 1, r.ymin = chart.log_y ? -1 : 0, r.ymax = 1;
   if (!chart.log_y) {
-    ymin = std::min(ymin, 0.0);           // counts start at zero
-    if (ymax <= ymin) ymax = ymin + 1;    // all zero: the axis runs 0..1, not below zero
+    r.ymin = std::min(r.ymin, 0.0);             // counts start at zero
+    if (r.ymax <= r.ymin) r.ymax = r.ymin + 1;  // all zero: the axis runs 0..1, not below zero
   }
-  if (chart.x_span) xmin = std::min(xmin, chart.x_span->x), xmax = std::max(xmax, chart.x_span->y);
+  if (chart.x_span) r.xmin = std::min(r.xmin, chart.x_span->x), r.xmax = std::max(r.xmax, chart.x_span->y);
+  return r;
+}
 
-  const AxisTicks xt = nice_ticks(xmin, xmax, 8, chart.integer_x);
-  const AxisTicks yt = chart.log_y ? decade_ticks(ymin, ymax, 8) : nice_ticks(ymin, ymax, 6, chart.integer_y);
-  auto sx = [&](double v) { return px + (v - xt.lo) / (xt.hi - xt.lo) * pw; };
-  auto sy = [&](double v) { return py + ph - (v - yt.lo) / (yt.hi - yt.lo) * ph; };
+// The plot inside a chart box in px, its axes, and the scales that take data to px.
+struct Plot {
+  double x = 0, y = 0;        // the chart box's top-left corner
+  double base_h = 0;          // the box's height above a legend set under the plot
+  double px = 0, py = 0, pw = 0, ph = 0;  // the plot's left, top, width and height
+  AxisTicks xt, yt;
+  bool empty = false;         // no data: the plot says so
 
-  // Grid and ticks; the labels of one axis share one style.
+  double sx(double v) const { return px + (v - xt.lo) / (xt.hi - xt.lo) * pw; }
+  double sy(double v) const { return py + ph - (v - yt.lo) / (yt.hi - yt.lo) * ph; }
+};
+
+Plot plot_of(const ChartSpec& chart, const LegendLayout& legend, double x, double y, double w, double h) {
+  Plot p;
+  p.x = x, p.y = y;
+  p.base_h = std::max(kTop + kBottom + 40, h - legend.height);
+  const double right = legend.below ? 24 : kRightLegendW + 16;
+  p.px = x + kLeft, p.py = y + kTop, p.pw = std::max(40.0, w - kLeft - right), p.ph = std::max(40.0, p.base_h - kTop - kBottom);
+  const DataRange r = data_range(chart);
+  p.empty = r.empty;
+  p.xt = nice_ticks(r.xmin, r.xmax, 8, chart.integer_x);
+  p.yt = chart.log_y ? decade_ticks(r.ymin, r.ymax, 8) : nice_ticks(r.ymin, r.ymax, 6, chart.integer_y);
+  return p;
+}
+
+// Grid and ticks (the labels of one axis share one style), the axes and their labels.
+void draw_axes(SvgDocument& doc, const ChartSpec& chart, const Plot& p) {
   SvgPaint grid{"none", kGridColour, 1};
   SvgPaint axis{"none", kAxisColour, 1.2};
-  const std::vector<std::string> ylabels = chart.log_y ? decade_labels(yt) : std::vector<std::string>{};
+  const std::vector<std::string> ylabels = chart.log_y ? decade_labels(p.yt) : std::vector<std::string>{};
   doc.begin_group({}, "y-ticks");
-  for (std::size_t i = 0; i < yt.values.size(); ++i) {
-    const double v = yt.values[i];
-    doc.line(px, sy(v), px + pw, sy(v), grid);
-    doc.line(px - 5, sy(v), px, sy(v), axis);
+  for (std::size_t i = 0; i < p.yt.values.size(); ++i) {
+    const double v = p.yt.values[i];
+    doc.line(p.px, p.sy(v), p.px + p.pw, p.sy(v), grid);
+    doc.line(p.px - 5, p.sy(v), p.px, p.sy(v), axis);
     SvgFont f = kTickFont;
     f.middle = true;
-    doc.text(px - 8, sy(v), chart.log_y ? ylabels[i] : format_tick(v, yt.step), f);
+    doc.text(p.px - 8, p.sy(v), chart.log_y ? ylabels[i] : format_tick(v, p.yt.step), f);
   }
   doc.end_group();
   doc.begin_group({}, "x-ticks");
-  for (const double v : xt.values) {
-    doc.line(sx(v), py, sx(v), py + ph, grid);
-    doc.line(sx(v), py + ph, sx(v), py + ph + 5, axis);
+  for (const double v : p.xt.values) {
+    doc.line(p.sx(v), p.py, p.sx(v), p.py + p.ph, grid);
+    doc.line(p.sx(v), p.py + p.ph, p.sx(v), p.py + p.ph + 5, axis);
     SvgFont f = kTickFont;
     f.anchor = "middle";
-    doc.text(sx(v), py + ph + 19, format_tick(v, xt.step), f);
+    doc.text(p.sx(v), p.py + p.ph + 19, format_tick(v, p.xt.step), f);
   }
   doc.end_group();
-  doc.line(px, py + ph, px + pw, py + ph, axis);
-  doc.line(px, py, px, py + ph, axis);
-  doc.text(px + pw / 2, y + base_h - 10, chart.x_label, SvgFont{12, "middle", "#1a1a1a"});
+  doc.line(p.px, p.py + p.ph, p.px + p.pw, p.py + p.ph, axis);
+  doc.line(p.px, p.py, p.px, p.py + p.ph, axis);
+  doc.text(p.px + p.pw / 2, p.y + p.base_h - 10, chart.x_label, SvgFont{12, "middle", "#1a1a1a"});
   SvgFont ylab{12, "middle", "#1a1a1a"};
   ylab.rotate = -90;
-  doc.text(x + 18, py + ph / 2, chart.y_label, ylab);
-  if (empty) doc.text(px + pw / 2, py + ph / 2, "no planned runs to show", SvgFont{13, "middle", "#777777"});
+  doc.text(p.x + 18, p.py + p.ph / 2, chart.y_label, ylab);
+  if (p.empty) doc.text(p.px + p.pw / 2, p.py + p.ph / 2, "no planned runs to show", SvgFont{13, "middle", "#777777"});
+}
 
-  // The reference first, so that series are drawn over it; a single point is a short level dash.
-  const SvgPaint ref_paint{"none", kReferenceColour, 1.5, "5 4"};
-  if (chart.reference && !chart.reference->points.empty()) {
-    std::vector<SvgPoint> pts;
-    for (const auto& p : chart.reference->points)
-      if (std::isfinite(p.x) && std::isfinite(p.y)) pts.push_back({sx(p.x), sy(p.y)});
-    std::stable_sort(pts.begin(), pts.end(), [](const SvgPoint& a, const SvgPoint& b) { return a.x < b.x; });
-    doc.begin_group({}, "reference");
-    if (pts.size() == 1) doc.line(pts[0].x - 18, pts[0].y, pts[0].x + 18, pts[0].y, ref_paint);
-    else if (pts.size() > 1) doc.polyline(pts, ref_paint);
-    doc.end_group();
-  }
+// The reference line; a single point is a short level dash.
+void draw_reference(SvgDocument& doc, const ChartSpec& chart, const Plot& p) {
+  if (!chart.reference || chart.reference->points.empty()) return;
+  std::vector<SvgPoint> pts;
+  for (const auto& q : chart.reference->points)
+    if (std::isfinite(q.x) && std::isfinite(q.y)) pts.push_back({p.sx(q.x), p.sy(q.y)});
+  std::stable_sort(pts.begin(), pts.end(), [](const SvgPoint& a, const SvgPoint& b) { return a.x < b.x; });
+  doc.begin_group({}, "reference");
+  if (pts.size() == 1) doc.line(pts[0].x - 18, pts[0].y, pts[0].x + 18, pts[0].y, kReferencePaint);
+  else if (pts.size() > 1) doc.polyline(pts, kReferencePaint);
+  doc.end_group();
+}
 
-  auto style = [&](std::size_t i) {
-    return chart.series[i].style >= 0 ? static_cast<std::size_t>(chart.series[i].style) : i;
-  };
-  // Every series' points in px, in order of x.
-  struct Mark {
-    std::size_t series;
-    double data_x, x, y;
-  };
-  std::vector<std::vector<SvgPoint>> scaled(chart.series.size());
+// A series' point in px, with the series and the data x it came from.
+struct Mark {
+  std::size_t series;
+  double data_x, x, y;
+};
+
+// Every series' finite points as marks, in order of series and then x. Markers of different series
+// at one x whose y are closer than a marker are spread sideways, centred on x, a marker apart, the
+// whole spread within 40 % of the gap to the next x (so that each stays nearer its own x than any
+// other; their rims keep crowded ones apart).
+std::vector<Mark> spread_marks(const ChartSpec& chart, const Plot& plot) {
   std::vector<Mark> marks;
   for (std::size_t i = 0; i < chart.series.size(); ++i) {
     auto pts = chart.series[i].points;
     std::erase_if(pts, [](const SvgPoint& p) { return !std::isfinite(p.x) || !std::isfinite(p.y); });
     std::stable_sort(pts.begin(), pts.end(), [](const SvgPoint& a, const SvgPoint& b) { return a.x < b.x; });
-    for (const auto& p : pts) {
-      scaled[i].push_back({sx(p.x), sy(p.y)});
-      marks.push_back({i, p.x, sx(p.x), sy(p.y)});
-    }
+    for (const auto& p : pts) marks.push_back({i, p.x, plot.sx(p.x), plot.sy(p.y)});
   }
-  // Markers of different series at one x whose y are closer than a marker are spread sideways,
-  // centred on x, a marker apart, the whole spread within 40 % of the gap to the next x (so that
-  // each stays nearer its own x than any other; their rims keep crowded ones apart).
   std::vector<double> xs;
   for (const auto& m : marks) xs.push_back(m.x);
   std::sort(xs.begin(), xs.end());
   xs.erase(std::unique(xs.begin(), xs.end(), [](double a, double b) { return std::abs(a - b) < 0.5; }), xs.end());
-  double gap = pw / 4;
+  double gap = plot.pw / 4;
   for (std::size_t k = 1; k < xs.size(); ++k) gap = std::min(gap, xs[k] - xs[k - 1]);
   std::sort(marks.begin(), marks.end(), [](const Mark& a, const Mark& b) {
     return std::tie(a.data_x, a.y, a.series) < std::tie(b.data_x, b.y, b.series);
@@ -296,45 +321,69 @@ void draw_chart(SvgDocument& doc, const ChartSpec& chart, double x, double y, do
     }
     a = b;
   }
-  // Lines through their own (spread) markers, so that coinciding series show two lines side by side;
-  // lines under every marker; markers in series order, so the legend's order is the painting order.
   std::stable_sort(marks.begin(), marks.end(), [](const Mark& p, const Mark& q) {
     return std::tie(p.series, p.data_x) < std::tie(q.series, q.data_x);
   });
-  for (auto& pts : scaled) pts.clear();
+  return marks;
+}
+
+// Lines through their own (spread) markers, so that coinciding series show two lines side by side;
+// lines under every marker; markers in series order, so the legend's order is the painting order.
+void draw_series(SvgDocument& doc, const ChartSpec& chart, const std::vector<Mark>& marks) {
+  std::vector<std::vector<SvgPoint>> scaled(chart.series.size());
   for (const auto& m : marks) scaled[m.series].push_back({m.x, m.y});
   doc.begin_group({}, "lines");
-  for (std::size_t i = 0; i < chart.series.size(); ++i) series_line(doc, scaled[i], series_colour(style(i)), series_dash(style(i)));
+  for (std::size_t i = 0; i < chart.series.size(); ++i)
+    series_line(doc, scaled[i], series_colour(series_style(chart, i)), series_dash(series_style(chart, i)));
   doc.end_group();
   doc.begin_group({}, "markers");
-  for (const auto& m : marks)
-    draw_marker(doc, series_marker(style(m.series)), m.x, m.y, kChartMarkerSize, series_colour(style(m.series)));
+  for (const auto& m : marks) {
+    const std::size_t style = series_style(chart, m.series);
+    draw_marker(doc, series_marker(style), m.x, m.y, kChartMarkerSize, series_colour(style));
+  }
   doc.end_group();
+}
 
-  // Legend: every series (and the reference), a line sample with the series' marker, then the name;
-  // beside the plot, or under it in columns.
+// Legend: every series (and the reference), a line sample with the series' marker, then the name;
+// beside the plot, or under it in columns.
+void draw_legend(SvgDocument& doc, const ChartSpec& chart, const LegendLayout& legend, const Plot& p) {
   doc.begin_group({}, "legend");
   const auto names = legend_names(chart);
-  const double lx0 = legend.below ? px : px + pw + 18;
-  const double ly0 = legend.below ? y + base_h + 4 : py + 6;
+  const double lx0 = legend.below ? p.px : p.px + p.pw + 18;
+  const double ly0 = legend.below ? p.y + p.base_h + 4 : p.py + 6;
   SvgFont name_font{kLegendFont, "start", "#1a1a1a"};
   name_font.middle = true;
   for (std::size_t e = 0; e < names.size(); ++e) {
     const std::size_t col = e / std::max<std::size_t>(legend.rows, 1), row = e % std::max<std::size_t>(legend.rows, 1);
     const double lx = lx0 + static_cast<double>(col) * legend.column_w, ly = ly0 + static_cast<double>(row) * kLegendRow;
     if (e < chart.series.size()) {
-      const std::string colour = series_colour(style(e));
-      series_line(doc, {{lx, ly}, {lx + kSample, ly}}, colour, series_dash(style(e)));
-      draw_marker(doc, series_marker(style(e)), lx + kSample / 2, ly, kChartMarkerSize, colour);
+      const std::size_t style = series_style(chart, e);
+      const std::string colour = series_colour(style);
+      series_line(doc, {{lx, ly}, {lx + kSample, ly}}, colour, series_dash(style));
+      draw_marker(doc, series_marker(style), lx + kSample / 2, ly, kChartMarkerSize, colour);
       doc.text(lx + kSample + kSampleGap, ly, fit_name(names[e], legend.max_chars), name_font);
     } else {
-      doc.line(lx, ly, lx + kSample, ly, ref_paint);
+      doc.line(lx, ly, lx + kSample, ly, kReferencePaint);
       SvgFont f = name_font;
       f.fill = "#555555";
       doc.text(lx + kSample + kSampleGap, ly, fit_name(names[e], legend.max_chars), f);
     }
   }
   doc.end_group();
+}
+
+}  // namespace
+
+void draw_chart(SvgDocument& doc, const ChartSpec& chart, double x, double y, double w, double h) {
+  const LegendLayout legend = legend_layout(chart, w);
+  const Plot plot = plot_of(chart, legend, x, y, w, h);
+  doc.begin_group({}, "chart");
+  doc.text(x + kLeft, y + 20, chart.title, SvgFont{15, "start", "#1a1a1a", true});
+  draw_axes(doc, chart, plot);
+  // The reference first, so that series are drawn over it.
+  draw_reference(doc, chart, plot);
+  draw_series(doc, chart, spread_marks(chart, plot));
+  draw_legend(doc, chart, legend, plot);
   doc.end_group();
 }
 

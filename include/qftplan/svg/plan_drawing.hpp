@@ -13,6 +13,7 @@
 #include "qftplan/core/gate.hpp"
 #include "qftplan/device/device.hpp"
 #include "qftplan/planners/plan.hpp"
+#include "qftplan/svg/device_drawing.hpp"  // draw_device_svg, declared there
 
 namespace qftplan {
 
@@ -74,10 +75,5 @@ DrawnPlan drawn_plan_from_report(const Device& device, const nlohmann::json& rep
 
 /// The same, reading the report from a file.
 DrawnPlan read_drawn_plan(const Device& device, const std::string& path);
-
-/// The SVG document: the device (and the plan when given) with a legend. Placement labels are set
-/// greedily, most constrained qubit first, at the nearest of 64 candidate spots around their qubit
-/// that touches no qubit, no block count and no other label (deterministic).
-std::string draw_device_svg(const Device& device, const DrawnPlan* plan);
 
 }  // namespace qftplan
