@@ -2,9 +2,12 @@
 
 #include <algorithm>
 #include <cmath>
+#include <optional>
 #include <random>
 
 #include "qftplan/core/run_budget.hpp"
+#include "complete_chain_search.hpp"
+#include "path_bound.hpp"
 
 namespace qftplan {
 
@@ -29,24 +32,43 @@ class Searcher {
   ChainSearchResult run() {
     ChainSearchResult r;
     if (n_ <= 0 || n_ > dev_.qubit_count()) return r;
-    for (int start : starts()) {
+    const std::vector<int> first = starts();
+    for (int start : first) {
       if (out_of_budget()) break;
       greedy(start);
       if (static_cast<int>(path_.size()) >= n_) break;
     }
-    if (static_cast<int>(best_.size()) < n_ && dev_.qubit_count() <= opt_.exhaustive_limit && !out_of_budget())
-      exhaustive();
+    // Still short: again from the best starts, each step now guided by how far a path could still
+    // go (PathBound), which keeps the walk from cutting off the part of the chip it has not reached.
+    if (static_cast<int>(best_.size()) < n_ && !out_of_budget()) {
+      bound_.emplace(dev_, two_colouring(dev_));
+      // One guided walk costs a bound (O(qubits)) per branching step: on large chips the pass may go
+      // past the work budget by about that much, so that at least one walk can run to its end.
+      limit_ = std::max(limit_, work_ + 3LL * dev_.qubit_count() * n_);
+      free_.assign(static_cast<std::size_t>(dev_.qubit_count()), 1);
+      for (std::size_t i = 0; i < first.size() && i < kGuidedStarts && !out_of_budget(); ++i) {
+        greedy(first[i]);
+        if (static_cast<int>(best_.size()) >= n_) break;
+      }
+    }
+    if (static_cast<int>(best_.size()) < n_ && searchable_qubits() <= opt_.complete_limit && !out_of_budget()) {
+      const auto c = complete_chain_search(dev_, n_, opt_.work_budget - work_, poll_);
+      // (The guided pass may have spent the whole budget on a large chip: then this stops at once.)
+      work_ += c.work;
+      if (c.longest.size() > best_.size()) best_ = c.longest;
+      r.proved_none = c.proved_none;
+    }
     if (static_cast<int>(best_.size()) >= n_) r.chain.assign(best_.begin(), best_.begin() + n_);
     r.longest = best_;
     r.work = work_;
-    r.budget_exhausted = work_ > opt_.work_budget;
+    r.budget_exhausted = work_ > limit_;
     r.time_out = poll_.stopped();
     return r;
   }
 
  private:
   // The work budget bounds effort; the RunBudget (polled every 1024 calls) bounds wall time.
-  bool out_of_budget() { return work_ > opt_.work_budget || poll_.stop(); }
+  bool out_of_budget() { return work_ > limit_ || poll_.stop(); }
 
   // Starting qubits: both ends of a double sweep in every component, then the lowest-degree qubits,
   // then a few seeded random ones.
@@ -96,6 +118,13 @@ class Searcher {
   double score(int nb) {
     work_ += dev_.degree(nb);
     double s = free_degree(nb);
+    if (bound_) {
+      // Guided: the farthest a path could still reach after stepping to nb comes first.
+      free_[static_cast<std::size_t>(nb)] = 0;
+      const int reach = bound_->from(nb, free_, work_);
+      free_[static_cast<std::size_t>(nb)] = 1;
+      s -= 16.0 * reach;
+    }
     if (path_.size() >= 2 && dev_.has_positions()) {
       const auto p0 = dev_.position(path_[path_.size() - 2]), p1 = dev_.position(path_.back()), p2 = dev_.position(nb);
       if (p0 && p1 && p2) {
@@ -109,6 +138,7 @@ class Searcher {
   }
 
   void push(int q) {
+    if (!free_.empty()) free_[static_cast<std::size_t>(q)] = 0;
     on_path_[q] = true;
     index_[q] = static_cast<int>(path_.size());
     path_.push_back(q);
@@ -124,8 +154,16 @@ class Searcher {
     while (static_cast<int>(path_.size()) < n_ && !out_of_budget()) {
       int best = -1;
       double best_s = 0;
+      int choices = 0;
+      if (bound_) {
+        // Guided: a forced step needs no bound.
+        for (int nb : dev_.neighbours(path_.back())) choices += !on_path_[nb];
+        if (choices == 1)
+          for (int nb : dev_.neighbours(path_.back()))
+            if (!on_path_[nb]) best = nb;
+      }
       for (int nb : dev_.neighbours(path_.back())) {
-        if (on_path_[nb]) continue;
+        if (on_path_[nb] || choices == 1) continue;
         const double s = score(nb);
         if (best < 0 || s < best_s) best = nb, best_s = s;
       }
@@ -142,6 +180,8 @@ class Searcher {
 
   void greedy(int start) {
     for (int q : path_) on_path_[q] = false, index_[q] = -1;
+    if (!free_.empty())
+      for (int q : path_) free_[static_cast<std::size_t>(q)] = 1;
     path_.clear();
     push(start);
     int rotations_left = 8 * n_ + 64;
@@ -182,35 +222,23 @@ class Searcher {
     record();
   }
 
-  // Exhaustive backtracking for small devices.
-  void exhaustive() {
-    for (int q : path_) on_path_[q] = false;
-    path_.clear();
-    for (int s = 0; s < dev_.qubit_count() && static_cast<int>(best_.size()) < n_; ++s) {
-      push(s);
-      dfs();
-      on_path_[s] = false;
-      path_.pop_back();
-      if (out_of_budget()) return;
-    }
+  // Qubits in components large enough to hold the chain (what the complete search would cover).
+  int searchable_qubits() const {
+    const auto [comp, count] = dev_.components();
+    std::vector<int> size(static_cast<std::size_t>(count), 0);
+    for (int c : comp) ++size[static_cast<std::size_t>(c)];
+    int total = 0;
+    for (int c = 0; c < count; ++c)
+      if (size[static_cast<std::size_t>(c)] >= n_) total += size[static_cast<std::size_t>(c)];
+    return total;
   }
 
-  bool dfs() {
-    record();
-    if (static_cast<int>(path_.size()) >= n_) return true;
-    if (out_of_budget()) return false;
-    for (int nb : dev_.neighbours(path_.back())) {
-      ++work_;
-      if (on_path_[nb]) continue;
-      push(nb);
-      if (dfs()) return true;
-      on_path_[nb] = false;
-      path_.pop_back();
-    }
-    return false;
-  }
+  // Starts of the guided pass (each costs a bound per step and candidate).
+  static constexpr std::size_t kGuidedStarts = 3;
 
   const Device& dev_;
+  std::optional<PathBound> bound_;  // set for the guided pass
+  std::vector<char> free_;          // scratch for the bound: 1 where a qubit is off the path
   int n_;
   ChainSearchOptions opt_;
   std::mt19937_64 rng_;
@@ -219,6 +247,7 @@ class Searcher {
   std::vector<int> index_;
   std::vector<int> path_, best_;
   long long work_ = 0;
+  long long limit_ = opt_.work_budget;  // work allowed before giving up (see the guided pass)
   BudgetPoll poll_{opt_.budget};
 };
 

@@ -75,10 +75,17 @@ std::vector<int> first_chain(const Device& device, const PlanOptions& options, P
         "the time limit ran out before a chain of {} qubits was found in {} (longest so far: {} qubits)", n,
         device.name(), found.longest.size()));
   }
+  if (found.chain.empty() && found.proved_none) {
+    throw PlanningError(fmt::format(
+        "no chain of {} qubits exists in {} (proved by a complete search; longest found: {} qubits); a chain "
+        "strategy needs one",
+        n, device.name(), found.longest.size()));
+  }
   if (found.chain.empty()) {
     throw PlanningError(fmt::format(
-        "no chain of {} qubits found in {} (longest found: {} qubits{}); a chain strategy needs one", n,
-        device.name(), found.longest.size(), found.budget_exhausted ? ", search budget exhausted" : ""));
+        "no chain of {} qubits found in {} within the search budget (longest found: {} qubits; --effort raises "
+        "the budget); a chain strategy needs one",
+        n, device.name(), found.longest.size()));
   }
   plan.placement.method = "first-found";
   return found.chain;

@@ -15,7 +15,8 @@ class RunBudget;
 struct ChainSearchOptions {
   std::uint64_t seed = 1;                    ///< varies tie-breaking and restarts; same seed, same chain
   long long work_budget = 50'000'000;        ///< neighbour inspections before giving up
-  int exhaustive_limit = 24;                 ///< below this many qubits, backtrack exhaustively (within budget)
+  int complete_limit = 4000;                 ///< devices whose components able to hold the chain have at most
+                                             ///< this many qubits in all get the complete search (within budget)
   const RunBudget* budget = nullptr;         ///< time limit / interruption, polled in the loops (null: none)
 };
 
@@ -27,13 +28,16 @@ struct ChainSearchResult {
   long long work = 0;
   bool budget_exhausted = false;
   bool time_out = false;  ///< stopped by the RunBudget (deadline or interruption) before finishing
+  bool proved_none = false;  ///< the complete search ran to its end: no chain of n qubits exists
 };
 
 /// Looks for a simple path of `n` qubits. Strategy: greedy extension from several starting qubits
 /// (ends of long shortest paths, low-degree qubits, then seeded random ones), preferring the
 /// neighbour that keeps the drawing direction (snakes on grids and heavy-hexagon rows) and then the
 /// one with fewest free neighbours (Warnsdorff's rule); when stuck, Pósa rotations (reverse the
-/// path's tail at a neighbour of its end) open new ends. Small devices are searched exhaustively.
+/// path's tail at a neighbour of its end) open new ends. When that finds none, devices up to
+/// `complete_limit` qubits get a complete depth-first search pruned by upper bounds on the path's
+/// reach (block-cut tree and colour alternation), which either finds a chain or proves there is none.
 /// Deterministic for a given seed.
 ChainSearchResult find_chain(const Device& device, int n, const ChainSearchOptions& options = {});
 

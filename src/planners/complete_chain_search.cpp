@@ -1,0 +1,105 @@
+#include "complete_chain_search.hpp"
+
+#include <algorithm>
+
+#include "path_bound.hpp"
+
+namespace qftplan {
+
+namespace {
+
+class CompleteSearch {
+ public:
+  CompleteSearch(const Device& device, int n, long long work_budget, BudgetPoll& poll)
+      : dev_(device), n_(n), budget_(work_budget), poll_(poll), bound_(device, two_colouring(device)),
+        free_(static_cast<std::size_t>(device.qubit_count()), 1) {}
+
+  CompleteSearchResult run() {
+    CompleteSearchResult r;
+    const int N = dev_.qubit_count();
+    // Components too small to hold the chain are never entered.
+    const auto [comp, count] = dev_.components();
+    std::vector<int> size(static_cast<std::size_t>(count), 0);
+    for (int q = 0; q < N; ++q) ++size[static_cast<std::size_t>(comp[q])];
+    std::vector<int> starts;
+    for (int q = 0; q < N; ++q)
+      if (size[static_cast<std::size_t>(comp[q])] >= n_) starts.push_back(q);
+    // Chains tend to end on qubits of few couplers: try those first (finds chains sooner; the
+    // order does not matter for the proof).
+    std::stable_sort(starts.begin(), starts.end(), [&](int a, int b) { return dev_.degree(a) < dev_.degree(b); });
+    bool stopped = false;
+    for (int s : starts) {
+      push(s);
+      const bool found = extend();
+      if (found) {
+        r.chain = path_;
+        break;
+      }
+      pop();
+      if (out_of_budget()) {
+        stopped = true;
+        break;
+      }
+    }
+    r.longest = longest_;
+    r.work = work_;
+    r.proved_none = r.chain.empty() && !stopped && !out_of_budget();
+    return r;
+  }
+
+ private:
+  bool out_of_budget() { return work_ > budget_ || poll_.stop(); }
+
+  void push(int q) {
+    free_[static_cast<std::size_t>(q)] = 0;
+    path_.push_back(q);
+    if (path_.size() > longest_.size()) longest_ = path_;
+  }
+  void pop() {
+    free_[static_cast<std::size_t>(path_.back())] = 1;
+    path_.pop_back();
+  }
+  int free_degree(int q) {
+    int f = 0;
+    for (int w : dev_.neighbours(q)) f += free_[static_cast<std::size_t>(w)];
+    work_ += dev_.degree(q);
+    return f;
+  }
+
+  // Extends the path's end; true once it holds n qubits. On false the path is as it was.
+  bool extend() {
+    if (static_cast<int>(path_.size()) >= n_) return true;
+    if (out_of_budget()) return false;
+    const int end = path_.back();
+    // The end is on the path already: the bound counts it once.
+    if (static_cast<int>(path_.size()) - 1 + bound_.from(end, free_, work_) < n_) return false;
+    std::vector<std::pair<int, int>> next;  // (free degree, qubit)
+    for (int w : dev_.neighbours(end))
+      if (free_[static_cast<std::size_t>(w)]) next.emplace_back(free_degree(w), w);
+    std::sort(next.begin(), next.end());
+    for (const auto& [deg, w] : next) {
+      push(w);
+      if (extend()) return true;
+      pop();
+      if (out_of_budget()) return false;
+    }
+    return false;
+  }
+
+  const Device& dev_;
+  int n_;
+  long long budget_;
+  BudgetPoll& poll_;
+  PathBound bound_;
+  std::vector<char> free_;
+  std::vector<int> path_, longest_;
+  long long work_ = 0;
+};
+
+}  // namespace
+
+CompleteSearchResult complete_chain_search(const Device& device, int n, long long work_budget, BudgetPoll& poll) {
+  return CompleteSearch(device, n, work_budget, poll).run();
+}
+
+}  // namespace qftplan

@@ -1,0 +1,168 @@
+// The chain search (issue 17): a simple path of n qubits is found whenever one exists, and "none" is
+// proved when none does. Checked against an independent brute force written here (every simple path
+// from every start, no pruning) on small graphs of every kind the tool meets: trees, sparse random
+// graphs, defective grids and heavy-hexagon pieces, relabelled and without positions.
+
+#include <gtest/gtest.h>
+
+#include <algorithm>
+#include <chrono>
+#include <cstdio>
+#include <functional>
+#include <random>
+
+#include "qftplan/device/device.hpp"
+#include "qftplan/device/lattices.hpp"
+#include "qftplan/planners/chain_search.hpp"
+#include "test_support.hpp"
+
+namespace qftplan {
+namespace {
+
+using testing::make_defective_chip;
+
+// The number of qubits of the longest simple path, by plain depth-first enumeration of every simple
+// path from every start (exponential; for graphs of up to ~20 qubits). Independent of the library's
+// search: no ordering, no pruning, no bounds.
+int brute_force_longest(const Device& d) {
+  const int N = d.qubit_count();
+  std::vector<char> on(static_cast<std::size_t>(N), 0);
+  int best = 0;
+  std::function<void(int, int)> walk = [&](int v, int len) {
+    best = std::max(best, len);
+    for (int w : d.neighbours(v))
+      if (!on[static_cast<std::size_t>(w)]) {
+        on[static_cast<std::size_t>(w)] = 1;
+        walk(w, len + 1);
+        on[static_cast<std::size_t>(w)] = 0;
+      }
+  };
+  for (int s = 0; s < N; ++s) {
+    on[static_cast<std::size_t>(s)] = 1;
+    walk(s, 1);
+    on[static_cast<std::size_t>(s)] = 0;
+  }
+  return best;
+}
+
+Device graph(int n, const std::vector<std::pair<int, int>>& edges, const std::string& name) {
+  DeviceDescription d;
+  d.name = name;
+  d.qubits = n;
+  for (auto [a, b] : edges) d.couplers.push_back({std::min(a, b), std::max(a, b), {}, {}});
+  return Device(std::move(d));
+}
+
+// A random labelled tree on n qubits (each new qubit joins a random earlier one, then relabelled).
+Device random_tree(int n, std::mt19937_64& rng) {
+  std::vector<int> label(static_cast<std::size_t>(n));
+  for (int i = 0; i < n; ++i) label[static_cast<std::size_t>(i)] = i;
+  std::shuffle(label.begin(), label.end(), rng);
+  std::vector<std::pair<int, int>> e;
+  for (int i = 1; i < n; ++i)
+    e.emplace_back(label[static_cast<std::size_t>(i)],
+                   label[static_cast<std::size_t>(std::uniform_int_distribution<int>(0, i - 1)(rng))]);
+  return graph(n, e, "tree");
+}
+
+// A random graph with about `edges` couplers (not necessarily connected).
+Device random_graph(int n, int edges, std::mt19937_64& rng) {
+  std::vector<std::pair<int, int>> e;
+  std::uniform_int_distribution<int> pick(0, n - 1);
+  for (int t = 0; t < 4 * edges && static_cast<int>(e.size()) < edges; ++t) {
+    int a = pick(rng), b = pick(rng);
+    if (a == b) continue;
+    if (a > b) std::swap(a, b);
+    if (std::find(e.begin(), e.end(), std::pair(a, b)) == e.end()) e.emplace_back(a, b);
+  }
+  return graph(n, e, "random");
+}
+
+// For every register size: a chain of n exactly when the brute force says the longest has >= n
+// qubits, and otherwise a proof (the complete search ran to its end).
+void expect_matches_brute_force(const Device& d, const std::string& what) {
+  const int longest = brute_force_longest(d);
+  for (int n = 1; n <= d.qubit_count(); ++n) {
+    const ChainSearchResult r = find_chain(d, n);
+    if (n <= longest) {
+      ASSERT_EQ(static_cast<int>(r.chain.size()), n) << what << " n=" << n << " longest " << longest;
+      EXPECT_TRUE(is_chain(d, r.chain)) << what << " n=" << n;
+    } else {
+      EXPECT_TRUE(r.chain.empty()) << what << " n=" << n;
+      EXPECT_TRUE(r.proved_none) << what << " n=" << n << ": no chain, but not proved";
+      EXPECT_LE(static_cast<int>(r.longest.size()), longest) << what;
+    }
+  }
+}
+
+TEST(ChainSearch, RandomTreesMatchTheBruteForce) {
+  std::mt19937_64 rng(17);
+  for (int i = 0; i < 40; ++i) {
+    const Device t = random_tree(6 + i % 12, rng);
+    expect_matches_brute_force(t, "tree " + std::to_string(i));
+  }
+}
+
+TEST(ChainSearch, RandomSparseGraphsMatchTheBruteForce) {
+  std::mt19937_64 rng(18);
+  for (int i = 0; i < 40; ++i) {
+    const int n = 8 + i % 10;
+    const Device g = random_graph(n, n + i % 7, rng);
+    expect_matches_brute_force(g, "graph " + std::to_string(i));
+  }
+}
+
+TEST(ChainSearch, DefectiveLatticesMatchTheBruteForce) {
+  for (std::uint64_t seed = 1; seed <= 12; ++seed) {
+    expect_matches_brute_force(make_defective_chip("grid:4x4", 1 + seed % 3, 2 + seed % 4, seed, false),
+                               "grid:4x4 seed " + std::to_string(seed));
+    expect_matches_brute_force(make_defective_chip("heavy-hex:1x1", seed % 2, 1 + seed % 3, seed, false),
+                               "heavy-hex:1x1 seed " + std::to_string(seed));
+  }
+}
+
+// The two cases of the issue: a 25-qubit tree whose longest path has 24 qubits, and a short path
+// hidden in a larger file (0-1-2-3 and 1-4-5 hold the 5-qubit path 3-2-1-4-5).
+TEST(ChainSearch, IssueExamples) {
+  std::vector<std::pair<int, int>> e;
+  for (int i = 0; i + 1 < 24; ++i) e.emplace_back(i, i + 1);
+  e.emplace_back(11, 24);  // one leaf off the middle
+  const Device tree = graph(25, e, "tree25");
+  EXPECT_EQ(find_chain(tree, 24).chain.size(), 24u);
+  EXPECT_TRUE(find_chain(tree, 25).proved_none);
+  std::vector<std::pair<int, int>> f{{0, 1}, {1, 2}, {2, 3}, {1, 4}, {4, 5}};
+  for (int q = 6; q < 25; ++q) f.emplace_back(q, q == 24 ? 6 : q + 1);  // a separate ring elsewhere
+  const Device file = graph(25, f, "file25");
+  const auto r = find_chain(file, 5);
+  ASSERT_EQ(r.chain.size(), 5u);
+  EXPECT_TRUE(is_chain(file, r.chain));
+}
+
+// Measurements for the README (run by hand: --gtest_also_run_disabled_tests --gtest_filter='*Survey*').
+TEST(ChainSearch, DISABLED_SurveyOfDefectiveChips) {
+  for (const std::string spec : {"heavy-hex:2x2", "heavy-hex:3x3", "heavy-hex:4x4", "heavy-hex:5x5", "heavy-hex:7x7",
+                                 "grid:8x8", "grid:12x12"}) {
+    for (std::uint64_t seed = 1; seed <= 3; ++seed) {
+      const Device d = make_defective_chip(spec, 2, 4, seed);
+      const auto t0 = std::chrono::steady_clock::now();
+      // Largest n found, then the next one: proved or not.
+      int lo = 1;
+      const int N = d.qubit_count();
+      ChainSearchResult top;
+      for (int n = N; n >= 1; --n) {
+        top = find_chain(d, n);
+        if (!top.chain.empty()) {
+          lo = n;
+          break;
+        }
+      }
+      const auto next = find_chain(d, lo + 1);
+      const double s = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+      std::printf("%-14s seed %llu: N=%d longest %d, n+1 proved none: %s (work %lld), %.2f s\n", spec.c_str(),
+                  static_cast<unsigned long long>(seed), N, lo, next.proved_none ? "yes" : "no", next.work, s);
+    }
+  }
+}
+
+}  // namespace
+}  // namespace qftplan
