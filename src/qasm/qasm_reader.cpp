@@ -705,10 +705,14 @@ class Reader {
     std::size_t lead = 0;
     while (lead + 1 < digits.size() && digits[lead] == '0') ++lead;
     digits.remove_prefix(lead);
-    if (digits.size() <= 18) {
+    // Every integer that fits 64 bits is exact (19 digits: the parity network writes numerators
+    // such as 2^60 - 1, which a double would round).
+    if (digits.size() <= 19) {
       std::int64_t m = 0;
-      for (char ch : digits) m = m * 10 + (ch - '0');
-      return integer(m);
+      bool fits = true;
+      for (char ch : digits)
+        fits = fits && !__builtin_mul_overflow(m, std::int64_t{10}, &m) && !__builtin_add_overflow(m, ch - '0', &m);
+      if (fits) return integer(m);
     }
     // Long integers are powers of two in practice (our OpenQASM 2 writer spells pi/2^k with the
     // decimal 2^k): recognise them exactly, caching by spelling.
