@@ -2,6 +2,7 @@
 /// \file lattices.hpp
 /// Built-in device lattices and their spec strings: line:N, ring:N, grid:RxC, heavy-hex:RxC, full:N.
 
+#include <cstdint>
 #include <string>
 #include <vector>
 
@@ -28,5 +29,12 @@ bool is_lattice_spec(const std::string& text);
 Device make_lattice(const std::string& spec);
 /// The known family names, for help texts and errors.
 const std::vector<std::string>& lattice_families();
+
+/// A defective copy of `clean`, as the files of real chips describe them: `dead_qubits` qubits and
+/// `broken_couplers` couplers removed at random (seeded), the remaining qubits renumbered in a random
+/// order, no positions, no calibration; with `largest_component`, only the largest connected piece
+/// is kept. Deterministic for a seed (tests, benchmarks and surveys of defective chips).
+Device with_defects(const Device& clean, int dead_qubits, int broken_couplers, std::uint64_t seed,
+                    bool largest_component = true);
 
 }  // namespace qftplan
