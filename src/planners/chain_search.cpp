@@ -31,7 +31,10 @@ class Searcher {
 
   ChainSearchResult run() {
     ChainSearchResult r;
-    if (n_ <= 0 || n_ > dev_.qubit_count()) return r;
+    if (n_ <= 0 || n_ > dev_.qubit_count()) {
+      r.proved_none = n_ > dev_.qubit_count();  // more qubits than the device has
+      return r;
+    }
     const std::vector<int> first = starts();
     for (int start : first) {
       if (out_of_budget()) break;
