@@ -6,6 +6,7 @@
 
 #include "bindings.hpp"
 #include "qftplan/core/input_error.hpp"
+#include "qftplan/core/run_budget.hpp"
 #include "qftplan/planners/plan.hpp"
 
 namespace qftplan::python {
@@ -57,6 +58,9 @@ void bind_errors(py::module_& m) {
       exc.attr("message") = py::str(setting ? text : e.message());
       PyErr_SetObject(g_input_error, exc.ptr());
     } catch (const PlanningError& e) {
+      PyErr_SetString(g_planning_error, e.what());
+    } catch (const TimeLimitReached& e) {
+      // Out of time before any plan existed: the request could not be planned in the time given.
       PyErr_SetString(g_planning_error, e.what());
     }
   });

@@ -62,7 +62,7 @@ std::vector<bool> directions_arg(const py::object& inverse) {
 }
 
 std::vector<SurveyRow> run(const py::object& devices, const py::object& qubits, const py::object& approx,
-                           const py::object& inverse, const py::object& strategy, std::uint64_t seed, int jobs) {
+                           const py::object& inverse, const py::object& strategy, std::uint64_t seed, std::optional<int> jobs_arg) {
   SurveyRequest req;
   if (py::isinstance<py::str>(devices) || py::isinstance<Device>(devices) || py::hasattr(devices, "__fspath__")) {
     req.devices.push_back(entry_arg(devices));
@@ -84,6 +84,8 @@ std::vector<SurveyRow> run(const py::object& devices, const py::object& qubits, 
     }
   }
   req.seed = seed;
+  // Like the command line: every core unless told otherwise.
+  const int jobs = jobs_arg.value_or(default_survey_jobs());
   if (jobs < 1) throw InputError(fmt::format("jobs must be at least 1, got {}", jobs));
   py::gil_scoped_release release;
   const auto cases = expand_survey(req);
@@ -102,7 +104,7 @@ void bind_survey(py::module_& m) {
       "  approx    'none', an int, 'auto', or a list of them\n"
       "  inverse   False, True, 'both', or a list of bools\n"
       "  strategy  a strategy name or a list of names\n"
-      "  seed      seed of every randomised search; jobs: worker threads\n"
+      "  seed      seed of every randomised search; jobs: worker threads (None: every core)\n"
       "  timing    include the wall-time column elapsed_ms (off: reproducible output)\n"
       "Cases run in the command line's order (device, strategy, approx, direction, size); a case that\n"
       "cannot be planned is a row with status 'failed' and its reason.";
@@ -111,24 +113,24 @@ void bind_survey(py::module_& m) {
   m.def(
       "survey",
       [](const py::object& devices, const py::object& qubits, const py::object& approx, const py::object& inverse,
-         const py::object& strategy, std::uint64_t seed, int jobs, bool timing) {
+         const py::object& strategy, std::uint64_t seed, std::optional<int> jobs, bool timing) {
         const auto rows = run(devices, qubits, approx, inverse, strategy, seed, jobs);
         py::list out;
         for (const auto& r : rows) out.append(to_python(survey_row_to_json(r, timing_arg(timing))));
         return out;
       },
       py::arg("devices"), py::arg("qubits"), py::kw_only(), py::arg("approx") = "none", py::arg("inverse") = false,
-      py::arg("strategy") = "auto", py::arg("seed") = 1, py::arg("jobs") = 1, py::arg("timing") = false,
+      py::arg("strategy") = "auto", py::arg("seed") = 1, py::arg("jobs") = py::none(), py::arg("timing") = false,
       survey_doc.c_str());
   m.def(
       "survey_csv",
       [](const py::object& devices, const py::object& qubits, const py::object& approx, const py::object& inverse,
-         const py::object& strategy, std::uint64_t seed, int jobs, bool timing) {
+         const py::object& strategy, std::uint64_t seed, std::optional<int> jobs, bool timing) {
         const auto rows = run(devices, qubits, approx, inverse, strategy, seed, jobs);
         return survey_csv(rows, timing_arg(timing));
       },
       py::arg("devices"), py::arg("qubits"), py::kw_only(), py::arg("approx") = "none", py::arg("inverse") = false,
-      py::arg("strategy") = "auto", py::arg("seed") = 1, py::arg("jobs") = 1, py::arg("timing") = false,
+      py::arg("strategy") = "auto", py::arg("seed") = 1, py::arg("jobs") = py::none(), py::arg("timing") = false,
       csv_doc.c_str());
 }
 

@@ -126,3 +126,11 @@ def test_wrong_argument_types(qftplan):
         qftplan.plan(3.5, 3)
     with pytest.raises(TypeError):
         qftplan.plan("line:4", 3, approx=True)
+
+
+def test_time_limit_before_any_plan_raises_planning_error(qftplan, monkeypatch):
+    # The counting clock (DEVELOPERS.md) runs the limit out at its first reading, before a chain of 4400
+    # qubits can exist: the docstring's PlanningError, not a bare RuntimeError.
+    monkeypatch.setenv("QFTPLAN_TEST_CLOCK_TICK", "1")
+    with pytest.raises(qftplan.PlanningError, match="time limit"):
+        qftplan.plan("heavy-hex:30x30", 4400, time_limit=0.5, strategy="chain", circuit=False)

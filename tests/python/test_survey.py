@@ -62,3 +62,11 @@ def test_bad_survey_arguments(qftplan):
                                                    err.rstrip("\n"))
     with pytest.raises(qftplan.InputError):
         qftplan.survey("line:4", "3:x")
+
+
+def test_default_jobs_use_every_core_and_give_the_same_rows(qftplan):
+    # Like the command line, the module runs a survey on every core unless told; rows do not depend on it.
+    one = qftplan.survey(["line:6", "grid:*"], [3, 5], jobs=1)
+    assert qftplan.survey(["line:6", "grid:*"], [3, 5]) == one
+    with pytest.raises(qftplan.InputError, match="jobs"):
+        qftplan.survey("line:4", 3, jobs=0)
