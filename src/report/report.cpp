@@ -1,5 +1,8 @@
 #include "qftplan/report/report.hpp"
 
+#include <string>
+#include <string_view>
+
 #include <fmt/format.h>
 
 #include "qftplan/qasm/qasm_writer.hpp"
@@ -90,6 +93,17 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
 std::string report_to_json_text(const PlanReport& r) { return report_to_json(r).dump(2) + "\n"; }
 
 namespace {
+// "1 qubit", "35 qubits": a count with its noun in the right number.
+std::string count_of(long long n, std::string_view noun) {
+  return fmt::format("{} {}{}", n, noun, n == 1 ? "" : "s");
+}
+
+// "x2.24" against a reference figure; both zero (a 1-qubit register) compare as equal.
+std::string ratio_text(long long a, long long ref) {
+  if (ref == 0) return a == 0 ? "same" : "more";
+  return fmt::format("x{:.2f}", static_cast<double>(a) / static_cast<double>(ref));
+}
+
 std::string short_list(const std::vector<int>& v) {
   if (v.size() <= 16) return fmt::format("{}", fmt::join(v, " "));
   return fmt::format("{} ... {} ({} entries)", fmt::join(v.begin(), v.begin() + 8, " "),
@@ -100,14 +114,15 @@ std::string short_list(const std::vector<int>& v) {
 std::string format_plan_summary(const PlanReport& r) {
   QftSpec spec{r.qubits, r.approx_degree, r.inverse};
   std::string s;
-  s += fmt::format("{} on {} ({} qubits)\n", describe_transform(spec), r.device, r.device_qubits);
+  s += fmt::format("{} on {} ({})\n", describe_transform(spec), r.device, count_of(r.device_qubits, "qubit"));
   s += fmt::format("  strategy        {} ({} network)\n", r.strategy, r.network);
   s += fmt::format("  placement       {}\n", short_list(r.placement));
   s += fmt::format("  final placement {}\n", short_list(r.final_placement));
-  s += fmt::format("  blocks          {} two-qubit blocks, {} with a SWAP, {} rotations\n", r.two_qubit_blocks, r.swaps,
-                   r.rotations);
-  s += fmt::format("  depth           {} two-qubit layers, {} layers in all ({} gates)\n", r.depth_2q, r.depth, r.gates);
-  s += fmt::format("  native {}       {} gates in {} layers\n", r.native_2q, r.cx_count, r.cx_depth);
+  s += fmt::format("  blocks          {}, {} with a SWAP, {}\n", count_of(r.two_qubit_blocks, "two-qubit block"), r.swaps,
+                   count_of(r.rotations, "rotation"));
+  s += fmt::format("  depth           {}, {} in all ({} gates)\n", count_of(r.depth_2q, "two-qubit layer"),
+                   count_of(r.depth, "layer"), r.gates);
+  s += fmt::format("  native {}       {} in {}\n", r.native_2q, count_of(r.cx_count, "gate"), count_of(r.cx_depth, "layer"));
   if (r.calibrated) {
     s += fmt::format("  ESP             {:.4g} (gates), {:.4g} with idling over {:.0f} ns", r.noise.esp, r.noise.esp_with_idle,
                      r.noise.duration_ns);
@@ -124,9 +139,8 @@ std::string format_plan_summary(const PlanReport& r) {
   for (const auto& a : r.alternatives) {
     if (a.strategy == r.strategy) continue;
     if (a.ok)
-      s += fmt::format("  vs {:<12} {} CX (x{:.2f}), two-qubit depth {} (x{:.2f})\n", a.strategy, a.cx_count,
-                       double(a.cx_count) / std::max<long long>(1, r.cx_count), a.depth_2q,
-                       double(a.depth_2q) / std::max<long long>(1, r.depth_2q));
+      s += fmt::format("  vs {:<12} {} CX ({}), two-qubit depth {} ({})\n", a.strategy, a.cx_count,
+                       ratio_text(a.cx_count, r.cx_count), a.depth_2q, ratio_text(a.depth_2q, r.depth_2q));
     else
       s += fmt::format("  vs {:<12} {}\n", a.strategy, a.reason);
   }
