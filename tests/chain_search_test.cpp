@@ -242,3 +242,33 @@ TEST(Placement, WithinOnePercentOfEnumerationOnSmallChips) {
 
 }  // namespace
 }  // namespace qftplan
+
+namespace qftplan {
+namespace {
+
+// Issue 17's target where a chain exists: on defective, renumbered, position-free chips the automatic
+// plan at the longest chain, one below it and at 70% of it is a chain plan of at most n^2 - 1 CX (the
+// parity network's count; at most the n^2 + n - 4 of Park and Ahn, Scientific Reports 13, 8638, 2023,
+// abstract), and the longest chain is proved longest (one more qubit: no chain exists).
+TEST(ChainSearch, DefectiveChipsGetChainPlansUpToTheLongestChain) {
+  for (const std::string spec : {"heavy-hex:3x3", "heavy-hex:4x4", "grid:7x7"})
+    for (std::uint64_t seed = 1; seed <= 2; ++seed) {
+      const Device d = with_defects(make_lattice(spec), 2, 4, seed);
+      int longest = 0;
+      for (int n = d.qubit_count(); n >= 1 && longest == 0; --n)
+        if (!find_chain(d, n).chain.empty()) longest = n;
+      if (longest < d.qubit_count()) {
+        EXPECT_TRUE(find_chain(d, longest + 1).proved_none) << spec << " seed " << seed << " longest " << longest;
+      }
+      for (const int n : {longest, longest - 1, longest * 7 / 10}) {
+        PlanOptions opt;
+        opt.spec.qubits = n;
+        const PlanReport r = plan_qft(d, opt);
+        EXPECT_EQ(r.strategy, "chain") << spec << " seed " << seed << " n=" << n;
+        EXPECT_LE(r.cx_count, static_cast<long long>(n) * n - 1) << spec << " seed " << seed << " n=" << n;
+      }
+    }
+}
+
+}  // namespace
+}  // namespace qftplan
