@@ -244,3 +244,31 @@ TEST(LowerBounds, AreHonestAndTightOnALine) {
 
 }  // namespace
 }  // namespace qftplan
+
+namespace qftplan {
+namespace {
+
+// Issue 15, item 5: a named network is never replaced silently. Auto still shows the router's figures
+// beside it but keeps a strategy that runs the named network (on a line at degree 2 the router needs
+// far fewer CX than the parity network); naming a network for the routed strategy is refused.
+TEST(Strategies, NamedNetworkIsNeverReplacedSilently) {
+  const Device dev = make_line(12);
+  PlanOptions opt;
+  opt.spec.qubits = 12;
+  opt.spec.approx_degree = 2;
+  opt.network = NetworkChoice::parity;
+  const PlanReport r = plan_qft(dev, opt);
+  EXPECT_EQ(r.network, "parity");
+  EXPECT_EQ(r.strategy, "chain");
+  opt.strategy = "routed";
+  try {
+    plan_qft(dev, opt);
+    ADD_FAILURE() << "a named network with the routed strategy was accepted";
+  } catch (const SettingError& e) {
+    EXPECT_EQ(e.setting(), "network");
+    EXPECT_NE(std::string(e.what()).find("parity names a chain network"), std::string::npos) << e.what();
+  }
+}
+
+}  // namespace
+}  // namespace qftplan

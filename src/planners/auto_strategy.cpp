@@ -32,10 +32,12 @@ bool better(const StrategyOutcome& a, const StrategyOutcome& b, Objective o) {
 struct Candidate {
   PreparedPlan plan;
   std::size_t outcome;  // index in the outcomes
+  bool eligible;        // may be chosen: a named network is never replaced by a strategy without one
 };
 
 // Why strategy `name` is not tried, or empty when it is.
-std::string reason_to_skip(const std::string& name, const std::vector<Candidate>& prepared, const PlanOptions& options) {
+std::string reason_to_skip(const StrategyInfo& s, const std::vector<Candidate>& prepared, const PlanOptions& options) {
+  const std::string name = s.name;
   const bool chain_planned =
       std::any_of(prepared.begin(), prepared.end(), [](const Candidate& c) { return c.plan.strategy == "chain"; });
   // The spine is for registers no chain holds: when the chain strategy planned, it is not needed.
@@ -58,7 +60,7 @@ PreparedPlan prepare_auto(const Device& device, const PlanOptions& options) {
     if (std::string(s.name) == "auto") continue;
     StrategyOutcome o;
     o.strategy = s.name;
-    o.reason = reason_to_skip(s.name, prepared, options);
+    o.reason = reason_to_skip(s, prepared, options);
     if (!o.reason.empty()) {
       outcomes.push_back(o);
       continue;
@@ -74,7 +76,7 @@ PreparedPlan prepare_auto(const Device& device, const PlanOptions& options) {
       PreparedPlan p = s.prepare(device, options);
       o.ok = true;
       o.network = p.circuit->network_name();
-      prepared.push_back({std::move(p), outcomes.size()});
+      prepared.push_back({std::move(p), outcomes.size(), s.runs_networks || options.network == NetworkChoice::automatic});
     } catch (const PlanningError& e) {
       o.reason = e.what();
       if (first_error.empty()) first_error = e.what();
@@ -96,7 +98,13 @@ PreparedPlan prepare_auto(const Device& device, const PlanOptions& options) {
   // Several plans: stream each through the counters (no output) with the request's count settings and
   // keep the best by the objective; the figures are kept, so a report-only run does not stream the
   // chosen plan again. A single plan needs no comparison: execute_plan fills in its outcome.
-  std::size_t pick = 0;
+  // A named network (--network) is honoured: strategies without chain networks are compared, never chosen.
+  const auto first = std::find_if(prepared.begin(), prepared.end(), [](const Candidate& c) { return c.eligible; });
+  if (first == prepared.end())
+    throw PlanningError(fmt::format("no strategy that runs the {} network could plan this request ({})",
+                                    network_choice_name(options.network),
+                                    first_error.empty() ? "only strategies without chain networks could" : first_error));
+  std::size_t pick = static_cast<std::size_t>(first - prepared.begin());
   if (prepared.size() > 1) {
     for (std::size_t i = 0; i < prepared.size(); ++i) {
       PreparedPlan& p = prepared[i].plan;
@@ -108,7 +116,7 @@ PreparedPlan prepare_auto(const Device& device, const PlanOptions& options) {
       o.swaps = f->swaps;
       o.log_esp = f->noise.log_esp;
       p.counted = f;
-      if (i > 0 && better(o, outcomes[prepared[pick].outcome], options.objective)) pick = i;
+      if (prepared[i].eligible && i != pick && better(o, outcomes[prepared[pick].outcome], options.objective)) pick = i;
     }
   }
   PreparedPlan best = std::move(prepared[pick].plan);

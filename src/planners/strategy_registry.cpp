@@ -1,6 +1,8 @@
 // The table of planning strategies: dispatch, the --help text, the Python module and the one
 // "unknown strategy" error all come from it. A new strategy is one new file and one row here.
 
+#include <fmt/format.h>
+
 #include "qftplan/core/run_budget.hpp"
 #include "strategies.hpp"
 
@@ -14,12 +16,12 @@ PreparedPlan prepare_routed(const Device& device, const PlanOptions& options);
 
 const std::vector<StrategyInfo>& plan_strategies() {
   static const std::vector<StrategyInfo> table{
-      {"auto", "try every strategy that applies and keep the best by --objective", &prepare_auto, true},
+      {"auto", "try every strategy that applies and keep the best by --objective", &prepare_auto, true, true},
       {"chain", "a chain of n qubits carrying one of the networks of --network (needs a simple path of n qubits)",
-       &prepare_chain, true},
+       &prepare_chain, true, true},
       {"spine", "a main chain plus the qubits dangling off it as one line (heavy-hexagon, defective chips)",
-       &prepare_spine, false},
-      {"routed", "SWAP routing with look-ahead on any connected device; also the in-house baseline", &prepare_routed, false},
+       &prepare_spine, false, true},
+      {"routed", "SWAP routing with look-ahead on any connected device; also the in-house baseline", &prepare_routed, false, false},
   };
   return table;
 }
@@ -33,7 +35,13 @@ const StrategyInfo& find_strategy(const std::string& name) {
 }
 
 PreparedPlan prepare_plan(const Device& device, const PlanOptions& options) {
-  PreparedPlan p = find_strategy(options.strategy).prepare(device, options);
+  const StrategyInfo& s = find_strategy(options.strategy);
+  // A named network is never replaced silently by a strategy that builds its own circuit.
+  if (options.network != NetworkChoice::automatic && !s.runs_networks)
+    throw SettingError("network", fmt::format(" {} names a chain network, which the {} strategy does not use; plan "
+                                              "with a strategy that runs chain networks or leave the network to auto",
+                                              network_choice_name(options.network), s.name));
+  PreparedPlan p = s.prepare(device, options);
   throw_if_interrupted(options.budget);
   // A search that stopped at the deadline without saying so (it kept its best so far) still means
   // the time limit decided: report it, so the command line exits 3.

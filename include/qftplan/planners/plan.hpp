@@ -178,6 +178,7 @@ struct StrategyInfo {
   const char* description;
   PreparedPlan (*prepare)(const Device& device, const PlanOptions& options);
   bool takes_placement;  ///< accepts a pinned placement (PlanOptions::placement)
+  bool runs_networks;    ///< carries one of the chain networks (PlanOptions::network applies)
 };
 
 /// Every strategy, "auto" first. The same table drives dispatch, --help, the Python module and the
