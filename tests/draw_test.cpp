@@ -329,10 +329,11 @@ TEST(DrawPlan, EveryLoadedCouplerIsCountedAndBanded) {
       EXPECT_NE(legend.find("hop to a dangling qubit"), std::string::npos);
       // The coupler a detour steps over to reach the next spine qubit is on the main chain.
       std::set<int> dangling;
-      for (const auto& [a, b, via] : d.plan.detours) dangling.insert(a);
-      for (const auto& [a, b, via] : d.plan.detours)
-        if (!dangling.count(b))
-          EXPECT_TRUE(std::count(band.main.begin(), band.main.end(), d.dev.coupler_index(std::min(b, via), std::max(b, via))));
+      for (const Detour& t : d.plan.detours) dangling.insert(t.a);
+      for (const Detour& t : d.plan.detours)
+        if (!dangling.count(t.b))
+          EXPECT_TRUE(std::count(band.main.begin(), band.main.end(),
+                                 d.dev.coupler_index(std::min(t.b, t.via.back()), std::max(t.b, t.via.back()))));
     } else {
       EXPECT_TRUE(band.hops.empty());
       EXPECT_EQ(band.main.size(), d.plan.chain.size() - 1);

@@ -27,7 +27,7 @@ class LineCircuit final : public PlannedCircuit {
       return;
     }
     DetourSink detour(sink);
-    for (const auto& [a, b, via] : detours()) detour.add(a, b, via);
+    for (const Detour& d : detours()) detour.add(d);
     emit_chain_qft(spec(), *network_, region(), detour);
   }
 

@@ -1,7 +1,6 @@
-// The spine strategy: a main chain plus the qubits dangling one hop off it, read as one virtual line
-// (each dangling qubit right after the chain qubit it hangs from); the chain networks run on that
-// line, and a gate between line neighbours that are not coupled steps through the chain qubit both
-// hang from (swap, gate, swap). For registers that do not fit on one chain: heavy-hexagon lattices
+// The spine strategy: a main chain plus every other qubit in trees hanging from it, read as one
+// virtual line (spine_layout.cpp); the chain networks run on that line, and a gate between line
+// neighbours that are not coupled runs along a path of coupled qubits (SWAPs out, gate, SWAPs back). For registers that do not fit on one chain: heavy-hexagon lattices
 // (the setting of Gao, Jin, Guo, Chen and Zhang, arXiv:2402.09705, 2024) and defective chips.
 
 #include "qftplan/core/run_budget.hpp"
@@ -35,7 +34,8 @@ PreparedPlan prepare_spine(const Device& device, const PlanOptions& options) {
   if (options.auto_approx) spec.approx_degree.reset();
   validate_spec(device, spec);
   if (options.placement) throw SettingError("placement", " pins a chain; the spine strategy chooses its own line");
-  const SpineLayout layout = make_spine_layout(device, spec.qubits, options.search.seed, options.budget);
+  const SpineLayout layout = make_spine_layout(device, spec.qubits, options.search.seed, options.budget,
+                                                 options.objective == Objective::depth);
   throw_if_interrupted(options.budget);
   if (layout.detours.empty() || static_cast<int>(layout.spine.size()) >= spec.qubits)
     throw PlanningError("the register fits on one chain: the chain strategy covers it");

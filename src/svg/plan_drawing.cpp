@@ -64,8 +64,8 @@ ChainBand chain_band(const Device& device, const DrawnPlan& plan) {
   ChainBand band;
   if (plan.chain.size() < 2) return band;  // a routed plan has no line
   std::vector<bool> dangling(static_cast<std::size_t>(device.qubit_count()), false);
-  for (const auto& [a, b, via] : plan.detours)
-    if (a >= 0 && a < device.qubit_count()) dangling[a] = true;
+  for (const Detour& d : plan.detours)
+    if (d.a >= 0 && d.a < device.qubit_count()) dangling[d.a] = true;
   std::vector<bool> taken(static_cast<std::size_t>(device.coupler_count()), false);
   auto add = [&](int a, int b) {
     const int c = a >= 0 && b >= 0 ? device.coupler_index(std::min(a, b), std::max(a, b)) : -1;
@@ -75,8 +75,12 @@ ChainBand chain_band(const Device& device, const DrawnPlan& plan) {
   };
   for (std::size_t p = 0; p + 1 < plan.chain.size(); ++p)
     if (device.coupled(plan.chain[p], plan.chain[p + 1])) add(plan.chain[p], plan.chain[p + 1]);
-  // A gate between uncoupled line neighbours steps through the spine qubit both hang from.
-  for (const auto& [a, b, via] : plan.detours) add(a, via), add(via, b);
+  // A gate between uncoupled line neighbours steps along its detour path.
+  for (const Detour& d : plan.detours) {
+    int from = d.a;
+    for (int v : d.via) add(from, v), from = v;
+    add(from, d.b);
+  }
   std::sort(band.main.begin(), band.main.end());
   std::sort(band.hops.begin(), band.hops.end());
   return band;

@@ -14,13 +14,11 @@
 #include "qftplan/core/qft_spec.hpp"
 #include "qftplan/networks/chain_qft.hpp"
 #include "qftplan/networks/qft_network.hpp"
+#include "qftplan/sinks/detour_sink.hpp"
 
 namespace qftplan {
 
 struct RoutedCircuit;
-
-/// A detour: line neighbours `a` and `b` are not coupled, so their gates step through `via`.
-using Detour = std::array<int, 3>;
 
 /// A planned circuit. Implementations: a chain network on a line of qubits (make_line_circuit) and
 /// a routed gate list (make_gate_list_circuit).
@@ -59,7 +57,7 @@ class PlannedCircuit {
 };
 
 /// The chain network `network` run along `line` (line[p] = physical qubit at position p); gates
-/// between line neighbours listed in `detours` step through their `via` qubit.
+/// between line neighbours listed in `detours` run along their detour paths (sinks/detour_sink.hpp).
 std::shared_ptr<const PlannedCircuit> make_line_circuit(const QftSpec& spec, std::shared_ptr<const QftNetwork> network,
                                                         std::vector<int> line, std::vector<Detour> detours = {});
 

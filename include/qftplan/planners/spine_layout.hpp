@@ -1,29 +1,33 @@
 #pragma once
 /// \file spine_layout.hpp
-/// A main chain (spine) with dangling qubits, read as one virtual line.
+/// A main chain (spine) with the other qubits hanging off it in trees, read as one virtual line.
 
-#include <array>
 #include <cstdint>
 #include <vector>
 
 #include "qftplan/device/device.hpp"
+#include "qftplan/sinks/detour_sink.hpp"
 
 namespace qftplan {
 
 class RunBudget;
 
 /// A virtual line over the device: `line[p]` is a physical qubit; consecutive entries are either
-/// coupled or both coupled to a spine qubit listed in `detours` as (a, b, via).
+/// coupled or joined by a path of coupled qubits listed in `detours`.
 struct SpineLayout {
   std::vector<int> spine;                      ///< the main chain
-  std::vector<int> line;                       ///< spine qubits, each followed by its dangling qubits
-  std::vector<std::array<int, 3>> detours;     ///< uncoupled neighbours on the line and their via qubit
+  std::vector<int> line;                       ///< spine qubits, each followed by the trees hanging from it
+  std::vector<Detour> detours;                 ///< uncoupled neighbours on the line and the path joining them
 };
 
-/// Builds the layout: the longest chain found in the largest component, then every qubit one hop
-/// off the chain inserted after the chain qubit it hangs from. Truncated to `n` qubits; throws
-/// PlanningError when fewer than `n` qubits are within one hop of the spine.
-/// `budget` (may be null) bounds the chain search; out of time, the longest chain so far is the spine.
-SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, const RunBudget* budget = nullptr);
+/// Builds the layout from the graph alone (no positions, any numbering): a long chain grown in the
+/// largest connected piece, then every other qubit of that piece in a tree hanging from the chain
+/// qubit nearest to it, each tree visited depth first right after its chain qubit. Truncated to `n`
+/// qubits; throws PlanningError when the piece has fewer than `n` qubits. `budget` (may be null)
+/// bounds the chain's growth; out of time, the longest chain so far is the spine. Deterministic for a seed.
+/// The trees are read in place or, for fewer CX, partly gathered at the line's end where detours are
+/// cheap; `in_place` keeps them in place, whose short detours keep the depth linear (more CX).
+SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, const RunBudget* budget = nullptr,
+                              bool in_place = false);
 
 }  // namespace qftplan

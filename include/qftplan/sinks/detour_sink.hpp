@@ -1,23 +1,31 @@
 #pragma once
 /// \file detour_sink.hpp
-/// Runs two-qubit gates between uncoupled qubits through a common neighbour.
+/// Runs two-qubit gates between uncoupled qubits along a path of coupled ones.
 
-#include <map>
-#include <utility>
+#include <vector>
 
 #include "qftplan/core/gate.hpp"
 
 namespace qftplan {
 
-/// Forwards gates; a two-qubit gate on a pair with a registered detour qubit v becomes
-/// swap(a, v); gate(v, b); swap(a, v), which has the same effect on the data and leaves v's
-/// content where it was.
+/// A detour: `a` and `b` are not coupled, so their gates run along the path a, via[0], ..., via.back(), b
+/// (consecutive qubits coupled). `a` is the end that steps aside.
+struct Detour {
+  int a = -1;              ///< the end that moves along the path
+  int b = -1;              ///< the end that stays
+  std::vector<int> via;    ///< the qubits between them, from a's side (at least one)
+  bool operator==(const Detour&) const = default;
+};
+
+/// Forwards gates; a two-qubit gate on a pair with a registered detour a, v1, ..., vk, b becomes
+/// swap(a, v1), swap(v1, v2), ..., swap(v(k-1), vk); the gate on (vk, b); then the same SWAPs in reverse
+/// order. The SWAPs carry a's content to vk and back, and the reversed sequence returns every qubit of
+/// the path to what it held, so the data sees exactly the gate on (a, b).
 class DetourSink final : public GateSink {
  public:
   explicit DetourSink(GateSink& out) : out_(out) {}
-  /// Gates between `a` and `b` go through `via` (which must be coupled to both). `a` is the end
-  /// that steps aside.
-  void add(int a, int b, int via) { detours_[{std::min(a, b), std::max(a, b)}] = {a, via}; }
+  /// Gates between `d.a` and `d.b` go along `d` (every step must be a coupler; `d.via` not empty).
+  void add(Detour d);
   void gate(const Gate& g) override { batch({&g, 1}); }
   void batch(std::span<const Gate> run) override;
   void finish() override { out_.out().finish(); }
@@ -25,8 +33,10 @@ class DetourSink final : public GateSink {
 
  private:
   void rewrite(const Gate& g);
+  const Detour* find(int x, int y) const;
   GateRun out_;
-  std::map<std::pair<int, int>, std::pair<int, int>> detours_;  // pair -> (end that steps aside, via)
+  std::vector<Detour> detours_;
+  std::vector<std::vector<int>> by_qubit_;  // qubit -> indices of the detours it ends (a line qubit ends at most two)
 };
 
 }  // namespace qftplan

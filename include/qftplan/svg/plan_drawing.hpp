@@ -23,7 +23,7 @@ struct DrawnPlan {
   std::string method;                     ///< such as "chain strategy, reversal network"
   std::string strategy;                   ///< the report's strategy (chain, spine, routed)
   std::vector<int> chain;                 ///< the report's chain (a spine plan's virtual line; unused when routed)
-  std::vector<std::array<int, 3>> detours;  ///< spine plans: (a, b, via) for line neighbours a, b not coupled
+  std::vector<Detour> detours;  ///< spine plans: the paths joining line neighbours a, b that are not coupled
   std::vector<int> placement;             ///< physical qubit holding input bit k at the start
   std::vector<int> final_placement;       ///< physical qubit holding output bit k at the end
   std::vector<long long> coupler_blocks;  ///< two-qubit blocks on each coupler, indexed like couplers()
