@@ -218,7 +218,7 @@ TEST(Registry, UnknownStrategyListsTheValidOnes) {
     plan_qft(make_line(4), opt);
     FAIL();
   } catch (const InputError& e) {
-    EXPECT_STREQ(e.what(), "unknown strategy 'nosuch' (valid: auto, chain, spine, routed)");
+    EXPECT_STREQ(e.what(), "unknown strategy 'nosuch' (valid: auto, chain, spine, cover, routed)");
   }
   const auto r = testing::run_qftplan("plan --help");
   for (const auto& s : plan_strategies()) EXPECT_NE(r.out.find(std::string(s.name) + ": "), std::string::npos) << s.name;

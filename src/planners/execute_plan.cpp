@@ -66,6 +66,8 @@ PlanReport assemble_report(const Device& device, const PlanOptions& options, con
   r.end_order = end_order_name(options.end_order);
   r.end_swaps = plan.end_swaps;
   r.seed = options.search.seed;
+  r.cx_bound = plan.cx_bound;
+  if (plan.cx_bound && *plan.cx_bound > 0) r.cx_bound_ratio = double(r.cx_count) / double(*plan.cx_bound);
   return r;
 }
 

@@ -38,15 +38,18 @@ class LineCircuit final : public PlannedCircuit {
 // A gate list made by the router.
 class GateListCircuit final : public PlannedCircuit {
  public:
-  GateListCircuit(const QftSpec& spec, RoutedCircuit c)
-      : PlannedCircuit(spec, std::move(c.maps), std::move(c.region), {}), gates_(std::move(c.gates)) {}
+  GateListCircuit(const QftSpec& spec, RoutedCircuit c, std::string network)
+      : PlannedCircuit(spec, std::move(c.maps), std::move(c.region), {}),
+        gates_(std::move(c.gates)),
+        network_(std::move(network)) {}
 
-  std::string network_name() const override { return "routed"; }
+  std::string network_name() const override { return network_; }
   bool region_is_line() const override { return false; }
   void emit(GateSink& sink) const override { sink.batch(gates_); }
 
  private:
   std::vector<Gate> gates_;
+  std::string network_;
 };
 
 }  // namespace
@@ -56,8 +59,9 @@ std::shared_ptr<const PlannedCircuit> make_line_circuit(const QftSpec& spec, std
   return std::make_shared<LineCircuit>(spec, std::move(network), std::move(line), std::move(detours));
 }
 
-std::shared_ptr<const PlannedCircuit> make_gate_list_circuit(const QftSpec& spec, RoutedCircuit circuit) {
-  return std::make_shared<GateListCircuit>(spec, std::move(circuit));
+std::shared_ptr<const PlannedCircuit> make_gate_list_circuit(const QftSpec& spec, RoutedCircuit circuit,
+                                                             std::string network) {
+  return std::make_shared<GateListCircuit>(spec, std::move(circuit), std::move(network));
 }
 
 }  // namespace qftplan

@@ -12,6 +12,7 @@ namespace qftplan {
 PreparedPlan prepare_auto(const Device& device, const PlanOptions& options);
 PreparedPlan prepare_chain(const Device& device, const PlanOptions& options);
 PreparedPlan prepare_spine(const Device& device, const PlanOptions& options);
+PreparedPlan prepare_cover(const Device& device, const PlanOptions& options);
 PreparedPlan prepare_routed(const Device& device, const PlanOptions& options);
 
 const std::vector<StrategyInfo>& plan_strategies() {
@@ -21,6 +22,8 @@ const std::vector<StrategyInfo>& plan_strategies() {
        &prepare_chain, true, true},
       {"spine", "a main chain plus the qubits dangling off it as one line (heavy-hexagon, defective chips)",
        &prepare_spine, false, true},
+      {"cover", "a cascade of walks, one per wire, on any connected region, with a proved CX bound (arXiv:2510.09824)",
+       &prepare_cover, false, false},
       {"routed", "SWAP routing with look-ahead on any connected device; also the in-house baseline", &prepare_routed, false, false},
   };
   return table;

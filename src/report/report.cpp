@@ -42,6 +42,8 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
   j["seed"] = r.seed;
   j["cx_count"] = r.cx_count;
   j["cx_depth"] = r.cx_depth;
+  j["cx_bound"] = r.cx_bound ? nlohmann::ordered_json(*r.cx_bound) : nlohmann::ordered_json(nullptr);
+  j["cx_bound_ratio"] = r.cx_bound_ratio ? nlohmann::ordered_json(*r.cx_bound_ratio) : nlohmann::ordered_json(nullptr);
   j["gate_counts"] = r.gate_counts;
   j["esp"] = r.noise.esp;
   j["log_esp"] = r.noise.log_esp;

@@ -131,6 +131,9 @@ struct PreparedPlan {
   /// Figures already counted while choosing (--strategy auto), with the request's count settings:
   /// a run without output reports them instead of streaming the circuit again.
   std::shared_ptr<const CircuitFigures> counted;
+  /// The strategy's proved bound on the circuit's native two-qubit gates (cp 2, swap and cp_swap 3);
+  /// absent when the strategy proves none.
+  std::optional<long long> cx_bound;
 };
 
 /// Figures of a planned circuit (the JSON report; README "Report fields" documents each).
@@ -170,6 +173,8 @@ struct PlanReport {
   std::string end_order = "free";      ///< end-order policy: "free" or "same"
   long long end_swaps = 0;             ///< SWAPs added to restore the order (in swaps and cx_count too)
   std::uint64_t seed = 1;              ///< --seed of the searches (re-planning with it gives this plan)
+  std::optional<long long> cx_bound;   ///< the strategy's proved bound on cx_count (absent: none)
+  std::optional<double> cx_bound_ratio;  ///< cx_count / cx_bound (absent with the bound or when it is 0)
 };
 
 /// A planning strategy: its name (as given to --strategy), a one-line description, and its entry.

@@ -61,7 +61,8 @@ class PlannedCircuit {
 std::shared_ptr<const PlannedCircuit> make_line_circuit(const QftSpec& spec, std::shared_ptr<const QftNetwork> network,
                                                         std::vector<int> line, std::vector<Detour> detours = {});
 
-/// A routed gate list with its maps (the routed strategy).
-std::shared_ptr<const PlannedCircuit> make_gate_list_circuit(const QftSpec& spec, RoutedCircuit circuit);
+/// A gate list with its maps (the routed and cover strategies); `network` is the name the report gives.
+std::shared_ptr<const PlannedCircuit> make_gate_list_circuit(const QftSpec& spec, RoutedCircuit circuit,
+                                                             std::string network = "routed");
 
 }  // namespace qftplan

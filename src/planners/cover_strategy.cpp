@@ -1,0 +1,69 @@
+// The cover strategy: a cascade of walks on any connected set of qubits with a proved CX bound
+// (cover_walk.cpp has the construction, its source and the proof), after Khadiev, Khadieva,
+// Sagitov, Khasanov, "Quantum Circuit for Quantum Fourier Transform for Arbitrary Qubit
+// Connectivity Graphs", arXiv:2510.09824, 2025.
+
+#include <fmt/format.h>
+
+#include "cover_walk.hpp"
+#include "qftplan/core/run_budget.hpp"
+#include "strategies.hpp"
+
+namespace qftplan {
+
+namespace {
+
+// Largest register: the gate list is held in memory (about 1.5 n^2 gates).
+constexpr int kCoverMaxQubits = 2048;
+
+// The cheapest cascade over the root candidates (ties: the first).
+RoutedCircuit cheapest_cascade(const Device& device, const QftSpec& spec, const CoverRegion& region,
+                               const PlanOptions& options) {
+  RoutedCircuit best;
+  long long best_cx = -1;
+  for (int root : region.roots) {
+    long long cx = 0;
+    RoutedCircuit c = build_cover_qft(device, spec, region.qubits, root, options.search.seed, options.budget, &cx);
+    if (best_cx < 0 || cx < best_cx) best = std::move(c), best_cx = cx;
+  }
+  return best;
+}
+
+}  // namespace
+
+PreparedPlan prepare_cover(const Device& device, const PlanOptions& options) {
+  PreparedPlan plan = start_plan(device, options, "cover");
+  if (options.placement)
+    throw SettingError("placement", " pins a chain; the cover strategy chooses its own region");
+  if (plan.spec.qubits > kCoverMaxQubits)
+    throw PlanningError(fmt::format("the cover strategy plans registers of at most {} qubits", kCoverMaxQubits));
+  const CoverRegion region = cover_region(device, plan.spec.qubits, options.search.seed, options.budget);
+  if (options.auto_approx) {
+    // Each degree is scored on the circuit it gives (the walks do not depend on the degree).
+    const auto cost = [&](std::optional<int> degree) {
+      QftSpec s = plan.spec;
+      s.approx_degree = degree;
+      const auto c = make_gate_list_circuit(s, cheapest_cascade(device, s, region, options), "cover");
+      const CircuitFigures f = count_circuit(device, *c, {gate_set_of(device.native_2q())}, nullptr);
+      return DegreeCost{f.noise.log_esp, f.cx_count};
+    };
+    bool cut = false;
+    plan.degree_choice = choose_degree(plan.spec.qubits, true, cost, &cut);
+    if (cut) note_cut_short(plan, "the approximation-degree scoring");
+    plan.spec.approx_degree = plan.degree_choice->chosen;
+  }
+  RoutedCircuit circuit = cheapest_cascade(device, plan.spec, region, options);
+  // The bound covers the cascade; SWAPs that restore the order are outside it (no bound claimed).
+  if (options.end_order == EndOrder::same) {
+    plan.end_swaps = restore_order(device, circuit.gates, circuit.maps);
+  } else {
+    plan.cx_bound = cover_cx_bound(plan.spec.qubits);
+  }
+  plan.circuit = make_gate_list_circuit(plan.spec, std::move(circuit), "cover");
+  plan.maps = plan.circuit->maps();
+  plan.placement.method = "cover";
+  plan.placement.chains_scored = 0;
+  return plan;
+}
+
+}  // namespace qftplan

@@ -1,0 +1,319 @@
+// The cover construction: the QFT on any connected set of qubits as a cascade of walks.
+//
+// Source: the cascade of walks follows Khadiev, Khadieva, Sagitov, Khasanov, "Quantum Circuit for
+// Quantum Fourier Transform for Arbitrary Qubit Connectivity Graphs", arXiv:2510.09824, 2025: wire i
+// (after its Hadamard) travels through the device, meeting every unfinished wire once, and stops on a
+// qubit whose removal leaves the rest connected. Their covering paths and their bound
+// (2n^2 - 2n - 2 CNOT) are theirs; the walk below (a fixed root, a path plus a forest chosen greedily
+// per stage, fusing each first meeting with the move) and the weaker bound proved here are ours.
+//
+// The construction. A root qubit s of the region never moves out of the register. Stage k (m wires
+// still unfinished, all on `alive` qubits, a connected set): the wire on s is declared wire k (the
+// numbering is fixed by simulation, so wire k is whichever wire the earlier walks left on s); it gets
+// its Hadamard, then walks: a path s = p0, p1, ..., pd = t of alive qubits (d >= 1) and a forest F of
+// the other alive qubits hanging from p0 .. p(d-1). At p_i it visits each forest child c: a forest
+// leaf gets cp (the wire stays); an inner forest qubit gets cp_swap (the wire steps onto c, meeting
+// c's wire), its children are visited from there, and a swap brings the wire back (c's wire returns
+// to c). Then cp_swap(p_i, p_{i+1}) meets p_{i+1}'s wire and steps on. The wire parks on t; t holds
+// no forest child, so alive minus t stays connected (the path minus t plus F is a spanning tree of
+// it), and the wire of p1 now sits on s for stage k+1. With two wires left a cp ends the job.
+// Every pair (k, j > k) meets exactly once, in stage k: after the Hadamard of k and before that of
+// j, so the circuit is the QFT (the structural checker proves each plan in the tests).
+//
+// The bound (ours). Stage cost, cp = 2 CX, swap = cp_swap = 3 CX: 3d + 2 per forest leaf + 6 per
+// inner forest qubit. With m >= 3 alive: if F is empty the cost is 3(m-1); else F has at least one
+// leaf, so the cost is at most 3d + 6(m-1-d) - 4 <= 6m - 13 (d >= 1). So a stage costs at most 6 at
+// m = 3 and at most 6m - 13 for m >= 4 (3(m-1) <= 6m - 13 there), and the last pair costs 2:
+// total <= 2 + 6 + sum_{m=4..n} (6m - 13) = 3n^2 - 10n + 11 for n >= 3. Dropped rotations (the
+// approximate QFT) only turn a cp into nothing and a cp_swap into a swap, which costs no more.
+// On chips the greedy path takes most qubits and the forest is mostly leaves, so plans land far
+// below this bound (README "Strategies" has the figures).
+
+#include "cover_walk.hpp"
+
+#include <algorithm>
+#include <limits>
+#include <random>
+
+#include <fmt/format.h>
+
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/core/run_budget.hpp"
+#include "qftplan/planners/chain_search.hpp"
+
+namespace qftplan {
+
+namespace {
+
+// One gate of the walk on physical qubits, with the wires (slots: start indices in the region) it
+// joins; the angle is filled in once every slot has its wire number.
+struct Step {
+  GateKind kind;
+  int a, b;
+  int token, partner;
+};
+
+// A stage's walk: the path and the forest parent's children (by physical qubit).
+struct Walk {
+  std::vector<int> path;
+  long long cost = std::numeric_limits<long long>::max();
+};
+
+class Cascade {
+ public:
+  Cascade(const Device& dev, const std::vector<int>& region, int root, std::uint64_t seed, const RunBudget* budget)
+      : dev_(dev), region_(region), root_(root), rng_(seed), budget_(budget) {
+    const int N = dev.qubit_count();
+    alive_.assign(N, 0);
+    slot_at_.assign(N, -1);
+    level_.assign(N, -1);
+    children_.assign(N, {});
+    mark_.assign(N, 0);
+    for (int s = 0; s < static_cast<int>(region.size()); ++s) {
+      alive_[region[s]] = 1;
+      slot_at_[region[s]] = s;
+    }
+    pos_of_ = region;
+  }
+
+  // Runs every stage; returns the steps and fills wire_of_slot_.
+  void run() {
+    const int n = static_cast<int>(region_.size());
+    wire_of_slot_.assign(n, -1);
+    std::vector<int> previous;
+    for (int k = 0, m = n; m >= 1; ++k, --m) {
+      throw_if_exhausted(budget_, "the cover strategy's walks");
+      const int token = slot_at_[root_];
+      wire_of_slot_[token] = k;
+      steps_.push_back({GateKind::h, root_, -1, token, -1});
+      if (m == 1) break;
+      if (m == 2) {
+        int other = -1;
+        for (int nb : dev_.neighbours(root_))
+          if (alive_[nb]) other = nb;
+        step(GateKind::cp, root_, other);
+        wire_of_slot_[slot_at_[other]] = k + 1;
+        steps_.push_back({GateKind::h, other, -1, slot_at_[other], -1});
+        break;
+      }
+      previous = walk_stage(previous);
+    }
+  }
+
+  std::vector<Step> steps_;
+  std::vector<int> wire_of_slot_;
+  std::vector<int> pos_of_;  // slot -> physical qubit now
+
+ private:
+  // Records a two-qubit step and moves the wires a swap moves.
+  void step(GateKind kind, int a, int b) {
+    steps_.push_back({kind, a, b, slot_at_[a], slot_at_[b]});
+    if (kind == GateKind::cp) return;
+    std::swap(slot_at_[a], slot_at_[b]);
+    pos_of_[slot_at_[a]] = a;
+    pos_of_[slot_at_[b]] = b;
+  }
+
+  // A maximal greedy path from `start` (alive qubits), extending `prefix` (which begins at the root):
+  // the next qubit is the free neighbour with the fewest free neighbours (Warnsdorff's rule), ties
+  // at random. Maximal, so its end has no free neighbour and removing it keeps the rest connected.
+  std::vector<int> greedy_path(std::vector<int> path, bool random_ties) {
+    ++stamp_;
+    for (int q : path) mark_[q] = stamp_;
+    while (true) {
+      const int cur = path.back();
+      int best = -1, best_free = 0, ties = 0;
+      for (int nb : dev_.neighbours(cur)) {
+        if (!alive_[nb] || mark_[nb] == stamp_) continue;
+        int free = 0;
+        for (int x : dev_.neighbours(nb)) free += alive_[x] && mark_[x] != stamp_;
+        if (best < 0 || free < best_free) {
+          best = nb, best_free = free, ties = 1;
+        } else if (free == best_free && random_ties && std::uniform_int_distribution<int>(0, ties++)(rng_) == 0) {
+          best = nb;
+        }
+      }
+      if (best < 0) return path;
+      mark_[best] = stamp_;
+      path.push_back(best);
+    }
+  }
+
+  // The forest of the alive qubits off `path`, hanging from path[0 .. d-1] by breadth-first levels;
+  // a qubit two or more levels out prefers a parent that already has children (fewer inner qubits,
+  // each of which costs a return swap). Returns the stage's CX cost, or max() when some qubit is
+  // reachable only through the path's end (then the end cannot park).
+  long long build_forest(const std::vector<int>& path) {
+    for (int q : touched_) children_[q].clear(), level_[q] = -1;
+    touched_.clear();
+    const int t = path.back();
+    std::vector<int> order;
+    for (std::size_t i = 0; i + 1 < path.size(); ++i) level_[path[i]] = 0, order.push_back(path[i]);
+    level_[t] = 0;
+    for (int q : path) touched_.push_back(q);
+    std::vector<int> parent_of;
+    for (std::size_t h = 0; h < order.size(); ++h)
+      for (int nb : dev_.neighbours(order[h]))
+        if (alive_[nb] && level_[nb] < 0) {
+          level_[nb] = level_[order[h]] + 1;
+          order.push_back(nb);
+          touched_.push_back(nb);
+        }
+    long long cost = 3 * static_cast<long long>(path.size() - 1);
+    long long reached = static_cast<long long>(path.size());
+    for (int v : order) {
+      if (level_[v] == 0) continue;
+      ++reached;
+      int parent = -1;
+      for (int nb : dev_.neighbours(v))
+        if (alive_[nb] && nb != t && level_[nb] == level_[v] - 1 && (parent < 0 || !children_[nb].empty())) {
+          parent = nb;
+          if (!children_[nb].empty()) break;
+        }
+      children_[parent].push_back(v);
+    }
+    if (reached != alive_count_) return std::numeric_limits<long long>::max();
+    for (int v : order)
+      if (level_[v] > 0) cost += children_[v].empty() ? 2 : 6;
+    return cost;
+  }
+
+  // Emits the visit of forest qubit c from u (the walking wire is on u).
+  void visit(int c, int u) {
+    if (children_[c].empty()) {
+      step(GateKind::cp, u, c);
+      return;
+    }
+    step(GateKind::cp_swap, u, c);
+    const std::vector<int> kids = children_[c];
+    for (int g : kids) visit(g, c);
+    step(GateKind::swap, c, u);
+  }
+
+  // One stage with m >= 3 alive qubits: the cheapest of a few candidate walks (the last stage's path
+  // without its end, extended; greedy paths with and without random ties), emitted. Returns its path.
+  std::vector<int> walk_stage(const std::vector<int>& previous) {
+    alive_count_ = 0;
+    for (int q : region_) alive_count_ += alive_[q];
+    std::vector<std::vector<int>> candidates;
+    if (previous.size() >= 3) candidates.push_back(greedy_path({previous.begin(), previous.end() - 1}, false));
+    candidates.push_back(greedy_path({root_}, false));
+    for (int r = 0; r < 2; ++r) candidates.push_back(greedy_path({root_}, true));
+    std::size_t best = 0;
+    long long best_cost = std::numeric_limits<long long>::max();
+    for (std::size_t i = 0; i < candidates.size(); ++i) {
+      const long long c = build_forest(candidates[i]);
+      if (c < best_cost) best_cost = c, best = i;
+    }
+    if (best_cost == std::numeric_limits<long long>::max())
+      throw PlanningError("the cover strategy found no walk (internal error: a maximal path always parks)");
+    const std::vector<int> path = candidates[best];
+    build_forest(path);
+    for (std::size_t i = 0; i + 1 < path.size(); ++i) {
+      const std::vector<int> kids = children_[path[i]];
+      for (int c : kids) visit(c, path[i]);
+      step(GateKind::cp_swap, path[i], path[i + 1]);
+    }
+    alive_[path.back()] = 0;
+    return path;
+  }
+
+  const Device& dev_;
+  std::vector<int> region_;
+  int root_;
+  std::mt19937_64 rng_;
+  const RunBudget* budget_;
+  std::vector<char> alive_;
+  std::vector<int> slot_at_, level_, mark_, touched_;
+  std::vector<std::vector<int>> children_;
+  int stamp_ = 0;
+  long long alive_count_ = 0;
+};
+
+}  // namespace
+
+CoverRegion cover_region(const Device& dev, int n, std::uint64_t seed, const RunBudget* budget) {
+  ChainSearchOptions cso;
+  cso.seed = seed;
+  cso.budget = budget;
+  cso.work_budget = 5'000'000;
+  const auto found = find_chain(dev, n, cso);
+  std::vector<int> chain = found.chain.empty() ? found.longest : found.chain;
+  if (chain.empty()) chain.push_back(0);
+  if (static_cast<int>(chain.size()) > n) chain.resize(n);
+  CoverRegion out;
+  out.roots.push_back(chain.front());
+  if (chain.size() > 1) out.roots.push_back(chain.back());
+  // The rest nearest first: the walks are cheapest when the forest off the long path is shallow.
+  std::vector<char> in(dev.qubit_count(), 0);
+  for (int q : chain) in[q] = 1;
+  out.qubits = chain;
+  for (std::size_t h = 0; h < out.qubits.size() && static_cast<int>(out.qubits.size()) < n; ++h)
+    for (int nb : dev.neighbours(out.qubits[h]))
+      if (!in[nb] && static_cast<int>(out.qubits.size()) < n) {
+        in[nb] = 1;
+        out.qubits.push_back(nb);
+      }
+  if (static_cast<int>(out.qubits.size()) < n)
+    throw PlanningError(fmt::format("the component of {} holding the register has only {} qubits, fewer than {}",
+                                    dev.name(), out.qubits.size(), n));
+  return out;
+}
+
+RoutedCircuit build_cover_qft(const Device& device, const QftSpec& spec, const std::vector<int>& region, int root,
+                              std::uint64_t seed, const RunBudget* budget, long long* cx_cost) {
+  const int n = spec.qubits;
+  Cascade cascade(device, region, root, seed, budget);
+  cascade.run();
+  RoutedCircuit c;
+  c.region = region;
+  long long cx = 0;
+  const int max_dist = spec.max_distance();
+  for (const Step& s : cascade.steps_) {
+    if (s.kind == GateKind::h) {
+      c.gates.push_back(make_gate(GateKind::h, s.a));
+      continue;
+    }
+    if (s.kind == GateKind::swap) {
+      c.gates.push_back(make_gate(GateKind::swap, s.a, s.b));
+      cx += 3;
+      continue;
+    }
+    // The walking wire has the lower number: its partner is unfinished.
+    const int dist = cascade.wire_of_slot_[s.partner] - cascade.wire_of_slot_[s.token];
+    const bool kept = dist <= max_dist;
+    if (s.kind == GateKind::cp) {
+      if (kept) c.gates.push_back(make_gate(GateKind::cp, s.a, s.b, spec.rotation(dist))), cx += 2;
+    } else {
+      c.gates.push_back(kept ? make_gate(GateKind::cp_swap, s.a, s.b, spec.rotation(dist))
+                             : make_gate(GateKind::swap, s.a, s.b));
+      cx += 3;
+    }
+  }
+  std::vector<int> slot_of_wire(n);
+  for (int s = 0; s < n; ++s) slot_of_wire[cascade.wire_of_slot_[s]] = s;
+  c.maps.placement.resize(n);
+  c.maps.final_placement.resize(n);
+  for (int k = 0; k < n; ++k) {
+    // Forward: input bit k starts on processing index n-1-k, output bit k ends on index k.
+    c.maps.placement[k] = region[slot_of_wire[n - 1 - k]];
+    c.maps.final_placement[k] = cascade.pos_of_[slot_of_wire[k]];
+  }
+  if (spec.inverse) {
+    // The inverse: the forward circuit backwards with negated angles (rotation() already negated
+    // them), so only the order and the maps turn around.
+    std::reverse(c.gates.begin(), c.gates.end());
+    std::swap(c.maps.placement, c.maps.final_placement);
+  }
+  if (cx_cost) *cx_cost = cx;
+  return c;
+}
+
+long long cover_cx_bound(int n) {
+  if (n <= 1) return 0;
+  if (n == 2) return 2;
+  const long long m = n;
+  return 3 * m * m - 10 * m + 11;
+}
+
+}  // namespace qftplan

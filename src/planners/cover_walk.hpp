@@ -1,0 +1,36 @@
+#pragma once
+// The cover construction (private to src/planners): the QFT on any connected set of qubits as a
+// cascade of walks, one per wire, each walk meeting every unfinished wire once. See cover_walk.cpp
+// for the construction and the proof of its CX bound.
+
+#include <cstdint>
+#include <vector>
+
+#include "qftplan/device/device.hpp"
+#include "qftplan/planners/routed_planner.hpp"
+
+namespace qftplan {
+
+class RunBudget;
+
+/// The register's qubits: the longest chain found (up to n), then the nearest qubits by
+/// breadth-first search from it; `region.front()` and the chain's other end are the root candidates.
+struct CoverRegion {
+  std::vector<int> qubits;  ///< n connected physical qubits
+  std::vector<int> roots;   ///< where the walks may start (one or two chain ends)
+};
+
+/// Chooses the region; PlanningError when the component holding it has fewer than n qubits.
+CoverRegion cover_region(const Device& device, int n, std::uint64_t seed, const RunBudget* budget);
+
+/// The forward-or-inverse QFT of `spec` on `region` with every walk starting at `root` (a region
+/// qubit); `seed` varies the tie-breaking of the walks. `cx_cost` receives the CX count of the
+/// construction (cp 2, swap 3, cp_swap 3).
+RoutedCircuit build_cover_qft(const Device& device, const QftSpec& spec, const std::vector<int>& region, int root,
+                              std::uint64_t seed, const RunBudget* budget, long long* cx_cost);
+
+/// The proved bound on the CX count of build_cover_qft for an n-qubit register (cp = 2 CX,
+/// swap = cp_swap = 3 CX): 0 for n <= 1, 2 for n = 2, 3n^2 - 10n + 11 for n >= 3.
+long long cover_cx_bound(int n);
+
+}  // namespace qftplan
