@@ -2,8 +2,10 @@
 
 #include <gtest/gtest.h>
 
+#include <array>
 #include <filesystem>
 #include <cmath>
+#include <limits>
 #include <numeric>
 #include <regex>
 #include <set>
@@ -13,6 +15,7 @@
 
 #include "qftplan/core/input_error.hpp"
 #include "qftplan/device/device_source.hpp"
+#include "qftplan/device/lattices.hpp"
 #include "qftplan/planners/plan.hpp"
 #include "qftplan/report/report.hpp"
 #include "qftplan/svg/plan_drawing.hpp"
@@ -138,6 +141,99 @@ TEST(DrawLayout, ComputedLayoutIsDeterministic) {
   for (int i = 0; i < 7; ++i)
     for (int k = i + 1; k < 7; ++k) EXPECT_GT(std::hypot(a[i].x - a[k].x, a[i].y - a[k].y), 0.2) << i << " " << k;
   std::filesystem::remove_all(dir);
+}
+
+// Proper crossings of two couplers that share no qubit, by the orientation test of two segments
+// (Cormen, Leiserson, Rivest and Stein, "Introduction to Algorithms", 3rd ed., 2009, section 33.1).
+long long coupler_crossings(const Device& dev, const std::vector<Point>& p) {
+  auto side = [](const Point& a, const Point& b, const Point& c) {
+    const double v = (b.x - a.x) * (c.y - a.y) - (b.y - a.y) * (c.x - a.x);
+    return v > 1e-12 ? 1 : v < -1e-12 ? -1 : 0;
+  };
+  long long n = 0;
+  const auto& cs = dev.couplers();
+  for (std::size_t i = 0; i < cs.size(); ++i)
+    for (std::size_t k = i + 1; k < cs.size(); ++k) {
+      const auto& a = cs[i];
+      const auto& b = cs[k];
+      if (a.a == b.a || a.a == b.b || a.b == b.a || a.b == b.b) continue;
+      if (side(p[a.a], p[a.b], p[b.a]) * side(p[a.a], p[a.b], p[b.b]) < 0 &&
+          side(p[b.a], p[b.b], p[a.a]) * side(p[b.a], p[b.b], p[a.b]) < 0)
+        ++n;
+    }
+  return n;
+}
+
+// The median coupler length of a layout.
+double median_coupler(const Device& dev, const std::vector<Point>& p) {
+  std::vector<double> len;
+  for (const auto& c : dev.couplers()) len.push_back(std::hypot(p[c.a].x - p[c.b].x, p[c.a].y - p[c.b].y));
+  std::nth_element(len.begin(), len.begin() + static_cast<long>(len.size() / 2), len.end());
+  return len[len.size() / 2];
+}
+
+// Position-free chips (as files of real chips come, with_defects drops the positions) of the two
+// planar families: heavy-hexagon and square grid, clean and with dead qubits and broken couplers.
+// Both families are planar (drawable without crossings, common practice), so a good layout has
+// few; the circles of the drawing never overlap, and no two qubits are nearer than half a coupler.
+TEST(DrawLayout, PositionFreeChipsGetFewCrossingsAndNoOverlaps) {
+  struct Case {
+    std::string spec;
+    int dead, broken;
+  };
+  const std::vector<Case> cases = {{"heavy-hex:3x3", 0, 0}, {"heavy-hex:4x5", 3, 4}, {"grid:8x8", 0, 0}, {"grid:9x7", 4, 3}};
+  for (const auto& c : cases) {
+    const Device dev = with_defects(make_lattice(c.spec), c.dead, c.broken, 7);
+    ASSERT_FALSE(has_all_positions(dev)) << c.spec;
+    const auto p = drawing_positions(dev);
+    const long long crossings = coupler_crossings(dev, p);
+    const double unit = median_coupler(dev, p), closest = closest_pair_distance(p);
+    std::printf("%s: %d qubits, %d couplers, %lld crossings, closest %.3f of a coupler\n", c.spec.c_str(), dev.qubit_count(),
+                dev.coupler_count(), crossings, closest / unit);
+    EXPECT_LE(crossings * 50, dev.coupler_count()) << c.spec;  // at most 2 % of the couplers
+    EXPECT_GE(closest, 0.5 * unit) << c.spec;
+    // The drawing: no two qubit circles overlap.
+    const std::string svg = draw_device_svg(dev, nullptr);
+    const auto qg = svg.substr(svg.find("<g id=\"qubits\">"));
+    const auto circles = testing::elements(qg.substr(0, qg.find("</g>")), "circle");
+    ASSERT_EQ(circles.size(), static_cast<std::size_t>(dev.qubit_count()));
+    std::vector<std::array<double, 3>> disc;  // cx, cy, r
+    for (const auto& e : circles) disc.push_back({testing::attr(e, "cx"), testing::attr(e, "cy"), testing::attr(e, "r")});
+    for (std::size_t i = 0; i < disc.size(); ++i)
+      for (std::size_t k = i + 1; k < disc.size(); ++k) {
+        const double d = std::hypot(disc[i][0] - disc[k][0], disc[i][1] - disc[k][1]);
+        ASSERT_GT(d, disc[i][2] + disc[k][2]) << c.spec << " " << i << " " << k;
+      }
+  }
+}
+
+// A crowded drawing (every qubit of heavy-hex:20x20 labelled, as with a register on most of the
+// chip): no placement label and no qubit enters the legend's column, whose left edge is the
+// leftmost mark of the legend.
+TEST(DrawPlan, NothingEntersTheLegend) {
+  const Device dev = make_lattice("heavy-hex:20x20");
+  DrawnPlan plan;
+  plan.title = "every qubit";
+  plan.method = "labels only";
+  plan.strategy = "chain";
+  for (int q = 0; q < dev.qubit_count(); ++q) plan.placement.push_back(q), plan.final_placement.push_back(dev.qubit_count() - 1 - q);
+  const std::string svg = draw_device_svg(dev, &plan);
+  auto group = [&](const std::string& id) {
+    const auto at = svg.find("<g id=\"" + id + "\">");
+    return at == std::string::npos ? std::string() : svg.substr(at, svg.find("</g>", at) - at);
+  };
+  const std::string legend = group("legend");
+  ASSERT_FALSE(legend.empty());
+  double legend_x0 = std::numeric_limits<double>::infinity();
+  for (const auto& t : testing::elements(legend, "text")) legend_x0 = std::min(legend_x0, testing::attr(t, "x"));
+  for (const auto& l : testing::elements(legend, "line")) legend_x0 = std::min(legend_x0, testing::attr(l, "x1"));
+  for (const auto& r : testing::elements(legend, "rect")) legend_x0 = std::min(legend_x0, testing::attr(r, "x"));
+  for (const auto& c : testing::elements(legend, "circle")) legend_x0 = std::min(legend_x0, testing::attr(c, "cx") - testing::attr(c, "r"));
+  ASSERT_TRUE(std::isfinite(legend_x0));
+  const auto boxes = testing::elements(group("placement"), "rect");
+  ASSERT_EQ(boxes.size(), static_cast<std::size_t>(dev.qubit_count()));
+  for (const auto& b : boxes) EXPECT_LT(testing::attr(b, "x") + testing::attr(b, "width"), legend_x0) << b;
+  for (const auto& c : testing::elements(group("qubits"), "circle")) EXPECT_LT(testing::attr(c, "cx") + testing::attr(c, "r"), legend_x0) << c;
 }
 
 TEST(DrawCommand, DrawsAPlanAndRefusesBadReports) {

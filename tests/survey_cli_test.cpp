@@ -10,6 +10,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "svg_probe.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {
@@ -196,11 +197,32 @@ TEST_F(SurveyRun, NoProgressWhenStandardErrorIsNotATerminal) { EXPECT_EQ(*err_, 
 
 TEST_F(SurveyRun, ChartsAreWellFormedAndNameEverySeries) {
   const std::string svg = read_file(*dir_ / "s.svg");
-  for (const std::string name : {"line:*", "grid:*", "heavy-hex:*", "harbor-noisy-20", "SWAPs against register size",
-                                 "Two-qubit depth against register size", "Estimated success probability"})
+  for (const std::string name : {"line:*", "grid:*", "heavy-hex:*", "harbor-noisy-20", "CX count (native two-qubit gates)",
+                                 "Native two-qubit depth against register size", "Estimated success probability"})
     EXPECT_NE(svg.find(name), std::string::npos) << name;
-  // Settings that vary are part of the series names.
-  EXPECT_NE(svg.find("grid:*, degree 3, inverse"), std::string::npos);
+  // Each setting (two degrees times two directions) has its own panel in each of the three groups,
+  // titled by the setting; the series are the device entries alone.
+  std::vector<std::string> group_svg;
+  for (std::size_t at = svg.find("<g class=\"chart-group\">"); at != std::string::npos; at = svg.find("<g class=\"chart-group\">", at + 1))
+    group_svg.push_back(svg.substr(at, svg.find("<g class=\"chart-group\">", at + 1) - at));
+  ASSERT_EQ(group_svg.size(), 3u);
+  for (const auto& g : group_svg) {
+    std::size_t panels = 0;
+    for (std::size_t at = g.find("<g class=\"chart\">"); at != std::string::npos; at = g.find("<g class=\"chart\">", at + 1)) ++panels;
+    EXPECT_EQ(panels, 4u);
+    for (const std::string setting : {">forward, exact<", ">inverse, exact<", ">forward, degree 3<", ">inverse, degree 3<"})
+      EXPECT_NE(g.find(setting), std::string::npos) << setting;
+    // The panels share their axes: every panel's y ticks read the same.
+    std::vector<std::string> yticks;
+    for (std::size_t at = g.find("<g class=\"y-ticks\">"); at != std::string::npos; at = g.find("<g class=\"y-ticks\">", at + 1)) {
+      std::string labels;
+      for (const auto& t : testing::elements(g.substr(at, g.find("</g>", at) - at), "text")) labels += testing::text_of(t) + " ";
+      yticks.push_back(labels);
+    }
+    ASSERT_EQ(yticks.size(), 4u);
+    for (const auto& y : yticks) EXPECT_EQ(y, yticks[0]);
+  }
+  EXPECT_EQ(svg.find("grid:*, degree 3, inverse"), std::string::npos);
   // An independent XML parser (libxml2's xmllint) accepts the file, when installed.
   if (std::filesystem::exists("/usr/bin/xmllint"))
     EXPECT_EQ(std::system(("/usr/bin/xmllint --noout " + quoted(*dir_ / "s.svg")).c_str()), 0);

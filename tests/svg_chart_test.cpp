@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <cmath>
 #include <filesystem>
+#include <map>
 #include <regex>
 #include <set>
 #include <sstream>
@@ -144,6 +145,8 @@ SurveyRow row(const std::string& series, int n, long long swaps, std::optional<d
   r.qubits = n;
   r.ok = true;
   r.swaps = swaps;
+  r.cx_count = 2 * swaps;
+  r.cx_depth = 2 * n;
   r.depth_2q = 2 * n - 3;
   r.lower_bound_depth_2q = n - 1;
   r.asked_approx = "none";
@@ -160,13 +163,16 @@ TEST(SurveyCharts, SeriesPerDeviceAndEspOnlyWhenCalibrated) {
   rows.back().ok = false;  // failed runs have no point
   const auto charts = survey_charts(rows);
   ASSERT_EQ(charts.size(), 3u);
-  EXPECT_EQ(charts[0].series.size(), 2u);
-  EXPECT_EQ(charts[0].series[1].points.size(), 2u);
-  ASSERT_EQ(charts[2].series.size(), 1u);         // ESP: only the calibrated device
-  EXPECT_EQ(charts[2].series[0].style, 1);          // keeps its colour from the other charts
-  EXPECT_TRUE(charts[2].log_y);
-  EXPECT_NEAR(charts[2].series[0].points[1].y, -800.0 / std::log(10.0), 1e-9);  // below double's range as esp
-  ASSERT_TRUE(charts[1].reference.has_value());
+  ASSERT_EQ(charts[0].panels.size(), 1u);  // one setting: one panel
+  EXPECT_EQ(charts[0].panels[0].series.size(), 2u);
+  EXPECT_EQ(charts[0].panels[0].series[1].points.size(), 2u);
+  EXPECT_EQ(charts[0].panels[0].series[1].points[1].y, 2.0 * 28);  // the rows' cx_count
+  EXPECT_EQ(charts[1].panels[0].series[1].points[1].y, 2.0 * 8);   // the rows' cx_depth
+  const auto& esp = charts[2].panels.at(0);
+  ASSERT_EQ(esp.series.size(), 1u);         // ESP: only the calibrated device
+  EXPECT_EQ(esp.series[0].style, 1);          // keeps its colour from the other charts
+  EXPECT_TRUE(esp.log_y);
+  EXPECT_NEAR(esp.series[0].points[1].y, -800.0 / std::log(10.0), 1e-9);  // below double's range as esp
   const std::string svg = survey_svg(rows);
   std::string why;
   EXPECT_TRUE(well_formed(svg, why)) << why;
@@ -294,7 +300,12 @@ TEST(SvgChart, WholeTicksForRegisterSizes) {
 
 // What the legend names is drawn: a bound known at one register size only is a short level dash.
 TEST(SvgChart, ReferenceOfOnePointIsDrawn) {
-  const std::string svg = survey_svg(survey_rows({"a", "b"}, {12}));
+  ChartSpec c;
+  c.series.push_back({"a", {{12, 30}}, 0});
+  c.reference = ChartSeries{"lower bound (n-1)", {{12, 11}}};
+  SvgDocument doc(900, kChartBaseHeight, "t");
+  draw_chart(doc, c, 0, 0, 900, kChartBaseHeight);
+  const std::string svg = doc.str();
   const auto ref = groups(svg, "<g class=\"reference\">");
   ASSERT_EQ(ref.size(), 1u);
   const auto dash = elements(ref[0], "line");
@@ -365,7 +376,8 @@ TEST(SurveyCharts, LegendListsEverySeries) {
   }
 }
 
-// Series with the same figures: their markers are set side by side, not on top of each other.
+// Series with the same figures: their markers sit at the same point, nested (the earlier series'
+// larger and painted first), so the later one does not hide the earlier.
 TEST(SurveyCharts, CoincidingPointsStayVisible) {
   ChartSpec c;
   c.series.push_back({"first", {{4, 10}, {8, 20}}, 0});    // style 0: a circle
@@ -377,11 +389,92 @@ TEST(SurveyCharts, CoincidingPointsStayVisible) {
   ASSERT_EQ(marks.size(), 1u);
   const auto circles = elements(marks[0], "circle");
   ASSERT_EQ(circles.size(), 4u);
-  for (std::size_t i = 0; i < circles.size(); ++i)
-    for (std::size_t k = i + 1; k < circles.size(); ++k) {
-      const double d = std::hypot(attr(circles[i], "cx") - attr(circles[k], "cx"), attr(circles[i], "cy") - attr(circles[k], "cy"));
-      EXPECT_GE(d, attr(circles[i], "r") + attr(circles[k], "r")) << circles[i] << " " << circles[k];
+  // Painted: both first-series circles (larger), then both second-series ones.
+  for (int i = 0; i < 2; ++i) {
+    EXPECT_EQ(attr(circles[i], "cx"), attr(circles[i + 2], "cx"));
+    EXPECT_EQ(attr(circles[i], "cy"), attr(circles[i + 2], "cy"));
+    EXPECT_NE(circles[i].find(series_colour(0)), std::string::npos);
+    EXPECT_NE(circles[i + 2].find(series_colour(15)), std::string::npos);
+    // A rim of the first series shows around the second's marker and its outline.
+    EXPECT_GE(attr(circles[i], "r") - attr(circles[i + 2], "r") - attr(circles[i + 2], "stroke-width"), 1.0);
+  }
+}
+
+// Every marker sits exactly at its register size: its centre is the x of that size's tick (the
+// axis mapping), whatever other series share the point; lines pass through the markers' centres.
+TEST(SvgChart, MarkersSitExactlyAtTheirX) {
+  ChartSpec c;
+  c.integer_x = true;
+  // Styles 0, 15 and 22 are all circles (8 colours cycle, the shape steps once per 8 series).
+  for (const int style : {0, 15, 22}) ASSERT_EQ(series_marker(static_cast<std::size_t>(style)), MarkerShape::circle);
+  c.series.push_back({"a", {{4, 10}, {8, 20}, {12, 30}}, 0});
+  c.series.push_back({"b", {{4, 10}, {8, 21}, {12, 60}}, 15});
+  c.series.push_back({"c", {{4, 10}, {8, 20}, {12, 45}}, 22});
+  SvgDocument doc(900, kChartBaseHeight, "t");
+  draw_chart(doc, c, 0, 0, 900, kChartBaseHeight);
+  const std::string svg = doc.str();
+  // The tick of value v: its label's x (anchored at the middle) and its grid line's x.
+  std::map<int, double> tick_x;
+  const auto xt = groups(svg, "<g class=\"x-ticks\">");
+  ASSERT_EQ(xt.size(), 1u);
+  for (const auto& t : elements(xt[0], "text")) tick_x[std::stoi(text_of(t))] = attr(t, "x");
+  for (const int n : {4, 8, 12}) ASSERT_TRUE(tick_x.count(n)) << n;
+  const auto circles = elements(groups(svg, "<g class=\"markers\">")[0], "circle");
+  ASSERT_EQ(circles.size(), 9u);
+  std::set<double> xs;
+  for (const auto& m : circles) {
+    const double x = attr(m, "cx");
+    xs.insert(x);
+    EXPECT_TRUE(x == tick_x[4] || x == tick_x[8] || x == tick_x[12]) << m;
+  }
+  EXPECT_EQ(xs.size(), 3u);
+  // Each series' line runs through the tick positions in order.
+  for (const auto& l : elements(groups(svg, "<g class=\"lines\">")[0], "polyline")) {
+    std::smatch m;
+    ASSERT_TRUE(std::regex_search(l, m, std::regex("points=\"([-0-9.]+),[-0-9.]+ ([-0-9.]+),[-0-9.]+ ([-0-9.]+),")));
+    EXPECT_EQ(std::stod(m[1]), tick_x[4]);
+    EXPECT_EQ(std::stod(m[2]), tick_x[8]);
+    EXPECT_EQ(std::stod(m[3]), tick_x[12]);
+  }
+}
+
+// A survey varying the direction and the degree: one panel per setting in every group, the
+// panels sharing both axes and the group one legend naming each device entry once.
+TEST(SurveyCharts, OnePanelPerSetting) {
+  std::vector<SurveyRow> rows;
+  for (const bool inverse : {false, true})
+    for (const std::string approx : {"none", "2", "4"})
+      for (const auto& r : survey_rows({"line:*", "grid:*"}, {6, 12, 18})) {
+        SurveyRow x = r;
+        x.inverse = inverse;
+        x.asked_approx = approx;
+        x.cx_count += inverse ? 7 : 0;
+        rows.push_back(x);
+      }
+  const auto charts = survey_charts(rows);
+  ASSERT_EQ(charts.size(), 3u);
+  for (const auto& g : charts) {
+    ASSERT_EQ(g.panels.size(), 6u);  // 2 directions x 3 degrees
+    std::set<std::string> titles;
+    for (const auto& p : g.panels) {
+      titles.insert(p.title);
+      ASSERT_EQ(p.series.size(), 2u);
+      EXPECT_EQ(p.series[0].name, "line:*");
+      EXPECT_EQ(p.series[1].style, 1);
+      ASSERT_TRUE(p.y_span && g.panels[0].y_span);
+      EXPECT_EQ(p.y_span->x, g.panels[0].y_span->x);
+      EXPECT_EQ(p.y_span->y, g.panels[0].y_span->y);
     }
+    EXPECT_EQ(titles.size(), 6u);
+    EXPECT_TRUE(titles.count("inverse, degree 2"));
+  }
+  const std::string svg = survey_svg(rows);
+  std::string why;
+  EXPECT_TRUE(well_formed(svg, why)) << why;
+  EXPECT_EQ(groups(svg, "<g class=\"chart\">").size(), 18u);
+  const auto legends = groups(svg, "<g class=\"legend\">");
+  ASSERT_EQ(legends.size(), 3u);
+  for (const auto& l : legends) EXPECT_EQ(elements(l, "text").size(), 2u);
 }
 
 // A centred text rendered by an independent renderer (librsvg's rsvg-convert): the ink of the

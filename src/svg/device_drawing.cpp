@@ -66,6 +66,8 @@ DrawingFrame frame_drawing(const Device& device, const Heading& heading, bool wi
   if (extent > 1800) fr.scale *= 1800 / extent;
   fr.unit_px = fr.unit * fr.scale;
   fr.node_r = std::clamp(fr.unit_px * 0.19, 2.5, 13.0);
+  // Never two circles over each other: at most 45 % of the closest pair's distance.
+  fr.node_r = std::min(fr.node_r, 0.45 * closest_pair_distance(pos) * fr.scale);
   const double pad = std::max(46.0, fr.unit_px * 0.75);
   fr.head = with_plan ? 96 : 78;
   fr.legend_w = 250;

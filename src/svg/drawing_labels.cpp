@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <iterator>
 #include <limits>
 #include <numbers>
 #include <string>
@@ -197,6 +198,17 @@ std::vector<Spot> candidate_spots(const Label& l, const Surroundings& s) {
                         turn / std::numbers::pi;
       spots.push_back(spot);
     }
+  // The legend's column is the legend's alone: a spot reaching into it is no spot at all, however
+  // crowded the drawing (a clash elsewhere only costs). Should every spot reach in (a label wider
+  // than the margin), the spots are moved left of it.
+  const double legend_x0 = fr.width - fr.legend_w;
+  std::vector<Spot> clear;
+  std::copy_if(spots.begin(), spots.end(), std::back_inserter(clear), [&](const Spot& sp) { return sp.box.x1 <= legend_x0; });
+  if (!clear.empty()) return clear;
+  for (auto& sp : spots) {
+    const double shift = sp.box.x1 - legend_x0;
+    sp.box.x0 -= shift, sp.box.x1 -= shift, sp.ring = kRings;  // far from its qubit: a leader line
+  }
   return spots;
 }
 

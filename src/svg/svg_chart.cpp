@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <set>
 #include <tuple>
 
 #include <fmt/format.h>
@@ -74,15 +75,16 @@ std::vector<std::string> legend_names(const ChartSpec& c) {
   return names;
 }
 
-LegendLayout legend_layout(const ChartSpec& c, double w) {
+LegendLayout legend_layout(const ChartSpec& c, double w, bool force_below = false) {
   LegendLayout L;
   const auto names = legend_names(c);
   L.entries = names.size();
+  if (!c.legend && !force_below) return L;  // a panel: its group's legend names its series
   double widest = 0;
   for (const auto& n : names) widest = std::max(widest, text_width(n, kLegendFont));
   const double text_room = kRightLegendW - kSample - kSampleGap - 14;
   const double plot_h = kChartBaseHeight - kTop - kBottom;
-  if (static_cast<double>(L.entries) * kLegendRow <= plot_h - 6 && widest <= text_room) {
+  if (!force_below && static_cast<double>(L.entries) * kLegendRow <= plot_h - 6 && widest <= text_room) {
     L.rows = L.entries;
     L.max_chars = static_cast<std::size_t>(text_room / (kLegendFont * kCharEm));
     return L;
@@ -208,6 +210,7 @@ DataRange data_range(const ChartSpec& chart) {
     if (r.ymax <= r.ymin) r.ymax = r.ymin + 1;  // all zero: the axis runs 0..1, not below zero
   }
   if (chart.x_span) r.xmin = std::min(r.xmin, chart.x_span->x), r.xmax = std::max(r.xmax, chart.x_span->y);
+  if (chart.y_span) r.ymin = std::min(r.ymin, chart.y_span->x), r.ymax = std::max(r.ymax, chart.y_span->y);
   return r;
 }
 
@@ -227,7 +230,7 @@ Plot plot_of(const ChartSpec& chart, const LegendLayout& legend, double x, doubl
   Plot p;
   p.x = x, p.y = y;
   p.base_h = std::max(kTop + kBottom + 40, h - legend.height);
-  const double right = legend.below ? 24 : kRightLegendW + 16;
+  const double right = legend.below || !chart.legend ? 24 : kRightLegendW + 16;
   p.px = x + kLeft, p.py = y + kTop, p.pw = std::max(40.0, w - kLeft - right), p.ph = std::max(40.0, p.base_h - kTop - kBottom);
   const DataRange r = data_range(chart);
   p.empty = r.empty;
@@ -282,17 +285,18 @@ void draw_reference(SvgDocument& doc, const ChartSpec& chart, const Plot& p) {
   doc.end_group();
 }
 
-// A series' point in px, with the series and the data x it came from.
+// A series' point in px, with the series and the data x it came from, and its marker's size.
 struct Mark {
   std::size_t series;
   double data_x, x, y;
+  double size = kChartMarkerSize;
 };
 
-// Every series' finite points as marks, in order of series and then x. Markers of different series
-// at one x whose y are closer than a marker are spread sideways, centred on x, a marker apart, the
-// whole spread within 40 % of the gap to the next x (so that each stays nearer its own x than any
-// other; their rims keep crowded ones apart).
-std::vector<Mark> spread_marks(const ChartSpec& chart, const Plot& plot) {
+// Every series' finite points as marks, each exactly at its own (x, y). Markers of different series
+// at one x whose y are closer than a marker would hide each other: they are nested instead, the
+// first series' marker largest and each later one a ring smaller, painted largest first, so that
+// every one shows a rim of its own colour and shape around the next.
+std::vector<Mark> place_marks(const ChartSpec& chart, const Plot& plot) {
   std::vector<Mark> marks;
   for (std::size_t i = 0; i < chart.series.size(); ++i) {
     auto pts = chart.series[i].points;
@@ -300,12 +304,6 @@ std::vector<Mark> spread_marks(const ChartSpec& chart, const Plot& plot) {
     std::stable_sort(pts.begin(), pts.end(), [](const SvgPoint& a, const SvgPoint& b) { return a.x < b.x; });
     for (const auto& p : pts) marks.push_back({i, p.x, plot.sx(p.x), plot.sy(p.y)});
   }
-  std::vector<double> xs;
-  for (const auto& m : marks) xs.push_back(m.x);
-  std::sort(xs.begin(), xs.end());
-  xs.erase(std::unique(xs.begin(), xs.end(), [](double a, double b) { return std::abs(a - b) < 0.5; }), xs.end());
-  double gap = plot.pw / 4;
-  for (std::size_t k = 1; k < xs.size(); ++k) gap = std::min(gap, xs[k] - xs[k - 1]);
   std::sort(marks.begin(), marks.end(), [](const Mark& a, const Mark& b) {
     return std::tie(a.data_x, a.y, a.series) < std::tie(b.data_x, b.y, b.series);
   });
@@ -316,22 +314,25 @@ std::vector<Mark> spread_marks(const ChartSpec& chart, const Plot& plot) {
     if (k > 1) {
       std::sort(marks.begin() + static_cast<long>(a), marks.begin() + static_cast<long>(b),
                 [](const Mark& p, const Mark& q) { return p.series < q.series; });
-      const double step = std::min(kChartMarkerSize, 0.4 * gap / static_cast<double>(k - 1));
-      for (std::size_t j = 0; j < k; ++j) marks[a + j].x += (static_cast<double>(j) - static_cast<double>(k - 1) / 2) * step;
+      // Rings 2.5 px wide each side while they fit in a marker of 29 px; thinner beyond.
+      const double ring = std::min(kChartMarkerRing, 20.0 / static_cast<double>(k - 1));
+      for (std::size_t j = 0; j < k; ++j) marks[a + j].size = kChartMarkerSize + ring * static_cast<double>(k - 1 - j);
     }
     a = b;
   }
+  // Painting order: larger markers under smaller ones, then the legend's order.
   std::stable_sort(marks.begin(), marks.end(), [](const Mark& p, const Mark& q) {
-    return std::tie(p.series, p.data_x) < std::tie(q.series, q.data_x);
+    return std::make_tuple(-p.size, p.series, p.data_x) < std::make_tuple(-q.size, q.series, q.data_x);
   });
   return marks;
 }
 
-// Lines through their own (spread) markers, so that coinciding series show two lines side by side;
-// lines under every marker; markers in series order, so the legend's order is the painting order.
+// Lines through their own markers' centres (the exact data points); lines under every marker.
 void draw_series(SvgDocument& doc, const ChartSpec& chart, const std::vector<Mark>& marks) {
   std::vector<std::vector<SvgPoint>> scaled(chart.series.size());
-  for (const auto& m : marks) scaled[m.series].push_back({m.x, m.y});
+  std::vector<Mark> by_x = marks;
+  std::stable_sort(by_x.begin(), by_x.end(), [](const Mark& p, const Mark& q) { return p.data_x < q.data_x; });
+  for (const auto& m : by_x) scaled[m.series].push_back({m.x, m.y});
   doc.begin_group({}, "lines");
   for (std::size_t i = 0; i < chart.series.size(); ++i)
     series_line(doc, scaled[i], series_colour(series_style(chart, i)), series_dash(series_style(chart, i)));
@@ -339,7 +340,7 @@ void draw_series(SvgDocument& doc, const ChartSpec& chart, const std::vector<Mar
   doc.begin_group({}, "markers");
   for (const auto& m : marks) {
     const std::size_t style = series_style(chart, m.series);
-    draw_marker(doc, series_marker(style), m.x, m.y, kChartMarkerSize, series_colour(style));
+    draw_marker(doc, series_marker(style), m.x, m.y, m.size, series_colour(style));
   }
   doc.end_group();
 }
@@ -378,12 +379,12 @@ void draw_chart(SvgDocument& doc, const ChartSpec& chart, double x, double y, do
   const LegendLayout legend = legend_layout(chart, w);
   const Plot plot = plot_of(chart, legend, x, y, w, h);
   doc.begin_group({}, "chart");
-  doc.text(x + kLeft, y + 20, chart.title, SvgFont{15, "start", "#1a1a1a", true});
+  doc.text(x + kLeft, y + 20, chart.title, chart.legend ? SvgFont{15, "start", "#1a1a1a", true} : SvgFont{13, "start", "#1a1a1a", true});
   draw_axes(doc, chart, plot);
   // The reference first, so that series are drawn over it.
   draw_reference(doc, chart, plot);
-  draw_series(doc, chart, spread_marks(chart, plot));
-  draw_legend(doc, chart, legend, plot);
+  draw_series(doc, chart, place_marks(chart, plot));
+  if (chart.legend) draw_legend(doc, chart, legend, plot);
   doc.end_group();
 }
 
@@ -400,6 +401,76 @@ std::string render_chart_page(const std::string& heading, const std::string& sub
   double y = head;
   for (std::size_t i = 0; i < charts.size(); ++i) {
     draw_chart(doc, charts[i], 10, y, width - 20, heights[i]);
+    y += heights[i];
+  }
+  return doc.str();
+}
+
+
+namespace {
+
+// Panels per row of a group: all of them up to three, two for four, else three.
+std::size_t panel_columns(std::size_t panels) { return panels <= 3 ? std::max<std::size_t>(panels, 1) : panels == 4 ? 2 : 3; }
+
+// The legend of a group: every series of its panels once (by style, in order of first appearance)
+// and the first reference.
+ChartSpec group_legend(const ChartGroup& group) {
+  ChartSpec spec;
+  std::set<std::size_t> seen;
+  for (const auto& panel : group.panels) {
+    for (std::size_t i = 0; i < panel.series.size(); ++i) {
+      const std::size_t style = series_style(panel, i);
+      if (!seen.insert(style).second) continue;
+      spec.series.push_back({panel.series[i].name, {}, static_cast<int>(style)});
+    }
+    if (!spec.reference && panel.reference && !panel.reference->points.empty()) spec.reference = panel.reference;
+  }
+  return spec;
+}
+
+}  // namespace
+
+double group_height(const ChartGroup& group, double w) {
+  const std::size_t cols = panel_columns(group.panels.size());
+  const std::size_t rows = (group.panels.size() + cols - 1) / cols;
+  const double panel_h = group.panels.size() > 1 ? kPanelHeight : kChartBaseHeight;
+  return kGroupHead + static_cast<double>(rows) * panel_h + legend_layout(group_legend(group), w, true).height + 12;
+}
+
+void draw_group(SvgDocument& doc, const ChartGroup& group, double x, double y, double w) {
+  doc.begin_group({}, "chart-group");
+  doc.text(x + 10, y + 22, group.title, SvgFont{15, "start", "#1a1a1a", true});
+  const std::size_t cols = panel_columns(group.panels.size());
+  const double panel_w = w / static_cast<double>(cols);
+  const double panel_h = group.panels.size() > 1 ? kPanelHeight : kChartBaseHeight;
+  for (std::size_t i = 0; i < group.panels.size(); ++i) {
+    ChartSpec panel = group.panels[i];
+    panel.legend = false;
+    draw_chart(doc, panel, x + panel_w * static_cast<double>(i % cols), y + kGroupHead + panel_h * static_cast<double>(i / cols),
+               panel_w, panel_h);
+  }
+  // The legend under the panels, as wide as the group.
+  const ChartSpec legend_spec = group_legend(group);
+  const LegendLayout legend = legend_layout(legend_spec, w, true);
+  const std::size_t rows = (group.panels.size() + cols - 1) / cols;
+  Plot p;
+  p.x = x, p.y = y + kGroupHead, p.px = x + kLeft, p.base_h = static_cast<double>(rows) * panel_h;
+  draw_legend(doc, legend_spec, legend, p);
+  doc.end_group();
+}
+
+std::string render_group_page(const std::string& heading, const std::string& subheading, const std::vector<ChartGroup>& groups) {
+  const double width = 980, head = 64;
+  std::vector<double> heights;
+  double total = head + 10;
+  for (const auto& g : groups) heights.push_back(group_height(g, width - 20)), total += heights.back();
+  SvgDocument doc(width, total, heading);
+  doc.rect(0, 0, doc.width(), doc.height(), SvgPaint{"#ffffff"});
+  doc.text(20, 30, heading, SvgFont{18, "start", "#1a1a1a", true});
+  doc.text(20, 51, subheading, SvgFont{12, "start", "#555555"});
+  double y = head;
+  for (std::size_t i = 0; i < groups.size(); ++i) {
+    draw_group(doc, groups[i], 10, y, width - 20);
     y += heights[i];
   }
   return doc.str();

@@ -1,8 +1,9 @@
 #pragma once
 /// \file survey_plots.hpp
-/// The charts of a survey: SWAP count and two-qubit depth against register size, and ESP against
-/// register size (log scale) when any device carries calibration; one series per device entry
-/// (and per setting, when a survey varies the strategy, degree or direction).
+/// The charts of a survey: CX count (native two-qubit gates) and native two-qubit depth against
+/// register size, and ESP against register size (log scale) when any device carries calibration.
+/// Each quantity is a group of panels, one per setting (the strategy, degree and direction asked,
+/// when the survey varies them) sharing both axes, with a series per device entry.
 
 #include <string>
 #include <vector>
@@ -12,8 +13,9 @@
 
 namespace qftplan {
 
-/// The charts for `rows` (failed runs are left out; they have no figures).
-std::vector<ChartSpec> survey_charts(const std::vector<SurveyRow>& rows);
+/// The chart groups for `rows` (failed runs are left out; they have no figures): one panel per
+/// setting in every group, in the survey's order.
+std::vector<ChartGroup> survey_charts(const std::vector<SurveyRow>& rows);
 
 /// The whole SVG page of a survey's charts.
 std::string survey_svg(const std::vector<SurveyRow>& rows);

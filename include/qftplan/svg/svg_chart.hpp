@@ -30,12 +30,28 @@ struct ChartSpec {
   std::optional<SvgPoint> x_span;         ///< x range to cover (x = low, y = high), so stacked charts align
   bool integer_x = false;                 ///< x values are whole numbers (register sizes): whole ticks only
   bool integer_y = false;                 ///< y values are whole numbers (counts): whole ticks only
+  std::optional<SvgPoint> y_span;         ///< y range to cover (x = low, y = high), so panels share an axis
+  bool legend = true;                     ///< draw its own legend (panels of a group share the group's)
+};
+
+/// Small multiples: one quantity in several panels (one per setting) that share both axes, under
+/// one title, with one legend under them for the series of every panel.
+struct ChartGroup {
+  std::string title;                      ///< shown above the panels
+  std::vector<ChartSpec> panels;          ///< each with its own title (the setting), drawn in rows
 };
 
 /// Height of a chart box without its legend, in px.
 inline constexpr double kChartBaseHeight = 380;
 /// Size of every series marker, in px (the same for all series, so that none shrinks away).
 inline constexpr double kChartMarkerSize = 9;
+/// Width of each ring by which a marker grows when it lies under markers of later series at the
+/// same point, in px (so that each shows a rim).
+inline constexpr double kChartMarkerRing = 5;
+/// Height of one panel of a group of several, in px.
+inline constexpr double kPanelHeight = 300;
+/// Height of a group's title above its panels, in px.
+inline constexpr double kGroupHead = 32;
 /// Series told apart by colour and marker shape together (8 colours times 8 shapes).
 inline constexpr std::size_t kDistinctSeries = 64;
 
@@ -72,10 +88,22 @@ std::vector<std::string> decade_labels(const AxisTicks& ticks);
 /// when it goes under the plot (more entries, or longer names, than fit beside it).
 double chart_height(const ChartSpec& chart, double w);
 
-/// Draws a chart (title, axes, grid, series, legend listing every series) into the box at (x, y) of
-/// size w x h (h as chart_height gives). Points of different series that would cover each other are
-/// spread sideways around their x, so each stays visible.
+/// Draws a chart (title, axes, grid, series, legend listing every series unless `legend` is off)
+/// into the box at (x, y) of size w x h (h as chart_height gives). Every marker sits exactly at its
+/// point; markers of different series that would cover each other are nested (the earlier series'
+/// one larger, painted first), so that each stays visible.
 void draw_chart(SvgDocument& doc, const ChartSpec& chart, double x, double y, double w, double h);
+
+/// Height of the box draw_group needs for `group` at width `w`: the title, rows of panels (one
+/// row of kChartBaseHeight for a single panel, else rows of kPanelHeight, up to three panels a row)
+/// and the legend.
+double group_height(const ChartGroup& group, double w);
+
+/// Draws a group (title, panels, one legend) into the box at (x, y) of width w and group_height.
+void draw_group(SvgDocument& doc, const ChartGroup& group, double x, double y, double w);
+
+/// A page of chart groups stacked vertically under a heading, as a whole SVG document.
+std::string render_group_page(const std::string& heading, const std::string& subheading, const std::vector<ChartGroup>& groups);
 
 /// A page of charts stacked vertically under a heading, as a whole SVG document.
 std::string render_chart_page(const std::string& heading, const std::string& subheading,

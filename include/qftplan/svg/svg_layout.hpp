@@ -12,10 +12,18 @@ namespace qftplan {
 /// True when every qubit has a position.
 bool has_all_positions(const Device& device);
 
-/// The drawing position of every qubit: the device's positions when all are given; otherwise the
-/// force-directed layout of Fruchterman and Reingold ("Graph drawing by force-directed placement",
-/// Software: Practice and Experience 21(11), 1991) started from a circle, with a fixed number of
-/// steps, so the same device always gets the same picture (devices above 600 qubits stay on the circle).
+/// A layout computed from the couplers alone, the median coupler one unit long: each connected
+/// piece starts from pivot MDS (Brandes and Pich, 2006) and is refined by stress majorisation
+/// (Gansner, Koren and North, 2004) on hop counts, then pairs nearer than 0.6 units are pushed
+/// apart; pieces are packed in rows, largest first. No randomness: the same device always gets
+/// the same picture.
+std::vector<Point> computed_positions(const Device& device);
+
+/// The drawing position of every qubit: the device's positions when all are given, otherwise
+/// computed_positions.
 std::vector<Point> drawing_positions(const Device& device);
+
+/// The smallest distance between two of the points (infinity for fewer than two).
+double closest_pair_distance(const std::vector<Point>& pos);
 
 }  // namespace qftplan
