@@ -57,7 +57,8 @@ const char* const kCheckDoc =
     "  inverse   expect the inverse QFT\n"
     "  initial   placement (list of ints or 'a,b,c'); default: the '// placement:' header comment\n"
     "  final     final placement; default: the '// final_placement:' header comment\n"
-    "Returns a CheckResult (true when correct). Unreadable input raises InputError with file:line:column.";
+    "Returns a CheckResult: true when proved; .outcome is 'proved', 'wrong' or 'cannot prove'. Unreadable\n"
+    "input raises InputError with file:line:column.";
 
 // Docstrings live as long as the module (pybind11 keeps the pointer).
 const std::string kCheckTextDoc = std::string("Checks OpenQASM 2 or 3 text (`source` names it in messages).\n") + kCheckDoc;
@@ -79,8 +80,24 @@ void bind_check(py::module_& m) {
                              "The structural proof ran and passed.")
       .def_property_readonly("simulated", [](const Verdict& v) { return v.result.simulated; },
                              "The state-vector comparison ran and passed.")
+      .def_property_readonly("outcome", [](const Verdict& v) { return std::string(outcome_name(v.result.outcome)); },
+                             "'proved', 'wrong' (with a counterexample or a certain structural fact) or 'cannot prove'.")
+      .def_property_readonly("exhaustive", [](const Verdict& v) { return v.result.exhaustive; },
+                             "The simulation covered every basis input.")
       .def_property_readonly("inconclusive", [](const Verdict& v) { return v.result.inconclusive; },
-                             "The proof met a construct it cannot reason about (not a refutation).")
+                             "The structural proof lost track (not a refutation); simulation may still have decided.")
+      .def_property_readonly(
+          "lost_track_line",
+          [](const Verdict& v) -> py::object {
+            return v.result.lost_track_line > 0 ? py::object(py::int_(v.result.lost_track_line)) : py::object(py::none());
+          },
+          "Where the structural proof lost track (None when it did not, or not at a line).")
+      .def_property_readonly(
+          "lost_track_reason",
+          [](const Verdict& v) -> py::object {
+            return v.result.lost_track_reason.empty() ? py::object(py::none()) : py::object(py::str(v.result.lost_track_reason));
+          },
+          "Why the structural proof lost track (None when it did not).")
       .def("__bool__", [](const Verdict& v) { return v.result.ok; })
       .def("__str__",
            [](const Verdict& v) {
@@ -88,7 +105,7 @@ void bind_check(py::module_& m) {
                                 : format_input_error(v.source, v.result.line, 0, v.result.message);
            })
       .def("__repr__", [](const Verdict& v) {
-        return fmt::format("<qftplan.CheckResult ok={} line={}>", v.result.ok ? "True" : "False", v.result.line);
+        return fmt::format("<qftplan.CheckResult outcome='{}' line={}>", outcome_name(v.result.outcome), v.result.line);
       });
 
   m.def(

@@ -20,6 +20,7 @@ using statevector_check::SimOutcome;
 CheckResult failure(std::string msg, int line) {
   CheckResult r;
   r.ok = false;
+  r.outcome = CheckOutcome::wrong;
   r.message = std::move(msg);
   r.line = line;
   return r;
@@ -80,25 +81,48 @@ CheckResult structural_proof(const Device& device, const QasmProgram& program, c
   return sc.finish(request.final_placement);
 }
 
-// The verdict when no check refuted the circuit: passed, or inconclusive when the proof could not
-// decide and simulation did not run.
-CheckResult merge(std::optional<CheckResult> structural, const SimOutcome& sim) {
+CheckResult cannot_prove(std::string msg, int line) {
+  CheckResult r = failure(std::move(msg), line);
+  r.outcome = CheckOutcome::cannot_prove;
+  r.inconclusive = true;
+  return r;
+}
+
+// The structural proof passed; a simulation that disagrees means a bug in one of them, and the
+// concrete counterexample wins.
+CheckResult proved(CheckResult structural, const SimOutcome& sim) {
+  if (sim.ran && !sim.ok) return failure(sim.message + "; the structural proof had passed", 0);
+  structural.simulated = sim.ran;
+  structural.exhaustive = sim.ran && sim.exhaustive;
+  if (!sim.message.empty()) structural.message += "; " + sim.message;
+  return structural;
+}
+
+// The structural proof lost track (or was not asked for): the simulation decides when it covered
+// every basis input or found a counterexample; otherwise the circuit cannot be proved.
+CheckResult decided_by_simulation(const std::optional<CheckResult>& lost, const SimOutcome& sim) {
+  const std::string where =
+      lost ? "the structural proof lost track" + (lost->line > 0 ? " at line " + std::to_string(lost->line) : std::string()) +
+                 " (" + lost->message + ")"
+           : std::string("no structural proof requested");
   CheckResult r;
-  const bool structural_ran = structural.has_value();
-  r.structural_proved = structural_ran && structural->ok;
-  r.simulated = sim.ran && sim.ok;
-  if (structural_ran && !structural->ok && !r.simulated) {
-    structural->message += sim.message.empty() ? "" : "; " + sim.message;
-    return *structural;  // inconclusive and nothing else decided it
+  if (sim.ran && !sim.ok) {
+    // The counterexample names no line: the line where the proof lost track is the place to look.
+    r = failure(sim.message + "; " + where, lost ? lost->line : 0);
+  } else if (sim.ran && sim.exhaustive) {
+    r.message = sim.message + "; " + where;
+    r.simulated = r.exhaustive = true;
+  } else {
+    std::string why = lost ? lost->message : "no structural proof requested";
+    if (!sim.message.empty()) why += "; " + sim.message + (sim.ran ? ", but not every basis input was simulated" : "");
+    r = cannot_prove(why, lost ? lost->line : 0);
+    r.simulated = sim.ran;
   }
-  r.ok = true;
-  std::vector<std::string> parts;
-  if (structural_ran)
-    parts.push_back(structural->ok ? structural->message : "structural proof inconclusive (" + structural->message + ")");
-  if (!sim.message.empty()) parts.push_back(sim.message);
-  if (parts.empty()) parts.push_back("coupler check passed (no proof requested)");
-  for (std::size_t i = 0; i < parts.size(); ++i) r.message += (i ? "; " : "") + parts[i];
-  r.inconclusive = structural_ran && !structural->ok;
+  r.inconclusive = lost.has_value();
+  if (lost) {
+    r.lost_track_line = lost->line;
+    r.lost_track_reason = lost->message;
+  }
   return r;
 }
 
@@ -116,34 +140,36 @@ CheckResult check_qft_circuit(const Device& device, const QasmProgram& program, 
 
   // A rotation angle that is no multiple of pi/2^k: the QFT uses none, and neither check can follow
   // it exactly.
-  if (program.inexact_angle) {
-    CheckResult r = failure("cannot prove: " + program.inexact_angle->message, program.inexact_angle->line);
-    r.inconclusive = true;
-    return r;
-  }
+  if (program.inexact_angle) return cannot_prove("cannot prove: " + program.inexact_angle->message, program.inexact_angle->line);
 
-  // b. Structural proof.
+  // b. Structural proof: proved, wrong (certain) or lost track.
   std::optional<CheckResult> structural;
   if (request.structural) {
     structural = structural_proof(device, program, request);
-    if (!structural->ok && !structural->inconclusive) return *structural;
+    if (structural->outcome == CheckOutcome::wrong) return *structural;
   }
 
-  // c. State-vector comparison.
+  // c. State-vector comparison: a cross-check of a proof, or the judge where the proof lost track
+  // (then every basis input is simulated whenever that fits the budget).
+  const bool decides = !structural || !structural->ok;
   SimOutcome sim;
-  if (n <= request.statevector_limit) {
-    sim = statevector_check::simulate(device, program, request);
-    if (sim.ran && !sim.ok) {
-      // Simulation decides, but names no line: the line where the proof lost track is the place
-      // to look (the circuit is wrong from there on or before).
-      if (structural && structural->line > 0)
-        return failure(sim.message + "; the structural proof stopped at line " + std::to_string(structural->line) +
-                           " (" + structural->message + ")",
-                       structural->line);
-      return failure(sim.message, 0);
-    }
+  if (n <= request.statevector_limit) sim = statevector_check::simulate(device, program, request, decides);
+  if (!decides) return proved(std::move(*structural), sim);
+  if (!structural && request.statevector_limit <= 0) {
+    CheckResult r;
+    r.message = "coupler check passed (no proof requested)";
+    return r;
   }
-  return merge(std::move(structural), sim);
+  return decided_by_simulation(structural, sim);
+}
+
+const char* outcome_name(CheckOutcome o) {
+  switch (o) {
+    case CheckOutcome::proved: return "proved";
+    case CheckOutcome::wrong: return "wrong";
+    case CheckOutcome::cannot_prove: return "cannot prove";
+  }
+  return "?";
 }
 
 }  // namespace qftplan

@@ -149,6 +149,7 @@ SimOutcome compare(const QftSpec& spec, const LocalCircuit& lc, const IndexMaps&
     }
   }
   out.ran = true;
+  out.exhaustive = inputs.full;
   char buf[32];
   std::snprintf(buf, sizeof buf, "%.1e", worst);
   out.message = "state-vector check: " +
@@ -161,7 +162,7 @@ SimOutcome compare(const QftSpec& spec, const LocalCircuit& lc, const IndexMaps&
 
 }  // namespace
 
-SimOutcome simulate(const Device& device, const QasmProgram& program, const CheckRequest& req) {
+SimOutcome simulate(const Device& device, const QasmProgram& program, const CheckRequest& req, bool decides) {
   SimOutcome out;
   const int n = req.spec.qubits;
   const LocalCircuit lc = localise(device, program, req);
@@ -172,7 +173,9 @@ SimOutcome simulate(const Device& device, const QasmProgram& program, const Chec
 
   // Every basis input when the register is small and the work fits the budget, else a sample.
   const std::size_t dim = std::size_t{1} << n;
-  bool full = n <= 10;
+  // Beyond 10 qubits a cross-check of a proof samples; a simulation that decides the verdict
+  // simulates every basis input whenever that fits the budget.
+  bool full = n <= 10 || decides;
   auto cost = [&](double inputs) { return inputs * (static_cast<double>(lc.gates.size()) + 1) * std::ldexp(1.0, lc.m); };
   if (full && cost(static_cast<double>(dim)) > kSimBudget) full = false;
   if (!full && cost(kSampledRandom + kSampledBasis) > kSimBudget) {

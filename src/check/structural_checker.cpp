@@ -2,7 +2,9 @@
 // h-cz-h sandwiches) and its end-of-circuit checks; the public StructuralChecker forwards here.
 // The method is described in structural_state.hpp.
 
+#include <cstdlib>
 #include <string>
+#include <unordered_map>
 #include <utility>
 #include <vector>
 
@@ -14,6 +16,7 @@ namespace qftplan {
 StructuralChecker::Impl::Impl(const Device& dev, const QftSpec& s, std::vector<int> pl)
     : device(&dev), spec(s), n(s.qubits), d(s.max_distance()), nq(dev.qubit_count()), placement(std::move(pl)) {
   par.assign(nq, Parity{});
+  window_last.assign(nq, -1);
   measured.assign(nq, 0);
   pend_h.assign(nq, 0);
   pend_h_line.assign(nq, 0);
@@ -68,6 +71,18 @@ void StructuralChecker::Impl::fail(std::string msg, int line, bool cannot_prove)
   inconclusive = cannot_prove;
   message = std::move(msg);
   fail_line = line;
+}
+
+void StructuralChecker::Impl::differ(const proof::Difference& d, std::string msg, int line) {
+  if (differences.size() < proof::kMaxDifferences) differences.push_back(d);
+  else differences_lost = true;
+  suspect(std::move(msg), line);
+}
+
+void StructuralChecker::Impl::suspect(std::string msg, int line) {
+  if (!suspicion.empty()) return;  // the first difference is the one reported
+  suspicion = std::move(msg);
+  suspicion_line = line;
 }
 
 std::string StructuralChecker::Impl::lqs(int w, int k) const {
@@ -140,10 +155,35 @@ void StructuralChecker::Impl::feed(const Gate& g, int line) {
     feed_h(g.q0, line);
     return;
   }
+  if (acts_trivially(g)) return;
+  // A phase on the quiet side of a held cz (no H held there) commutes with everything held: apply
+  // it now rather than break up a possible h-cz-h sandwich.
+  if ((g.kind == GateKind::p || g.kind == GateKind::rz) && cz_partner[g.q0] >= 0 && !pend_h[g.q0]) {
+    apply(g, line);
+    return;
+  }
   if (g.kind == GateKind::cz && hold_cz(g, line)) return;
   release(g.q0);
   if (is_two_qubit(g.kind)) release(g.q1);
   apply(g, line);
+}
+
+// A gate that leaves every state it can meet here unchanged: a controlled phase or a cx whose
+// control holds |0> with nothing held on it, or a zero rotation. Dropping it keeps a rewritten
+// circuit in the shapes the front end recognises (a cz on |0> between a Hadamard and the next
+// gate would otherwise look like the middle of a sandwich).
+bool StructuralChecker::Impl::acts_trivially(const Gate& g) const {
+  auto quiet_zero = [&](int q) { return par[q].size == 0 && par[q].c == 0 && !pend_h[q] && cz_partner[q] < 0; };
+  switch (g.kind) {
+    case GateKind::rz:
+    case GateKind::p: return g.angle.is_zero();
+    case GateKind::cp:
+      if (g.angle.is_zero()) return true;
+      [[fallthrough]];
+    case GateKind::cz: return quiet_zero(g.q0) || quiet_zero(g.q1);
+    case GateKind::cx: return quiet_zero(g.q0);
+    default: return false;
+  }
 }
 
 // An h either closes a held h-cz sandwich on its qubit or is held itself.
@@ -178,12 +218,19 @@ bool StructuralChecker::Impl::hold_cz(const Gate& g, int line) {
   // cannot open a sandwich around this cz).
   flush_pair(g.q0);
   flush_pair(g.q1);
-  // h h before a cz: the first is a Hadamard of its own, the second may open a sandwich.
-  for (int x : {g.q0, g.q1})
-    if (pend_h[x] == 2) {
-      pend_h[x] = 1;
-      apply(Gate{GateKind::h, x, -1, Angle{}}, pend_h_line[x]);
+  // h h before a cz: when the other qubit holds an H, that one may open the sandwich and the pair
+  // is the identity (an inserted h h); otherwise the first is a Hadamard of its own and the second
+  // may open a sandwich.
+  for (int x : {g.q0, g.q1}) {
+    const int other = x == g.q0 ? g.q1 : g.q0;
+    if (pend_h[x] != 2) continue;
+    if (pend_h[other] == 1) {
+      pend_h[x] = 0;
+      continue;
     }
+    pend_h[x] = 1;
+    apply(Gate{GateKind::h, x, -1, Angle{}}, pend_h_line[x]);
+  }
   if (pend_h[g.q0] || pend_h[g.q1]) {
     cz_partner[g.q0] = g.q1;
     cz_partner[g.q1] = g.q0;
@@ -221,14 +268,20 @@ void StructuralChecker::Impl::flush_all() {
 // End of the circuit.
 
 CheckResult StructuralChecker::Impl::finish(const std::vector<int>& final_placement) {
+  drain_window();
   if (!failed) flush_all();
   CheckResult r;
   if (!failed) final_checks(final_placement);
   if (failed) {
     r.ok = false;
+    r.outcome = inconclusive ? CheckOutcome::cannot_prove : CheckOutcome::wrong;
     r.message = message;
     r.line = fail_line;
     r.inconclusive = inconclusive;
+    if (inconclusive) {
+      r.lost_track_line = fail_line;
+      r.lost_track_reason = message;
+    }
     return r;
   }
   r.ok = true;
@@ -241,53 +294,159 @@ CheckResult StructuralChecker::Impl::finish(const std::vector<int>& final_placem
   return r;
 }
 
+// The verdict at the end (see "Verdicts" in structural_state.hpp): proved, a certain difference,
+// or lost track.
 void StructuralChecker::Impl::final_checks(const std::vector<int>& fp) {
+  // Fewer Hadamards than wires, all followed exactly: for the input |0> the output is spread over
+  // at most 2^(Hadamards) basis states, the QFT's over all 2^n. Certain.
   for (int w = 0; w < n; ++w)
-    if (!h_done[w]) return fail("the wire of " + lq(w) + " never gets its Hadamard", 0);
-  check_no_terms_left();
-  if (failed) return;
-  check_final_placement(fp);
+    if (!h_done[w])
+      return fail("the wire of " + lq(w) + " never gets its Hadamard (so for the input |0> at most 2^" +
+                      std::to_string(h_count) + " output amplitudes are nonzero; the QFT has 2^" + std::to_string(n) +
+                      ")",
+                  0);
+  // A bad map is a bad request, not a finding about the circuit.
+  if (const std::string e = final_placement_problem(fp); e.rfind("final_placement ", 0) == 0) return fail(e, 0);
+  int term_line = suspicion_line;
+  std::string terms = suspicion.empty() ? leftover_term(term_line) : suspicion;
+  const std::string place = final_placement_problem(fp);
+  if (terms.empty() && place.empty()) return;
+  const std::string problem = terms.empty() ? place : place.empty() ? terms : terms + "; and " + place;
+  const int line = terms.empty() ? 0 : term_line;
+  if (const int q = non_canonical_qubit(); q >= 0)
+    return cannot_prove(problem + ", but the end state is not in a form the proof can compare (qubit " +
+                            std::to_string(q) + " holds " + describe(par[q]) + ")",
+                        line);
+  // Both the phases and the end state differ. A qubit outside the register left in |1> or holding
+  // a value is wrong whatever the phases (for the input |0> part of the output lies outside the
+  // register). Outputs in other places or inverted (X) change which phases the QFT needs: compare
+  // again in their labels.
+  if (!terms.empty() && !place.empty()) {
+    std::vector<int> tau;
+    std::vector<char> inverted;
+    const bool ancilla_dirty = place.rfind("qubit ", 0) == 0;
+    const bool leftover = suspicion.empty();  // a term on outputs alone: no relabelling explains it
+    if (!ancilla_dirty && !(!differences_lost && output_relabelling(fp, tau, inverted) &&
+                            (leftover || relabelling_leaves_a_difference(tau, inverted))))
+      return cannot_prove(problem + " (the outputs end elsewhere too, and in their places the phases may be right)",
+                          line);
+  }
+  fail(problem, line);
 }
 
-// The Hadamards removed every term the QFT needs; whatever is left is a phase it does not have.
-void StructuralChecker::Impl::check_no_terms_left() {
+// A term the Hadamards did not remove: a phase the QFT does not have ("" when none).
+std::string StructuralChecker::Impl::leftover_term(int& line) const {
   for (int v = 0; v < 2 * n; ++v)
-    if (!single[v].is_zero())
-      return fail("a phase of " + single_text(single[v]) + " is left on " + var_name(v) +
-                      ", which the QFT does not have" + at_line(single_line[v]),
-                  single_line[v]);
+    if (!single[v].is_zero()) {
+      line = single_line[v];
+      return "a phase of " + single_text(single[v]) + " is left on " + var_name(v) + ", which the QFT does not have" +
+             at_line(single_line[v]);
+    }
   for (const auto& [key, t] : pairs) {
     const int a = static_cast<int>(key >> 32), b = static_cast<int>(key & 0xffffffffu);
-    return fail("a controlled phase of " + angle_text(t.angle) + " is left between " + var_name(a) + " and " +
-                    var_name(b) + ", which the QFT does not have" + at_line(t.line),
-                t.line);
+    line = t.line;
+    return "a controlled phase of " + angle_text(t.angle) + " is left between " + var_name(a) + " and " + var_name(b) +
+           ", which the QFT does not have" + at_line(t.line);
   }
+  return {};
 }
 
-// Output bit k on final_placement[k], and every other qubit back in |0>.
-void StructuralChecker::Impl::check_final_placement(const std::vector<int>& fp) {
+// Output bit k on final_placement[k], and every other qubit back in |0> ("" when so).
+std::string StructuralChecker::Impl::final_placement_problem(const std::vector<int>& fp) const {
   if (static_cast<int>(fp.size()) != n)
-    return fail("final_placement lists " + std::to_string(fp.size()) + " qubits for a " + std::to_string(n) +
-                    "-qubit QFT",
-                0);
+    return "final_placement lists " + std::to_string(fp.size()) + " qubits for a " + std::to_string(n) + "-qubit QFT";
   std::vector<char> used(nq, 0);
   for (int k = 0; k < n; ++k) {
     const int q = fp[k];
-    if (q < 0 || q >= nq) return fail("final_placement names qubit " + std::to_string(q) + ", outside the device", 0);
-    if (used[q]) return fail("final_placement names qubit " + std::to_string(q) + " twice", 0);
+    if (q < 0 || q >= nq) return "final_placement names qubit " + std::to_string(q) + ", outside the device";
+    if (used[q]) return "final_placement names qubit " + std::to_string(q) + " twice";
     used[q] = 1;
     const int want = n + spec.output_wire(k);
     const Parity& p = par[q];
     if (!(p.size == 1 && p.v[0] == want && p.c == 0))
-      return fail("output bit " + std::to_string(k) + " should end on qubit " + std::to_string(q) + ", which holds " +
-                      describe(p),
-                  0);
+      return "output bit " + std::to_string(k) + " should end on qubit " + std::to_string(q) + ", which holds " +
+             describe(p);
   }
   for (int q = 0; q < nq; ++q)
     if (!used[q] && (par[q].size != 0 || par[q].c != 0))
-      return fail("qubit " + std::to_string(q) + " is outside the final placement but ends holding " +
-                      describe(par[q]) + " instead of |0>",
-                  0);
+      return "qubit " + std::to_string(q) + " is outside the final placement but ends holding " + describe(par[q]) +
+             " instead of |0>";
+  return {};
+}
+
+// A qubit holding a parity of several variables, or a variable some other qubit holds too; -1
+// when the end state is canonical (each qubit a constant or a variable of its own).
+int StructuralChecker::Impl::non_canonical_qubit() const {
+  for (int q = 0; q < nq; ++q)
+    if (par[q].size > 1 || (par[q].size == 1 && occ[par[q].v[0]] != 1)) return q;
+  return -1;
+}
+
+// The QFT's coefficient of (input of wire a) * (output of wire b), outputs labelled by wire.
+Angle StructuralChecker::Impl::want(int a, int b) const {
+  if (a == b) return Angle(1, 0);  // the Hadamard's own pi x y
+  return closing_window(a).contains(b) ? spec.rotation(std::abs(a - b)) : Angle{};
+}
+
+// True when the register's final qubits hold the n outputs, each once, some inverted (NOT y), and
+// every other qubit is |0>. Per wire w: tau[w] is the wire whose output place y_w ends in, and
+// inverted[w] says whether it ends inverted.
+bool StructuralChecker::Impl::output_relabelling(const std::vector<int>& fp, std::vector<int>& tau,
+                                                 std::vector<char>& inverted) const {
+  tau.assign(n, -1);
+  inverted.assign(n, 0);
+  std::vector<char> used(nq, 0);
+  for (int k = 0; k < n; ++k) {
+    const Parity& p = par[fp[k]];
+    if (p.size != 1 || p.v[0] < n) return false;
+    const int w = p.v[0] - n;
+    if (tau[w] >= 0) return false;
+    tau[w] = spec.output_wire(k);
+    inverted[w] = p.c;
+    used[fp[k]] = 1;
+  }
+  for (int q = 0; q < nq; ++q)
+    if (!used[q] && (par[q].size != 0 || par[q].c != 0)) return false;
+  return true;
+}
+
+// The outputs end relabelled (tau) and some inverted: the circuit is the QFT only when its phase
+// polynomial is the QFT's in those labels, i.e. for every input a and output y_w the coefficient
+// is want(a, tau[w]), negated when y_w is inverted (y -> 1 - y), and the input x_a alone carries
+// the sum of want(a, tau[w]) over the inverted w. The circuit's coefficients are known: the
+// recorded differences, and want(a, w) for every unrecorded pair. True when one breaks the rule.
+bool StructuralChecker::Impl::relabelling_leaves_a_difference(const std::vector<int>& tau,
+                                                              const std::vector<char>& inverted) const {
+  std::vector<int> moved;  // outputs whose expected coefficients change
+  for (int w = 0; w < n; ++w)
+    if (tau[w] != w || inverted[w]) moved.push_back(w);
+  if (static_cast<double>(n) * static_cast<double>(moved.size()) > 1e8) return false;  // too much work: lost track
+  std::unordered_map<std::uint64_t, Angle> pair_got;
+  std::vector<Angle> single_got(n);
+  for (const auto& d : differences) {
+    if (d.b == proof::Difference::kInputPair) return true;  // no relabelling of outputs makes it
+    if (d.b == proof::Difference::kSingle) {
+      single_got[d.a] = d.got;
+      continue;
+    }
+    if (tau[d.b] == d.b && !inverted[d.b]) return true;  // unchanged expectation, and it differs
+    pair_got[proof::pair_key(d.a, d.b)] = d.got;
+  }
+  for (int a = 0; a < n; ++a) {
+    proof::WideAngle single_left;
+    single_left.add(single_got[a]);
+    for (int w : moved) {
+      const Angle target = want(a, tau[w]);
+      const auto it = pair_got.find(proof::pair_key(a, w));
+      proof::WideAngle diff;  // got - (inverted ? -target : target) must vanish
+      diff.add(it == pair_got.end() ? want(a, w) : it->second);
+      diff.add(inverted[w] ? target : -target);
+      if (!diff.is_zero()) return true;
+      if (inverted[w]) single_left.add(-target);
+    }
+    if (!single_left.is_zero()) return true;
+  }
+  return false;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -296,7 +455,7 @@ void StructuralChecker::Impl::check_final_placement(const std::vector<int>& fp) 
 StructuralChecker::StructuralChecker(const Device& device, const QftSpec& spec, std::vector<int> placement)
     : impl_(std::make_shared<Impl>(device, spec, std::move(placement))) {}
 
-void StructuralChecker::gate(const Gate& g, int line) { impl_->feed(g, line); }
+void StructuralChecker::gate(const Gate& g, int line) { impl_->peephole(g, line); }
 
 CheckResult StructuralChecker::finish(const std::vector<int>& final_placement) { return impl_->finish(final_placement); }
 

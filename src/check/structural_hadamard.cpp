@@ -33,8 +33,8 @@ void StructuralChecker::Impl::hadamard(int q, int line) {
   if (failed) return;
 
   const Window win = closing_window(w);
-  if (!check_closing_phases(w, win, line)) return;
-  if (!clear_terms_of(w, win, line)) return;
+  check_closing_phases(w, win, line);
+  clear_terms_of(w, win, line);
   create_output(q, p, w, rest, rest_size, line);
 }
 
@@ -66,9 +66,12 @@ int StructuralChecker::Impl::consumed_input(int q, const Parity& p, int line) {
   }
   if (v >= n) {
     const int w = v - n;
-    fail("second Hadamard on the wire of " + lq(w) + " (qubit " + std::to_string(q) + "; the first was" +
-             (h_line[w] > 0 ? " on line " + std::to_string(h_line[w]) : " earlier") + ")",
-         line);
+    // An equivalent circuit may undo a Hadamard (h h, h-cx-h): the earlier one was then not the
+    // wire's QFT Hadamard, and what was compared there proves nothing either way.
+    cannot_prove("second Hadamard on the wire of " + lq(w) + " (qubit " + std::to_string(q) + "; the first was" +
+                     (h_line[w] > 0 ? " on line " + std::to_string(h_line[w]) : " earlier") +
+                     "); the proof follows one Hadamard per wire",
+                 line);
     return -1;
   }
   const int w = v;
@@ -77,10 +80,12 @@ int StructuralChecker::Impl::consumed_input(int q, const Parity& p, int line) {
     return -1;
   }
   if (!single[v].is_zero()) {
-    fail("a phase of " + single_text(single[v]) + " acts on " + lq(w) +
-             " before its Hadamard; the QFT has no such phase" + at_line(line) ,
-         single_line[v] > 0 ? single_line[v] : line);
-    return -1;
+    const auto got = single[v].narrow();
+    if (!got) differences_lost = true;
+    differ({v, proof::Difference::kSingle, got.value_or(Angle{}), Angle{}}, "a phase of " + single_text(single[v]) + " acts on " + lq(w) +
+                " before its Hadamard; the QFT has no such phase" + at_line(line),
+            single_line[v] > 0 ? single_line[v] : line);
+    single[v] = WideAngle{};  // final (the input leaves the qubits here) and noted
   }
   return v;
 }
@@ -94,38 +99,35 @@ auto StructuralChecker::Impl::closing_window(int w) const -> Window {
 }
 
 // Each wire k of the window has had its Hadamard, and the term between w's input and k's output
-// has the QFT's angle.
-bool StructuralChecker::Impl::check_closing_phases(int w, Window win, int line) {
+// has the QFT's angle; a difference is noted and the proof goes on.
+void StructuralChecker::Impl::check_closing_phases(int w, Window win, int line) {
   const int v = w;
   for (int k = win.lo; k <= win.hi; ++k) {
     const Angle want = spec.rotation(std::abs(w - k));
     if (!h_done[k]) {
-      fail("the Hadamard on " + lq(w) + " comes before the Hadamard on " + lq(k) +
-               ", but their controlled phase (" + angle_text(want) + ") must come between them" +
-               (spec.inverse ? " (inverse QFT order)" : ""),
-           line);
-      return false;
+      differ({w, k, Angle{}, want}, "the Hadamard on " + lq(w) + " comes before the Hadamard on " + lq(k) +
+                  ", but their controlled phase (" + angle_text(want) + ") must come between them" +
+                  (spec.inverse ? " (inverse QFT order)" : ""),
+              line);
+      continue;
     }
     auto it = pairs.find(proof::pair_key(v, n + k));
     if (it == pairs.end()) {
-      fail("controlled phase between " + lqs(w, k) + " is missing (expected angle " +
-               angle_text(want) + " before the Hadamard on " + lq(w) + ")",
-           line);
-      return false;
+      differ({w, k, Angle{}, want}, "controlled phase between " + lqs(w, k) + " is missing (expected angle " + angle_text(want) +
+                  " before the Hadamard on " + lq(w) + ")",
+              line);
+      continue;
     }
-    if (!(it->second.angle == want)) {
-      fail("controlled phase between " + lqs(w, k) + " has angle " +
-               angle_text(it->second.angle) + ", expected " + angle_text(want) + at_line(it->second.line),
-           it->second.line > 0 ? it->second.line : line);
-      return false;
-    }
+    if (!(it->second.angle == want))
+      differ({w, k, it->second.angle, want}, "controlled phase between " + lqs(w, k) + " has angle " + angle_text(it->second.angle) + ", expected " +
+                  angle_text(want) + at_line(it->second.line),
+              it->second.line > 0 ? it->second.line : line);
   }
-  return true;
 }
 
-// Every other term with w's input is wrong; the expected ones are removed as we go, and the
-// variable's terms are cleared.
-bool StructuralChecker::Impl::clear_terms_of(int w, Window win, int line) {
+// Every other term with w's input is a difference (noted); all of the variable's terms are
+// final here and are cleared.
+void StructuralChecker::Impl::clear_terms_of(int w, Window win, int line) {
   const int v = w;
   for (int u : partners[v]) {
     auto it = pairs.find(proof::pair_key(v, u));
@@ -140,15 +142,16 @@ bool StructuralChecker::Impl::clear_terms_of(int w, Window win, int line) {
         what += ", applied after the Hadamard on " + lq(other) + " (wrong order)";
       else
         what += " (beyond the approximation degree or duplicated)";
-      fail(what + at_line(it->second.line), it->second.line > 0 ? it->second.line : line);
-      return false;
+      const int b = u >= n ? u - n : proof::Difference::kInputPair;
+      differ({w, b, it->second.angle, Angle{}}, what + at_line(it->second.line),
+             it->second.line > 0 ? it->second.line : line);
+    } else {
+      ++terms_checked;
     }
-    ++terms_checked;
-    pairs.erase(it);
+    pairs.erase(it);  // final either way: the input leaves the qubits here
   }
   std::vector<int>().swap(partners[v]);
   single[v] = WideAngle{};
-  return true;
 }
 
 // |v> -> sum_y (-1)^(v y) |y>: the new output variable y of wire w replaces the input on qubit q,

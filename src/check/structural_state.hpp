@@ -16,10 +16,20 @@
 // holds that variable, so at the wire's Hadamard (which must consume the only copy) those terms
 // are final and are compared with what the QFT needs right there.
 //
+// Verdicts. A difference found at a Hadamard is only a suspicion at first: a later gate the proof
+// cannot follow (a second Hadamard on a wire, a parity too wide) could mean the Hadamard was not
+// the wire's QFT Hadamard after all. So the proof notes the first difference and goes on. It
+// calls the circuit wrong only when it followed every gate exactly to the end and the end state is
+// in canonical form (each qubit a constant or one variable, no two alike): the state is then
+// exactly 2^(-n/2) sum_y exp(i phi(x, y)) |y> up to where the outputs sit, the multilinear phase
+// polynomial is unique mod 2 pi (Moebius inversion), and a differing coefficient is a difference
+// of the unitaries. Anything else is "lost track" (cannot prove), for simulation to decide.
+//
 // Variables: 0..n-1 are the inputs of the wires (processing index), n..2n-1 the outputs the
 // wires' Hadamards create (variable n + w for wire w).
 
 #include <cstdint>
+#include <deque>
 #include <string>
 #include <unordered_map>
 #include <utility>
@@ -41,6 +51,21 @@ struct Parity {
   std::uint8_t size = 0;
   std::uint8_t c = 0;
 };
+
+/// A term of wire a's input that differs from the QFT (identity labelling of the outputs): with
+/// the output of wire b (b >= 0), a phase on the input alone (b == kSingle), or with the input of
+/// another wire (b == kInputPair). `got` is the circuit's coefficient, `want` the QFT's.
+struct Difference {
+  static constexpr int kSingle = -1;
+  static constexpr int kInputPair = -2;
+  int a = 0;
+  int b = 0;
+  Angle got;
+  Angle want;
+};
+
+/// At most this many differences are kept for the final comparison (beyond: lost track).
+constexpr std::size_t kMaxDifferences = 1 << 16;
 
 /// A degree-2 term of the phase polynomial.
 struct Term {
@@ -91,8 +116,26 @@ struct StructuralChecker::Impl {
   std::vector<int> cz_partner;    // the other qubit of a held cz, or -1 (kept on both qubits)
   std::vector<int> cz_line;
 
+  // The peephole window (structural_peephole.cpp): gates held back, and per qubit the index (from
+  // the start of the stream) of its last held gate, or below window_start when none.
+  struct Held {
+    Gate g;
+    int line;
+    long prev0, prev1;  // the previous held gate on q0 / q1
+    bool alive;
+  };
+  std::deque<Held> window;
+  long window_start = 0;
+  std::vector<long> window_last;
+  long long gates_cancelled = 0;
+
   bool failed = false;
-  bool inconclusive = false;
+  bool inconclusive = false;  // failed because the proof lost track (not a refutation)
+  std::string suspicion;      // the first difference from the QFT (see "Verdicts" above)
+  int suspicion_line = 0;
+  // Every difference, to decide at the end whether outputs left inverted (X) explain them.
+  std::vector<proof::Difference> differences;
+  bool differences_lost = false;  // too many, or a coefficient too wide to keep
   std::string message;
   int fail_line = 0;
   long long gates = 0;
@@ -105,6 +148,10 @@ struct StructuralChecker::Impl {
   void place_inputs();
   void fail(std::string msg, int line, bool cannot_prove = false);
   void cannot_prove(const std::string& why, int line) { fail("cannot prove: " + why, line, true); }
+  /// Notes a difference from the QFT (the first one is kept) and lets the proof go on.
+  void suspect(std::string msg, int line);
+  /// Notes a difference and keeps its record for the end.
+  void differ(const proof::Difference& d, std::string msg, int line);
 
   // Names for messages. A wire is called by the logical qubit whose input bit it starts with.
   int logical_of_wire(int w) const { return spec.inverse ? w : n - 1 - w; }
@@ -115,10 +162,14 @@ struct StructuralChecker::Impl {
   std::string describe(const Parity& p) const;
   static std::string at_line(int line) { return line > 0 ? " (line " + std::to_string(line) + ")" : ""; }
 
+  void peephole(const Gate& g, int line);
+  void pop_window();
+  void drain_window();
   bool check_qubit(int q, int line);
   bool check_gate_qubits(const Gate& g, int line);
   void feed(const Gate& g, int line);
   void feed_h(int q, int line);
+  bool acts_trivially(const Gate& g) const;
   bool hold_cz(const Gate& g, int line);
   void release(int q);
   void flush_pair(int q);
@@ -126,8 +177,12 @@ struct StructuralChecker::Impl {
 
   CheckResult finish(const std::vector<int>& final_placement);
   void final_checks(const std::vector<int>& fp);
-  void check_no_terms_left();
-  void check_final_placement(const std::vector<int>& fp);
+  std::string leftover_term(int& line) const;
+  std::string final_placement_problem(const std::vector<int>& fp) const;
+  int non_canonical_qubit() const;
+  Angle want(int a, int b) const;
+  bool output_relabelling(const std::vector<int>& fp, std::vector<int>& tau, std::vector<char>& inverted) const;
+  bool relabelling_leaves_a_difference(const std::vector<int>& tau, const std::vector<char>& inverted) const;
 
   // ----- phase_polynomial.cpp: the path-sum state -----
 
@@ -152,8 +207,8 @@ struct StructuralChecker::Impl {
   void hadamard(int q, int line);
   int consumed_input(int q, const Parity& p, int line);
   Window closing_window(int w) const;
-  bool check_closing_phases(int w, Window win, int line);
-  bool clear_terms_of(int w, Window win, int line);
+  void check_closing_phases(int w, Window win, int line);
+  void clear_terms_of(int w, Window win, int line);
   void create_output(int q, const Parity& p, int w, const int* rest, int rest_size, int line);
 };
 

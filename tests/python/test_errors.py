@@ -117,8 +117,26 @@ def test_wrong_circuit_is_a_verdict_not_an_exception(qftplan, tmp_path):
     verdict = qftplan.check_file(path, "line:4", 4)
     assert not verdict and verdict.line is not None
     assert str(verdict) == message
+    assert verdict.outcome == "wrong"
     good = qftplan.check(plan.qasm, "line:4", 4)
-    assert good and good.structural_proved
+    assert good and good.structural_proved and good.outcome == "proved"
+    assert good.lost_track_line is None and good.lost_track_reason is None
+
+
+def test_check_outcomes_of_equivalent_rewrites(qftplan):
+    # Issue 21: 'h h' is the identity (H^2 = I: Nielsen and Chuang, 2000, section 4.2). In a cz file an
+    # inserted pair may make the structural proof lose track; simulation of every basis input then
+    # proves the circuit, and with simulation switched off (more qubits than the limit would do the
+    # same) the verdict is "cannot prove", never "wrong".
+    plan = qftplan.plan("line:5", 5, gates="cz")
+    lines = plan.qasm.splitlines(keepends=True)
+    for at in range(len(lines)):
+        if not lines[at].startswith("h "):
+            continue
+        text = "".join(lines[: at + 1]) + "h $3;\nh $3;\n" + "".join(lines[at + 1 :])
+        verdict = qftplan.check(text, "line:5", 5)
+        assert verdict.outcome == "proved", (at, str(verdict))
+        assert verdict and (verdict.structural_proved or verdict.exhaustive)
 
 
 def test_wrong_argument_types(qftplan):

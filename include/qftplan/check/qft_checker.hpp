@@ -26,22 +26,39 @@ struct CheckRequest {
   const std::atomic<bool>* interrupt = nullptr;  ///< when set and true: throw Interrupted (run_budget.hpp)
 };
 
-/// Outcome. `ok` false comes with the first offending gate's line (0 when not tied to a line).
+/// The three verdicts of a check.
+enum class CheckOutcome {
+  proved,        ///< the structural proof passed, or every basis input was simulated and matched
+  wrong,         ///< refuted: a counterexample input, a gate on a non-coupler, or a certain structural fact
+  cannot_prove,  ///< the structural proof lost track and the register is too large to simulate exhaustively
+};
+
+/// The name of an outcome as printed: "proved", "wrong", "cannot prove".
+const char* outcome_name(CheckOutcome o);
+
+/// Verdict. `ok` is true exactly when `outcome` is proved; a wrong circuit comes with the first
+/// offending gate's line (0 when not tied to a line).
 struct CheckResult {
   bool ok = true;
-  std::string message;               ///< why it failed, or a one-line account of what was proved
+  CheckOutcome outcome = CheckOutcome::proved;  ///< the verdict; `ok` == (outcome == proved)
+  std::string message;               ///< the counterexample, why it cannot be proved, or what was proved
   int line = 0;
   bool structural_proved = false;    ///< the structural proof ran and passed
   bool simulated = false;            ///< the state-vector comparison ran and passed
-  /// The structural proof met a construct it cannot reason about (sx, wide parities, phases of
-  /// degree > 2): "cannot prove", not a refutation. Set with `ok` false unless simulation passed.
+  bool exhaustive = false;           ///< the simulation covered every basis input (a proof by itself)
+  /// The structural proof lost track (sx, wide parities, phases of degree > 2, a Hadamard it
+  /// cannot pair with a wire): not a refutation. Also set when simulation then decided.
   bool inconclusive = false;
+  int lost_track_line = 0;           ///< where the structural proof lost track (0: at the end, or never)
+  std::string lost_track_reason;     ///< why it lost track (empty when it did not)
 };
 
 /// Streaming structural proof: tracks the parity (GF(2)-linear function of the input and
 /// Hadamard-output variables) held by every physical qubit and the phase polynomial in monomial
 /// form, and at every Hadamard requires exactly the controlled phases the QFT order demands.
-/// Handles h, x, rz, p, cx, cz, cp, swap and cp_swap, and h-cz-h sandwiches written as cz.
+/// Handles h, x, rz, p, cx, cz, cp, swap and cp_swap, and h-cz-h sandwiches written as cz. Its
+/// finish() returns proved, wrong (only when the proof followed the circuit exactly to the end,
+/// so that the difference it found is certain) or cannot_prove (it lost track: see inconclusive).
 class StructuralChecker final : public GateSink {
  public:
   /// `device` must outlive the checker; `placement[k]` is the qubit holding input bit k.
