@@ -27,6 +27,8 @@
 #include <random>
 
 #include "qftplan/check/qft_checker.hpp"
+#include "qftplan/core/input_error.hpp"
+#include "qftplan/qasm/qasm_writer.hpp"
 #include "qftplan/check/statevector.hpp"
 #include "qftplan/device/device.hpp"
 #include "qftplan/networks/chain_qft.hpp"
@@ -798,6 +800,39 @@ TEST(QftChecker, AngleText) {
   EXPECT_EQ(angle_text(Angle(-3, 5)), "-3*pi/32");
   EXPECT_EQ(angle_text(Angle(1, 40)), "pi/2**40");
   EXPECT_EQ(angle_text(Angle()), "0");
+}
+
+}  // namespace
+}  // namespace qftplan
+
+namespace qftplan {
+namespace {
+
+// Issue 15, item 4: the transform a file says it holds is what it is checked against unless the
+// caller says otherwise; a disagreement is named. The header text is our writer's (describe_transform).
+TEST(CheckTransform, ReadFromTheHeaderAndOverriddenByTheCaller) {
+  for (const QftSpec spec : {QftSpec{5, std::nullopt, false}, QftSpec{6, 3, true}, QftSpec{1, std::nullopt, true}}) {
+    const auto back = parse_transform(describe_transform(spec));
+    ASSERT_TRUE(back.has_value()) << describe_transform(spec);
+    EXPECT_EQ(back->qubits, spec.qubits);
+    EXPECT_EQ(back->approx_degree, spec.approx_degree);
+    EXPECT_EQ(back->inverse, spec.inverse);
+  }
+  EXPECT_FALSE(parse_transform("QFT on many qubits, exact"));
+  EXPECT_FALSE(parse_transform("QFT on 4 qubits, exact and more"));
+  QasmProgram prog;
+  prog.transform = "inverse QFT on 6 qubits, approximate (degree 3)";
+  const CheckTransform from_header = check_transform(prog, std::nullopt, std::nullopt, std::nullopt);
+  EXPECT_EQ(from_header.spec.qubits, 6);
+  EXPECT_EQ(from_header.spec.approx_degree, 3);
+  EXPECT_TRUE(from_header.spec.inverse);
+  EXPECT_TRUE(from_header.mismatch.empty());
+  const CheckTransform forward = check_transform(prog, 6, std::nullopt, false);
+  EXPECT_FALSE(forward.spec.inverse);
+  EXPECT_NE(forward.mismatch.find("the file's header says inverse QFT on 6 qubits"), std::string::npos) << forward.mismatch;
+  QasmProgram bare;
+  EXPECT_THROW(check_transform(bare, std::nullopt, std::nullopt, std::nullopt), SettingError);
+  EXPECT_EQ(check_transform(bare, 4, std::nullopt, std::nullopt).spec.qubits, 4);
 }
 
 }  // namespace

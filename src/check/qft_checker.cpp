@@ -7,8 +7,12 @@
 #include <string>
 #include <vector>
 
+#include <fmt/format.h>
+
 #include "qftplan/check/qft_checker.hpp"
+#include "qftplan/core/input_error.hpp"
 #include "qftplan/core/run_budget.hpp"
+#include "qftplan/qasm/qasm_writer.hpp"
 #include "statevector_check.hpp"
 
 namespace qftplan {
@@ -127,6 +131,29 @@ CheckResult decided_by_simulation(const std::optional<CheckResult>& lost, const 
 }
 
 }  // namespace
+
+CheckTransform check_transform(const QasmProgram& program, std::optional<int> qubits,
+                               std::optional<std::optional<int>> degree, std::optional<bool> inverse) {
+  const std::optional<QftSpec> header = program.transform ? parse_transform(*program.transform) : std::nullopt;
+  if (!qubits && !header)
+    throw SettingError("qubits", " is needed: the file has no '// transform:' header comment naming the register");
+  CheckTransform out;
+  out.spec = header.value_or(QftSpec{});
+  if (qubits) out.spec.qubits = *qubits;
+  if (degree) out.spec.approx_degree = *degree;
+  if (inverse) out.spec.inverse = *inverse;
+  // A degree that drops nothing is the exact transform (both spellings name the same circuit).
+  const auto effective = [](QftSpec s) {
+    if (s.approx_degree && *s.approx_degree >= s.qubits) s.approx_degree.reset();
+    return s;
+  };
+  if (header && (effective(*header).qubits != effective(out.spec).qubits ||
+                 effective(*header).approx_degree != effective(out.spec).approx_degree ||
+                 header->inverse != out.spec.inverse))
+    out.mismatch = fmt::format("the file's header says {}, but the check asks for {}", describe_transform(*header),
+                               describe_transform(out.spec));
+  return out;
+}
 
 CheckResult check_qft_circuit(const Device& device, const QasmProgram& program, const CheckRequest& request) {
   const int n = request.spec.qubits;

@@ -73,6 +73,10 @@ void Lexer::header_comment(const char* eol) {
   } else if (key("placement:")) {
     if (header_.placement) fail(here(), "second '// placement:' comment");
     header_.placement = int_list(s, e, "placement");
+  } else if (key("transform:")) {
+    while (s < e && (*s == ' ' || *s == '\t')) ++s;
+    if (header_.transform) fail(here(), "second '// transform:' comment");
+    header_.transform = std::string(s, e);
   } else if (key("final_placement:")) {
     if (header_.final_placement) fail(here(), "second '// final_placement:' comment");
     header_.final_placement = int_list(s, e, "final_placement");

@@ -33,6 +33,7 @@ struct HeaderComments {
   std::optional<std::string> device_name;           ///< from "// device: NAME"
   std::optional<std::vector<int>> placement;        ///< from "// placement: a,b,c"
   std::optional<std::vector<int>> final_placement;  ///< from "// final_placement: a,b,c"
+  std::optional<std::string> transform;             ///< from "// transform: TEXT"
 };
 
 /// Reads tokens from one buffer; every error is an InputError at a line and column of `source`.

@@ -56,6 +56,7 @@ QasmProgram StatementReader::run() {
   prog_.device_name = std::move(header_.device_name);
   prog_.placement = std::move(header_.placement);
   prog_.final_placement = std::move(header_.final_placement);
+  prog_.transform = std::move(header_.transform);
   prog_.inexact_angle = std::move(inexact_angle_);
   return std::move(prog_);
 }

@@ -67,6 +67,28 @@ std::string describe_transform(const QftSpec& spec) {
   return s;
 }
 
+std::optional<QftSpec> parse_transform(std::string_view text) {
+  QftSpec spec;
+  const auto take = [&text](std::string_view word) {
+    if (!text.starts_with(word)) return false;
+    text.remove_prefix(word.size());
+    return true;
+  };
+  const auto number = [&text](int& out) {
+    const auto [end, ec] = std::from_chars(text.data(), text.data() + text.size(), out);
+    if (ec != std::errc() || out < 1) return false;
+    text.remove_prefix(static_cast<std::size_t>(end - text.data()));
+    return true;
+  };
+  spec.inverse = take("inverse ");
+  if (!take("QFT on ") || !number(spec.qubits) || !(take(" qubits, ") || take(" qubit, "))) return std::nullopt;
+  if (take("exact")) return text.empty() ? std::optional(spec) : std::nullopt;
+  int degree = 0;
+  if (!take("approximate (degree ") || !number(degree) || !take(")") || !text.empty()) return std::nullopt;
+  spec.approx_degree = degree;
+  return spec;
+}
+
 QasmWriter::QasmWriter(QasmVersion version, const CircuitHeader& h, TextOutput& out)
     : version_(version), out_(out), buf_(kFlushBytes) {
   // The text tables: every qubit of the device (up to a million: 16 MB at most), and the angles

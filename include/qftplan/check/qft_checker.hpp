@@ -80,6 +80,19 @@ class StructuralChecker final : public GateSink {
 /// Checks a parsed program: couplers, then the structural proof and/or state-vector simulation.
 CheckResult check_qft_circuit(const Device& device, const QasmProgram& program, const CheckRequest& request);
 
+/// The transform to check a file against, settled from what the caller gives and what the file's
+/// "// transform:" header says.
+struct CheckTransform {
+  QftSpec spec;            ///< what to check against
+  std::string mismatch;    ///< where the caller's settings differ from the header (empty: they agree)
+};
+
+/// Each setting the caller gives wins (`qubits`; `degree`, whose inner nullopt means exact;
+/// `inverse`); the others come from the header. SettingError when the register size is given by
+/// neither; a header that names no transform in our form counts as absent.
+CheckTransform check_transform(const QasmProgram& program, std::optional<int> qubits,
+                               std::optional<std::optional<int>> degree, std::optional<bool> inverse);
+
 /// The exact QFT of a logical state vector (index bit k = bit k of the register): forward
 /// b_y = 2^(-n/2) sum_j exp(+2 pi i j y / 2^n) a_j, inverse with the opposite sign. Radix-2 FFT.
 std::vector<std::complex<double>> exact_qft(std::vector<std::complex<double>> a, bool inverse);

@@ -21,6 +21,7 @@ struct QasmProgram {
   std::optional<std::string> device_name;            ///< from "// device: NAME"
   std::optional<std::vector<int>> placement;         ///< from "// placement: a,b,c"
   std::optional<std::vector<int>> final_placement;   ///< from "// final_placement: a,b,c"
+  std::optional<std::string> transform;              ///< from "// transform: inverse QFT on 4 qubits, exact"
   /// The first angle that is no multiple of pi/2^k (such a gate is kept with angle 0): the file is
   /// readable, but no QFT check can pass it (check_qft_circuit says so with this line).
   struct InexactAngle {

@@ -5,6 +5,7 @@
 #include <map>
 #include <memory>
 #include <string>
+#include <optional>
 #include <string_view>
 #include <vector>
 
@@ -74,5 +75,9 @@ class QasmWriter final : public GateSink {
 /// The human-readable description of the transform used in headers and summaries,
 /// e.g. "inverse QFT on 8 qubits, approximate (degree 3)".
 std::string describe_transform(const QftSpec& spec);
+
+/// The transform a header's "// transform:" text names (the inverse of describe_transform), or
+/// nullopt when the text is not in that form.
+std::optional<QftSpec> parse_transform(std::string_view text);
 
 }  // namespace qftplan
