@@ -75,14 +75,7 @@ std::vector<SurveyRow> run(const py::object& devices, const py::object& qubits, 
   req.directions = directions_arg(inverse);
   req.strategies = parse_name_list(joined(strategy, str_text), "strategy");
   // The same check and message as `qftplan survey`.
-  for (const auto& s : req.strategies) {
-    const auto& table = plan_strategies();
-    if (std::none_of(table.begin(), table.end(), [&](const StrategyInfo& i) { return s == i.name; })) {
-      std::string known;
-      for (const auto& i : table) known += (known.empty() ? "" : ", ") + std::string(i.name);
-      throw InputError("strategy: unknown strategy '" + s + "' (known: " + known + ")");
-    }
-  }
+  check_strategy_names(req.strategies);
   req.seed = seed;
   // Like the command line: every core unless told otherwise.
   const int jobs = jobs_arg.value_or(default_survey_jobs());

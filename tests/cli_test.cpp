@@ -259,5 +259,48 @@ TEST(Cli, DeviceOutputLoadsBackIdentically) {
   std::filesystem::remove_all(dir);
 }
 
+// Issue 15, items 6 and 8: a mistyped option is named with the nearest real one; a plan written to a
+// file still prints its summary (on standard error when the circuit goes to standard output), unless
+// --quiet.
+TEST(Cli, TyposAreNamedWithTheNearestOption) {
+  const auto r = run_qftplan("plan --device line:4 --qubits 3 --aprox 3");
+  EXPECT_EQ(r.status, 2);
+  EXPECT_EQ(r.err, "qftplan: unknown option --aprox; did you mean --approx? (see qftplan help plan)\n");
+  const auto far = run_qftplan("plan --device line:4 --qubits 3 --frobnicate");
+  EXPECT_EQ(far.err, "qftplan: unknown option --frobnicate (see qftplan help plan)\n");
+}
+
+TEST(Cli, WrittenPlansPrintTheirSummary) {
+  const auto dir = temp_dir();
+  const std::string file = (dir / "c.qasm").string();
+  const auto r = run_qftplan("plan --device line:5 --qubits 5 -o '" + file + "'");
+  EXPECT_EQ(r.status, 0) << r.err;
+  EXPECT_NE(r.out.find("QFT on 5 qubits, exact on line:5"), std::string::npos) << r.out;
+  const auto piped = run_qftplan("plan --device line:5 --qubits 5 -o -");
+  EXPECT_EQ(piped.out.rfind("OPENQASM 3.0;", 0), 0u) << piped.out.substr(0, 80);
+  EXPECT_NE(piped.err.find("QFT on 5 qubits"), std::string::npos) << piped.err;
+  const auto quiet = run_qftplan("plan --device line:5 --qubits 5 --quiet -o '" + file + "'");
+  EXPECT_TRUE(quiet.out.empty()) << quiet.out;
+  std::filesystem::remove_all(dir);
+}
+
+// Issue 15, item 4: check reads the transform from the file's header; options override it, and a
+// disagreement is said.
+TEST(Cli, CheckTakesTheTransformFromTheHeader) {
+  const auto dir = temp_dir();
+  const std::string file = (dir / "inv.qasm").string();
+  ASSERT_EQ(run_qftplan("plan --device line:6 --qubits 6 --inverse --approx 3 --quiet -o '" + file + "'").status, 0);
+  const auto r = run_qftplan("check '" + file + "' --device line:6");
+  EXPECT_EQ(r.status, 0) << r.err;
+  EXPECT_NE(r.out.find("inverse QFT on 6 qubits"), std::string::npos) << r.out;
+  const auto forward = run_qftplan("check '" + file + "' --device line:6 --forward");
+  EXPECT_NE(forward.status, 0);
+  EXPECT_NE(forward.err.find("warning: the file's header says inverse QFT on 6 qubits, approximate (degree 3), but the "
+                             "check asks for QFT on 6 qubits"),
+            std::string::npos)
+      << forward.err;
+  std::filesystem::remove_all(dir);
+}
+
 }  // namespace
 }  // namespace qftplan

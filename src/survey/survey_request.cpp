@@ -208,4 +208,14 @@ std::string survey_fingerprint(const SurveyRequest& request) {
   return fmt::format("{:016x}", h);
 }
 
+void check_strategy_names(const std::vector<std::string>& names) {
+  for (const auto& name : names) {
+    try {
+      find_strategy(name);
+    } catch (const InputError& e) {
+      throw SettingError("strategy", std::string(": ") + e.what());
+    }
+  }
+}
+
 }  // namespace qftplan

@@ -76,6 +76,10 @@ std::vector<ApproxSetting> parse_approx_list(const std::string& text);
 /// Parses a comma-separated list of names (strategies), rejecting empty items.
 std::vector<std::string> parse_name_list(const std::string& text, const std::string& what);
 
+/// Checks every name against the strategy registry; SettingError on the "strategy" setting with the
+/// registry's one unknown-strategy message otherwise.
+void check_strategy_names(const std::vector<std::string>& names);
+
 /// Parses "K/M" with 1 <= K <= M; InputError otherwise.
 SurveyShard parse_shard(const std::string& text);
 
