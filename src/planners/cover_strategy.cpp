@@ -40,17 +40,9 @@ PreparedPlan prepare_cover(const Device& device, const PlanOptions& options) {
   const CoverRegion region = cover_region(device, plan.spec.qubits, options.search.seed, options.budget);
   if (options.auto_approx) {
     // Each degree is scored on the circuit it gives (the walks do not depend on the degree).
-    const auto cost = [&](std::optional<int> degree) {
-      QftSpec s = plan.spec;
-      s.approx_degree = degree;
-      const auto c = make_gate_list_circuit(s, cheapest_cascade(device, s, region, options), "cover");
-      const CircuitFigures f = count_circuit(device, *c, {gate_set_of(device.native_2q())}, nullptr);
-      return DegreeCost{f.noise.log_esp, f.cx_count};
-    };
-    bool cut = false;
-    plan.degree_choice = choose_degree(plan.spec.qubits, true, cost, &cut);
-    if (cut) note_cut_short(plan, "the approximation-degree scoring");
-    plan.spec.approx_degree = plan.degree_choice->chosen;
+    choose_degree_by_counting(device, plan, false, [&](const QftSpec& s) {
+      return make_gate_list_circuit(s, cheapest_cascade(device, s, region, options), "cover");
+    });
   }
   RoutedCircuit circuit = cheapest_cascade(device, plan.spec, region, options);
   // The bound covers the cascade; SWAPs that restore the order are outside it (no bound claimed).

@@ -43,4 +43,18 @@ DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCo
   return out;
 }
 
+void choose_degree_by_counting(const Device& device, PreparedPlan& plan, bool measure,
+                               const std::function<std::shared_ptr<const PlannedCircuit>(const QftSpec&)>& make) {
+  const auto cost = [&](std::optional<int> degree) {
+    QftSpec s = plan.spec;
+    s.approx_degree = degree;
+    const CircuitFigures f = count_circuit(device, *make(s), {gate_set_of(device.native_2q()), measure}, nullptr);
+    return DegreeCost{f.noise.log_esp, f.cx_count};
+  };
+  bool cut = false;
+  plan.degree_choice = choose_degree(plan.spec.qubits, true, cost, &cut);
+  if (cut) note_cut_short(plan, "the approximation-degree scoring");
+  plan.spec.approx_degree = plan.degree_choice->chosen;
+}
+
 }  // namespace qftplan

@@ -15,17 +15,8 @@ PreparedPlan prepare_routed(const Device& device, const PlanOptions& options) {
   if (!ro.budget) ro.budget = options.budget;
   if (options.auto_approx) {
     // Each degree is scored by routing it and streaming the gate list through the counters.
-    const auto cost = [&](std::optional<int> degree) {
-      QftSpec s = plan.spec;
-      s.approx_degree = degree;
-      const auto c = make_gate_list_circuit(s, route_qft(device, s, ro));
-      const CircuitFigures f = count_circuit(device, *c, {gate_set_of(device.native_2q())}, nullptr);
-      return DegreeCost{f.noise.log_esp, f.cx_count};
-    };
-    bool cut = false;
-    plan.degree_choice = choose_degree(plan.spec.qubits, true, cost, &cut);
-    if (cut) note_cut_short(plan, "the approximation-degree scoring");
-    plan.spec.approx_degree = plan.degree_choice->chosen;
+    choose_degree_by_counting(device, plan, false,
+                              [&](const QftSpec& s) { return make_gate_list_circuit(s, route_qft(device, s, ro)); });
   }
   RoutedCircuit routed = route_qft(device, plan.spec, ro);
   if (options.end_order == EndOrder::same) plan.end_swaps = restore_order(device, routed.gates, routed.maps);

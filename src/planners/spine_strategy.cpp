@@ -41,20 +41,13 @@ PreparedPlan prepare_spine(const Device& device, const PlanOptions& options) {
     throw PlanningError("the register fits on one chain: the chain strategy covers it");
   if (!options.auto_approx) return spine_plan(device, options, layout, spec);
   // Each degree is scored by streaming its spine plan through the counters.
-  const auto cost = [&](std::optional<int> degree) {
-    QftSpec s = spec;
-    s.approx_degree = degree;
-    const auto p = spine_plan(device, options, layout, s);
-    const CircuitFigures f =
-        count_circuit(device, *p.circuit, {gate_set_of(device.native_2q()), options.measure}, nullptr);
-    return DegreeCost{f.noise.log_esp, f.cx_count};
-  };
-  bool cut = false;
-  const DegreeChoice choice = choose_degree(spec.qubits, true, cost, &cut);
-  spec.approx_degree = choice.chosen;
-  PreparedPlan plan = spine_plan(device, options, layout, spec);
-  plan.degree_choice = choice;
-  if (cut) note_cut_short(plan, "the approximation-degree scoring");
+  PreparedPlan scored;
+  scored.spec = spec;
+  choose_degree_by_counting(device, scored, options.measure,
+                            [&](const QftSpec& s) { return spine_plan(device, options, layout, s).circuit; });
+  PreparedPlan plan = spine_plan(device, options, layout, scored.spec);
+  plan.degree_choice = scored.degree_choice;
+  plan.cut_short = scored.cut_short;
   return plan;
 }
 

@@ -39,4 +39,10 @@ struct DegreeCost {
 DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCost(std::optional<int>)>& cost,
                            bool* cut);
 
+/// choose_degree for a strategy that builds its whole circuit per degree: `make(spec)` gives the circuit,
+/// scored by streaming it through the counters (with the final measurement when `measure`). Sets
+/// plan.degree_choice and plan.spec's degree, and notes a cut.
+void choose_degree_by_counting(const Device& device, PreparedPlan& plan, bool measure,
+                               const std::function<std::shared_ptr<const PlannedCircuit>(const QftSpec&)>& make);
+
 }  // namespace qftplan
