@@ -27,13 +27,17 @@
 #include <random>
 
 #include "qftplan/check/qft_checker.hpp"
-#include "qftplan/core/input_error.hpp"
-#include "qftplan/qasm/qasm_writer.hpp"
 #include "qftplan/check/statevector.hpp"
+#include "qftplan/core/input_error.hpp"
 #include "qftplan/device/device.hpp"
 #include "qftplan/networks/chain_qft.hpp"
 #include "qftplan/qasm/qasm_program.hpp"
 #include "qftplan/sinks/native_gates.hpp"
+#include "test_support.hpp"
+#include "qftplan/device/lattices.hpp"
+#include "qftplan/report/circuit_header.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/qasm/qasm_writer.hpp"
 
 namespace qftplan {
 namespace {
@@ -833,6 +837,54 @@ TEST(CheckTransform, ReadFromTheHeaderAndOverriddenByTheCaller) {
   QasmProgram bare;
   EXPECT_THROW(check_transform(bare, std::nullopt, std::nullopt, std::nullopt), SettingError);
   EXPECT_EQ(check_transform(bare, 4, std::nullopt, std::nullopt).spec.qubits, 4);
+}
+
+}  // namespace
+}  // namespace qftplan
+
+namespace qftplan {
+namespace {
+
+// Issue 15, item 3: the streamed check (no gate list kept; used for files of many gigabytes) gives
+// the structural proof's verdict: proved for our plans, wrong for a damaged angle, and it reads the
+// transform and maps from the header through the caller's settle function.
+TEST(CheckStreaming, SameVerdictsAsTheStoredProgram) {
+  const auto dir = testing::temp_dir();
+  for (const std::string gates : {"logical", "cx", "cz"})
+    for (bool inverse : {false, true}) {
+      const Device dev = make_lattice("line:7");
+      PlanOptions opt;
+      opt.spec.qubits = 7;
+      opt.spec.inverse = inverse;
+      opt.gates = parse_gate_set(gates);
+      const PreparedPlan plan = prepare_plan(dev, opt);
+      StringOutput text;
+      QasmWriter w(QasmVersion::v3, circuit_header(dev, opt, plan), text);
+      execute_plan(dev, opt, plan, &w);
+      const auto path = dir / ("p-" + gates + (inverse ? "-inv" : "") + ".qasm");
+      testing::write_file(path, text.text());
+      const auto settle = [](const QasmProgram& header) {
+        CheckRequest req;
+        req.spec = *parse_transform(*header.transform);
+        req.placement = *header.placement;
+        req.final_placement = *header.final_placement;
+        return req;
+      };
+      const CheckResult streamed = check_qft_file_streaming(dev, path.string(), settle, nullptr);
+      EXPECT_EQ(streamed.outcome, CheckOutcome::proved) << gates << " " << streamed.message;
+      // A damaged angle: the stored check and the streamed one agree that it is not proved.
+      std::string bad = text.text();
+      const auto at = bad.find("pi/2**2");
+      ASSERT_NE(at, std::string::npos);
+      bad.replace(at, 7, "pi/2**3");
+      testing::write_file(path, bad);
+      const CheckResult damaged = check_qft_file_streaming(dev, path.string(), settle, nullptr);
+      EXPECT_NE(damaged.outcome, CheckOutcome::proved) << gates;
+      CheckRequest req = settle(parse_qasm(bad, "<memory>"));
+      req.statevector_limit = 0;
+      EXPECT_EQ(check_qft_circuit(dev, parse_qasm(bad, "<memory>"), req).outcome, damaged.outcome) << gates;
+    }
+  std::filesystem::remove_all(dir);
 }
 
 }  // namespace

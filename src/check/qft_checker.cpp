@@ -12,6 +12,7 @@
 #include "qftplan/check/qft_checker.hpp"
 #include "qftplan/core/input_error.hpp"
 #include "qftplan/core/run_budget.hpp"
+#include "qftplan/qasm/qasm_program.hpp"
 #include "qftplan/qasm/qasm_writer.hpp"
 #include "statevector_check.hpp"
 
@@ -131,6 +132,46 @@ CheckResult decided_by_simulation(const std::optional<CheckResult>& lost, const 
 }
 
 }  // namespace
+
+namespace {
+
+// The structural proof fed straight from the reader.
+class ProofStream final : public QasmGateStream {
+ public:
+  ProofStream(const Device& device, const std::function<CheckRequest(const QasmProgram&)>& settle)
+      : device_(device), settle_(settle) {}
+  void begin(const QasmProgram& header) override {
+    request_ = settle_(header);
+    proof_.emplace(device_, request_.spec, request_.placement);
+  }
+  void gate(const Gate& g, int line) override {
+    // A failure found is final: the rest of the file need not be proved.
+    if (!proof_->failed()) proof_->gate(g, line);
+  }
+  // The verdict once the whole file is read (`program`: its header and notes, no gates).
+  CheckResult finish(const QasmProgram& program) {
+    if (!proof_) begin(program);  // a file without gates
+    if (program.inexact_angle)
+      return cannot_prove("cannot prove: " + program.inexact_angle->message, program.inexact_angle->line);
+    return proof_->finish(request_.final_placement);
+  }
+
+ private:
+  const Device& device_;
+  const std::function<CheckRequest(const QasmProgram&)>& settle_;
+  CheckRequest request_;
+  std::optional<StructuralChecker> proof_;
+};
+
+}  // namespace
+
+CheckResult check_qft_file_streaming(const Device& device, const std::string& path,
+                                     const std::function<CheckRequest(const QasmProgram& header)>& settle,
+                                     const std::atomic<bool>* interrupt) {
+  ProofStream stream(device, settle);
+  const QasmProgram program = stream_qasm_file(path, stream, interrupt);
+  return stream.finish(program);
+}
 
 CheckTransform check_transform(const QasmProgram& program, std::optional<int> qubits,
                                std::optional<std::optional<int>> degree, std::optional<bool> inverse) {

@@ -170,8 +170,8 @@ void StatementReader::call_user_broadcast(const UserGate& g, std::string_view na
   // expanding it (nested definitions can double at every level).
   const std::uint64_t call_size = std::min<std::uint64_t>(g.size, kMaxGates + 1) * static_cast<std::uint64_t>(reps);
   if (!sc.eval) count_in_definition(call_size);
-  else if (prog_.gates.size() + call_size > kMaxGates)
-    fail(at, "gate " + std::string(name) + " expands to more than " + std::to_string(kMaxGates) + " gates in all");
+  else if (emitted_ + call_size > limit_)
+    fail(at, "gate " + std::string(name) + " expands to more than " + std::to_string(limit_) + " gates in all");
 
   std::vector<int> qs(ops.size());
   for (int i = 0; i < reps; ++i) {

@@ -42,14 +42,18 @@ QasmProgram StatementReader::run() {
   if (end_ - p_ >= 3 && std::memcmp(p_, "\xEF\xBB\xBF", 3) == 0) p_ += 3, line_start_ = p_;
   // About one gate per 16 bytes of text at most; reserving up front avoids regrowth copies, and
   // huge pages cut the page faults of first touch (most of the time on big files).
-  prog_.gates.reserve(static_cast<std::size_t>((end_ - begin_) / 16));
-  prog_.gate_lines.reserve(prog_.gates.capacity());
-  advise_huge_pages(prog_.gates.data(), prog_.gates.capacity() * sizeof(Gate));
-  advise_huge_pages(prog_.gate_lines.data(), prog_.gate_lines.capacity() * sizeof(int));
+  if (!stream_) {
+    prog_.gates.reserve(static_cast<std::size_t>((end_ - begin_) / 16));
+    prog_.gate_lines.reserve(prog_.gates.capacity());
+    advise_huge_pages(prog_.gates.data(), prog_.gates.capacity() * sizeof(Gate));
+    advise_huge_pages(prog_.gate_lines.data(), prog_.gate_lines.capacity() * sizeof(int));
+  }
+  released_ = begin_;
   for (;;) {
     skip_ws();
     if (p_ >= end_) break;
     statement();
+    if (stream_) release_read_pages();
   }
   prog_.version = version_ == 0 ? 3 : version_;
   prog_.qubit_count = std::max(qubit_total_, max_physical_ + 1);
@@ -61,6 +65,28 @@ QasmProgram StatementReader::run() {
   return std::move(prog_);
 }
 
+QasmProgram StatementReader::header_program() const {
+  QasmProgram h;
+  h.version = version_ == 0 ? 3 : version_;
+  h.device_name = header_.device_name;
+  h.placement = header_.placement;
+  h.final_placement = header_.final_placement;
+  h.transform = header_.transform;
+  return h;
+}
+
+void StatementReader::release_read_pages() {
+  // Every 64 MiB of text: the pages wholly behind the read position are dropped from memory (a
+  // user gate's body read again later is simply faulted back in from the file).
+  constexpr std::ptrdiff_t kStep = std::ptrdiff_t{64} << 20;
+  if (p_ - released_ < kStep) return;
+  const auto page = static_cast<std::uintptr_t>(::sysconf(_SC_PAGESIZE));
+  const auto from = reinterpret_cast<std::uintptr_t>(released_) & ~(page - 1);
+  const auto to = reinterpret_cast<std::uintptr_t>(p_) & ~(page - 1);
+  if (to > from) ::madvise(reinterpret_cast<void*>(from), to - from, MADV_DONTNEED);
+  released_ = p_;
+}
+
 }  // namespace qasm_detail
 
 QasmProgram parse_qasm(const std::string& text, const std::string& source, const std::atomic<bool>* interrupt) {
@@ -68,8 +94,11 @@ QasmProgram parse_qasm(const std::string& text, const std::string& source, const
   return r.run();
 }
 
-QasmProgram load_qasm_file(const std::string& path, const std::atomic<bool>* interrupt) {
-  // Map the file instead of copying it: big circuits are tens of megabytes.
+namespace {
+
+// Maps the file at `path` and runs a reader over it; `populate` reads every page in up front (fast
+// for a program kept whole), a streaming read leaves pages to be faulted in and released in turn.
+QasmProgram read_mapped(const std::string& path, const std::atomic<bool>* interrupt, QasmGateStream* stream) {
   const int fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
   if (fd < 0) throw InputError(path, 0, 0, std::string("cannot open file: ") + std::strerror(errno));
   struct stat st {};
@@ -80,9 +109,10 @@ QasmProgram load_qasm_file(const std::string& path, const std::atomic<bool>* int
   const auto size = static_cast<std::size_t>(st.st_size);
   if (size == 0) {
     ::close(fd);
-    return parse_qasm(std::string(), path, interrupt);
+    qasm_detail::StatementReader r("", 0, path, interrupt, stream);
+    return r.run();
   }
-  void* map = ::mmap(nullptr, size, PROT_READ, MAP_PRIVATE | MAP_POPULATE, fd, 0);
+  void* map = ::mmap(nullptr, size, PROT_READ, MAP_PRIVATE | (stream ? 0 : MAP_POPULATE), fd, 0);
   ::close(fd);
   if (map == MAP_FAILED) throw InputError(path, 0, 0, std::string("cannot read file: ") + std::strerror(errno));
   struct Unmap {
@@ -90,8 +120,20 @@ QasmProgram load_qasm_file(const std::string& path, const std::atomic<bool>* int
     std::size_t n;
     ~Unmap() { ::munmap(p, n); }
   } unmap{map, size};
-  qasm_detail::StatementReader r(static_cast<const char*>(map), size, path, interrupt);
+  if (stream) ::madvise(map, size, MADV_SEQUENTIAL);
+  qasm_detail::StatementReader r(static_cast<const char*>(map), size, path, interrupt, stream);
   return r.run();
+}
+
+}  // namespace
+
+QasmProgram load_qasm_file(const std::string& path, const std::atomic<bool>* interrupt) {
+  // Map the file instead of copying it: big circuits are tens of megabytes.
+  return read_mapped(path, interrupt, nullptr);
+}
+
+QasmProgram stream_qasm_file(const std::string& path, QasmGateStream& stream, const std::atomic<bool>* interrupt) {
+  return read_mapped(path, interrupt, &stream);
 }
 
 }  // namespace qftplan

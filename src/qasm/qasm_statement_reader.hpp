@@ -27,6 +27,8 @@ namespace qftplan::qasm_detail {
 inline constexpr int kMaxQubits = 1'000'000;
 /// Gates a file may produce, against exponential inlining of gate definitions.
 inline constexpr std::size_t kMaxGates = 100'000'000;
+/// A streamed file keeps no gates: only time bounds it (an 8192-qubit exact QFT is about 10^8 gates).
+inline constexpr std::size_t kMaxStreamedGates = 100'000'000'000;
 
 /// A declared qubit or bit register.
 struct Register {
@@ -56,8 +58,10 @@ using NameEq = std::equal_to<>;
 class StatementReader : protected ExpressionReader {
  public:
   /// Reads `size` bytes at `data` (named `source` in messages); polls `interrupt` when given.
-  StatementReader(const char* data, std::size_t size, const std::string& source, const std::atomic<bool>* interrupt)
-      : ExpressionReader(data, size, source), interrupt_(interrupt) {}
+  StatementReader(const char* data, std::size_t size, const std::string& source, const std::atomic<bool>* interrupt,
+                  QasmGateStream* stream = nullptr)
+      : ExpressionReader(data, size, source), interrupt_(interrupt), stream_(stream),
+        limit_(stream ? kMaxStreamedGates : kMaxGates) {}
 
   /// Reads every statement; throws InputError at the first fault.
   QasmProgram run();
@@ -105,16 +109,28 @@ class StatementReader : protected ExpressionReader {
 
   // Appends one gate (inline: once per gate of the file).
   void emit(const Gate& g, int line) {
-    if (prog_.gates.size() >= kMaxGates)
-      throw InputError(source_, line, 0, "more than " + std::to_string(kMaxGates) + " gates");
+    if (emitted_ >= limit_) throw InputError(source_, line, 0, "more than " + std::to_string(limit_) + " gates");
     // Ctrl-C while reading a big file (every 65536 gates: an atomic load is cheap, not free).
-    if (interrupt_ && (prog_.gates.size() & 0xffff) == 0 && interrupt_->load(std::memory_order_relaxed))
-      throw Interrupted();
+    if (interrupt_ && (emitted_ & 0xffff) == 0 && interrupt_->load(std::memory_order_relaxed)) throw Interrupted();
+    ++emitted_;
+    if (stream_) {
+      if (emitted_ == 1) stream_->begin(header_program());
+      stream_->gate(g, line);
+      return;
+    }
     prog_.gates.push_back(g);
     prog_.gate_lines.push_back(line);
   }
+  // The header comments and version read so far, as a program without gates.
+  QasmProgram header_program() const;
+  // Streaming: hands the file's pages behind the read position back to the kernel.
+  void release_read_pages();
 
   QasmProgram prog_;
+  QasmGateStream* stream_ = nullptr;  // streaming read: gates go here, none are kept
+  std::uint64_t emitted_ = 0;         // gates emitted so far
+  std::uint64_t limit_;               // the most gates a read may emit
+  const char* released_ = nullptr;    // streaming: pages before this are handed back
   bool seen_statement_ = false;
   int qubit_total_ = 0;
   int bit_total_ = 0;

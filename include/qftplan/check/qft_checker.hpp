@@ -3,6 +3,7 @@
 /// Decides whether a circuit on a device implements a given QFT with given qubit maps.
 
 #include <atomic>
+#include <functional>
 #include <complex>
 #include <memory>
 #include <optional>
@@ -79,6 +80,14 @@ class StructuralChecker final : public GateSink {
 
 /// Checks a parsed program: couplers, then the structural proof and/or state-vector simulation.
 CheckResult check_qft_circuit(const Device& device, const QasmProgram& program, const CheckRequest& request);
+
+/// Checks the file at `path` by streaming it through the structural proof, keeping no gate list (for
+/// files too large to hold: an 8192-qubit exact QFT is 10^8 gates). `settle(header)` gives the request
+/// (transform and maps) from the header comments read before the first gate. There is no simulation,
+/// so a proof that loses track ends as cannot_prove.
+CheckResult check_qft_file_streaming(const Device& device, const std::string& path,
+                                     const std::function<CheckRequest(const QasmProgram& header)>& settle,
+                                     const std::atomic<bool>* interrupt);
 
 /// The transform to check a file against, settled from what the caller gives and what the file's
 /// "// transform:" header says.

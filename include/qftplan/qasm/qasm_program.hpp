@@ -31,6 +31,22 @@ struct QasmProgram {
   std::optional<InexactAngle> inexact_angle;
 };
 
+/// Receives the gates of a file as they are read (a streaming read keeps no gate list).
+class QasmGateStream {
+ public:
+  virtual ~QasmGateStream() = default;
+  /// Called once, before the first gate, with the header comments read so far (and the version).
+  virtual void begin(const QasmProgram& header) = 0;
+  /// One gate of the file, with its line.
+  virtual void gate(const Gate& g, int line) = 0;
+};
+
+/// Reads the OpenQASM file at `path` like load_qasm_file, but hands every gate to `stream` as it is
+/// read and keeps none, releasing the file's pages behind the read position: memory stays bounded
+/// on files of many gigabytes. The result has every field but `gates` and `gate_lines`; the limit of
+/// 10^8 gates of a stored program does not apply.
+QasmProgram stream_qasm_file(const std::string& path, QasmGateStream& stream, const std::atomic<bool>* interrupt);
+
 /// Parses OpenQASM 3 (physical qubits `$k` or declared `qubit[N] name;` registers) or OpenQASM 2
 /// (`qreg`), with the stdgates.inc / qelib1.inc gate names qftplan understands: h, x, sx, rz, p,
 /// u1, cx, CX, cz, cp, cu1, swap, measure, barrier, plus user `gate` definitions built from those.
