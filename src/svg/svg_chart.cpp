@@ -388,22 +388,38 @@ void draw_chart(SvgDocument& doc, const ChartSpec& chart, double x, double y, do
   doc.end_group();
 }
 
-std::string render_chart_page(const std::string& heading, const std::string& subheading,
-                              const std::vector<ChartSpec>& charts) {
+namespace {
+
+// A page of stacked blocks under a heading: `height(i, w)` sizes block i for the content width w,
+// `draw(doc, i, x, y, w, h)` draws it. The frame both chart pages share.
+template <typename Height, typename Draw>
+std::string render_page(const std::string& heading, const std::string& subheading, std::size_t blocks, Height height,
+                        Draw draw) {
   const double width = 980, head = 64;
   std::vector<double> heights;
   double total = head + 10;
-  for (const auto& c : charts) heights.push_back(chart_height(c, width - 20)), total += heights.back();
+  for (std::size_t i = 0; i < blocks; ++i) heights.push_back(height(i, width - 20)), total += heights.back();
   SvgDocument doc(width, total, heading);
   doc.rect(0, 0, doc.width(), doc.height(), SvgPaint{"#ffffff"});
   doc.text(20, 30, heading, SvgFont{18, "start", "#1a1a1a", true});
   doc.text(20, 51, subheading, SvgFont{12, "start", "#555555"});
   double y = head;
-  for (std::size_t i = 0; i < charts.size(); ++i) {
-    draw_chart(doc, charts[i], 10, y, width - 20, heights[i]);
+  for (std::size_t i = 0; i < blocks; ++i) {
+    draw(doc, i, 10.0, y, width - 20, heights[i]);
     y += heights[i];
   }
   return doc.str();
+}
+
+}  // namespace
+
+std::string render_chart_page(const std::string& heading, const std::string& subheading,
+                              const std::vector<ChartSpec>& charts) {
+  return render_page(
+      heading, subheading, charts.size(), [&](std::size_t i, double w) { return chart_height(charts[i], w); },
+      [&](SvgDocument& doc, std::size_t i, double x, double y, double w, double h) {
+        draw_chart(doc, charts[i], x, y, w, h);
+      });
 }
 
 
@@ -460,20 +476,9 @@ void draw_group(SvgDocument& doc, const ChartGroup& group, double x, double y, d
 }
 
 std::string render_group_page(const std::string& heading, const std::string& subheading, const std::vector<ChartGroup>& groups) {
-  const double width = 980, head = 64;
-  std::vector<double> heights;
-  double total = head + 10;
-  for (const auto& g : groups) heights.push_back(group_height(g, width - 20)), total += heights.back();
-  SvgDocument doc(width, total, heading);
-  doc.rect(0, 0, doc.width(), doc.height(), SvgPaint{"#ffffff"});
-  doc.text(20, 30, heading, SvgFont{18, "start", "#1a1a1a", true});
-  doc.text(20, 51, subheading, SvgFont{12, "start", "#555555"});
-  double y = head;
-  for (std::size_t i = 0; i < groups.size(); ++i) {
-    draw_group(doc, groups[i], 10, y, width - 20);
-    y += heights[i];
-  }
-  return doc.str();
+  return render_page(
+      heading, subheading, groups.size(), [&](std::size_t i, double w) { return group_height(groups[i], w); },
+      [&](SvgDocument& doc, std::size_t i, double x, double y, double w, double) { draw_group(doc, groups[i], x, y, w); });
 }
 
 }  // namespace qftplan
