@@ -2,24 +2,20 @@
 // chips: every plan proved by the structural checker, every two-qubit gate on a coupler, the CX count
 // within our proved bound, the published bound and 2(N^2 - 1), small plans simulated against FFTW.
 
-#include <fftw3.h>
 #include <gtest/gtest.h>
 
 #include <cmath>
 #include <cstdio>
-#include <complex>
 #include <random>
 
 #include "qftplan/check/qft_checker.hpp"
-#include "qftplan/check/statevector.hpp"
 #include "qftplan/device/lattices.hpp"
 #include "qftplan/planners/plan.hpp"
+#include "plan_simulation.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {
 namespace {
-
-using cd = std::complex<double>;
 
 Device graph_device(int n, const std::vector<std::pair<int, int>>& edges) {
   DeviceDescription d;
@@ -52,54 +48,11 @@ Device random_graph(int n, int extra, std::uint64_t seed) {
   return graph_device(n, e);
 }
 
-// The QFT column j from its definition: amplitude of y is exp(+-2 pi i j y / 2^n) / sqrt(2^n)
-// (Nielsen & Chuang, 2000, eq. 5.2), computed by FFTW's backward (forward for the inverse) DFT
-// (FFTW manual, section 4.8 "What FFTW Really Computes").
-std::vector<cd> fftw_column(int n, int j, bool inverse) {
-  const int N = 1 << n;
-  std::vector<cd> in(N), out(N);
-  in[j] = 1;
-  fftw_plan p = fftw_plan_dft_1d(N, reinterpret_cast<fftw_complex*>(in.data()), reinterpret_cast<fftw_complex*>(out.data()),
-                                 inverse ? FFTW_FORWARD : FFTW_BACKWARD, FFTW_ESTIMATE);
-  fftw_execute(p);
-  fftw_destroy_plan(p);
-  for (auto& x : out) x /= std::sqrt(double(N));
-  return out;
-}
-
-// Largest deviation of the planned circuit from the QFT over every basis input (up to one global phase).
+// Largest deviation of the planned circuit from the QFT (FFTW's, plan_simulation.cpp) over every basis
+// input, up to one global phase.
 double distance_to_fftw(const Device& dev, const PreparedPlan& plan, const std::vector<Gate>& gates) {
-  const int n = plan.spec.qubits;
-  std::vector<int> local(dev.qubit_count(), -1);
-  int used = 0;
-  for (int q : plan.maps.placement) local[q] = used++;
-  for (const auto& g : gates)
-    for (int q : {g.q0, g.q1})
-      if (q >= 0 && local[q] < 0) local[q] = used++;
-  double worst = 0;
-  cd phase = 0;
-  for (int j = 0; j < (1 << n); ++j) {
-    StateVector sv(used);
-    std::size_t idx = 0;
-    for (int k = 0; k < n; ++k)
-      if ((j >> k) & 1) idx |= std::size_t{1} << local[plan.maps.placement[k]];
-    sv.set_basis(idx);
-    for (Gate g : gates) {
-      g.q0 = local[g.q0];
-      if (is_two_qubit(g.kind)) g.q1 = local[g.q1];
-      sv.apply(g);
-    }
-    const auto want = fftw_column(n, j, plan.spec.inverse);
-    for (int y = 0; y < (1 << n); ++y) {
-      std::size_t out = 0;
-      for (int k = 0; k < n; ++k)
-        if ((y >> k) & 1) out |= std::size_t{1} << local[plan.maps.final_placement[k]];
-      const cd got = sv.amplitudes()[out];
-      if (phase == cd(0)) phase = got / want[y];
-      worst = std::max(worst, std::abs(got - phase * want[y]));
-    }
-  }
-  return worst;
+  return testing::distance_up_to_phase(testing::plan_unitary(dev, plan, gates),
+                                       testing::fftw_qft_matrix(plan.spec.qubits, plan.spec.inverse));
 }
 
 // Plans n qubits on dev with the cover strategy and checks everything the strategy promises.

@@ -1,42 +1,25 @@
-// Planned circuits simulated and compared with FFTW, a general-purpose FFT library.
+// Planned circuits simulated and compared with FFTW, a general-purpose FFT library (the FFTW matrix, its
+// source and the simulation of a plan: plan_simulation.cpp).
 
-#include <fftw3.h>
 #include <gtest/gtest.h>
 
 #include <cmath>
 #include <complex>
 #include <numbers>
 
-#include "qftplan/check/statevector.hpp"
 #include "qftplan/device/device_source.hpp"
 #include "qftplan/device/lattices.hpp"
 #include "qftplan/planners/plan.hpp"
 #include "qftplan/sinks/native_gates.hpp"
+#include "plan_simulation.hpp"
 
 namespace qftplan {
 namespace {
 
 using cd = std::complex<double>;
-using Matrix = std::vector<std::vector<cd>>;  // [column][row]
-
-// The QFT matrix from FFTW: the backward transform computes Y[y] = sum_j X[j] exp(+2 pi i j y / N)
-// (FFTW manual, section 4.8 "What FFTW Really Computes"); divided by sqrt(N) it is the QFT of
-// Nielsen & Chuang (2000), eq. 5.2. The forward transform (sign -1) gives the inverse QFT.
-Matrix fftw_matrix(int n, bool inverse) {
-  const int N = 1 << n;
-  Matrix m(N, std::vector<cd>(N));
-  std::vector<cd> in(N), out(N);
-  fftw_plan p = fftw_plan_dft_1d(N, reinterpret_cast<fftw_complex*>(in.data()), reinterpret_cast<fftw_complex*>(out.data()),
-                                 inverse ? FFTW_FORWARD : FFTW_BACKWARD, FFTW_ESTIMATE);
-  for (int j = 0; j < N; ++j) {
-    std::fill(in.begin(), in.end(), cd{});
-    in[j] = 1;
-    fftw_execute(p);
-    for (int y = 0; y < N; ++y) m[j][y] = out[y] / std::sqrt(double(N));
-  }
-  fftw_destroy_plan(p);
-  return m;
-}
+using Matrix = testing::QftMatrix;  // [column][row]
+using testing::distance_up_to_phase;
+using testing::plan_unitary;
 
 // Approximate QFT of degree M from its definition: the phase 2 pi j y / 2^n written as the sum over
 // bit pairs pi/2^m j_a y_l with m = n-1-a-l, keeping the terms with m+1 <= M (R_{m+1} is kept when
@@ -56,55 +39,6 @@ Matrix aqft_matrix(int n, int M, bool inverse) {
       m[j][y] = std::polar(1.0 / std::sqrt(double(N)), inverse ? -ph : ph);
     }
   return m;
-}
-
-// Simulates the planned circuit column by column on the qubits it touches.
-Matrix simulate(const Device& dev, const PlanOptions& opt, const PreparedPlan& plan, const std::vector<Gate>& gates) {
-  const int n = opt.spec.qubits, N = 1 << n;
-  std::vector<int> local(dev.qubit_count(), -1);
-  int used = 0;
-  auto touch = [&](int q) {
-    if (local[q] < 0) local[q] = used++;
-  };
-  for (int q : plan.maps.placement) touch(q);
-  for (const auto& g : gates) {
-    touch(g.q0);
-    if (is_two_qubit(g.kind)) touch(g.q1);
-  }
-  Matrix m(N, std::vector<cd>(N));
-  for (int j = 0; j < N; ++j) {
-    StateVector sv(used);
-    std::size_t idx = 0;
-    for (int k = 0; k < n; ++k)
-      if ((j >> k) & 1) idx |= std::size_t{1} << local[plan.maps.placement[k]];
-    sv.set_basis(idx);
-    for (Gate g : gates) {
-      g.q0 = local[g.q0];
-      if (is_two_qubit(g.kind)) g.q1 = local[g.q1];
-      sv.apply(g);
-    }
-    for (int y = 0; y < N; ++y) {
-      std::size_t out = 0;
-      for (int k = 0; k < n; ++k)
-        if ((y >> k) & 1) out |= std::size_t{1} << local[plan.maps.final_placement[k]];
-      m[j][y] = sv.amplitudes()[out];
-    }
-  }
-  return m;
-}
-
-// Largest entry-wise difference after removing one global phase shared by all columns.
-double distance_up_to_phase(const Matrix& a, const Matrix& b) {
-  cd phase = 1;
-  for (std::size_t y = 0; y < a[0].size(); ++y)
-    if (std::abs(b[0][y]) > 1e-3) {
-      phase = a[0][y] / b[0][y];
-      break;
-    }
-  double worst = 0;
-  for (std::size_t j = 0; j < a.size(); ++j)
-    for (std::size_t y = 0; y < a[j].size(); ++y) worst = std::max(worst, std::abs(a[j][y] - phase * b[j][y]));
-  return worst;
 }
 
 struct Case {
@@ -134,8 +68,8 @@ TEST_P(PlanAgainstFftw, UnitaryMatchesTheReference) {
     EXPECT_EQ(plan.circuit->network_name(), network_choice_name(c.network));
   VectorSink out;
   execute_plan(dev, opt, plan, &out);
-  const Matrix got = simulate(dev, opt, plan, out.gates);
-  const Matrix want = opt.spec.effectively_exact() ? fftw_matrix(c.n, c.inverse) : aqft_matrix(c.n, *c.approx, c.inverse);
+  const Matrix got = plan_unitary(dev, plan, out.gates);
+  const Matrix want = opt.spec.effectively_exact() ? testing::fftw_qft_matrix(c.n, c.inverse) : aqft_matrix(c.n, *c.approx, c.inverse);
   EXPECT_LT(distance_up_to_phase(got, want), 1e-9);
 }
 
@@ -183,7 +117,7 @@ TEST(ProductForm, ThreeQubitsInputFiveGivesTheTextbookPhases) {
   const auto plan = prepare_plan(dev, opt);
   VectorSink out;
   execute_plan(dev, opt, plan, &out);
-  const Matrix m = simulate(dev, opt, plan, out.gates);
+  const Matrix m = plan_unitary(dev, plan, out.gates);
   for (int l = 0; l < 3; ++l) {
     // Amplitude ratio between y = 2^l and y = 0 is the relative phase of output bit l.
     const cd ratio = m[5][1 << l] / m[5][0];
