@@ -7,9 +7,8 @@
 #include "qftplan/check/qft_checker.hpp"
 #include "qftplan/device/lattices.hpp"
 #include "qftplan/planners/plan.hpp"
-#include "qftplan/qasm/qasm_program.hpp"
 #include "qftplan/qasm/qasm_writer.hpp"
-#include "qftplan/report/circuit_header.hpp"
+#include "plan_simulation.hpp"
 
 namespace qftplan {
 namespace {
@@ -25,17 +24,9 @@ CheckResult write_read_prove(const QftSpec& spec, NetworkChoice network, QasmVer
   opt.network = network;
   opt.format = version;
   opt.gates = gates;
-  const PreparedPlan plan = prepare_plan(dev, opt);
-  StringOutput text;
-  QasmWriter writer(version, circuit_header(dev, opt, plan), text);
-  execute_plan(dev, opt, plan, &writer);
-  const QasmProgram prog = parse_qasm(text.text(), "<memory>");
-  CheckRequest req;
-  req.spec = plan.spec;
-  req.placement = plan.maps.placement;
-  req.final_placement = plan.maps.final_placement;
-  req.statevector_limit = 8;
-  return check_qft_circuit(dev, prog, req);
+  testing::WrittenPlan w = testing::write_and_read(dev, opt, version);
+  w.request.statevector_limit = 8;
+  return check_qft_circuit(dev, w.program, w.request);
 }
 
 TEST(NetworkExactness, EveryNetworkAtEverySizeUpTo130) {

@@ -6,6 +6,8 @@
 #include <cmath>
 
 #include "qftplan/check/statevector.hpp"
+#include "qftplan/core/atomic_file.hpp"
+#include "qftplan/report/circuit_header.hpp"
 
 namespace qftplan::testing {
 
@@ -62,6 +64,20 @@ QftMatrix plan_unitary(const Device& device, const PreparedPlan& plan, const std
     }
   }
   return m;
+}
+
+WrittenPlan write_and_read(const Device& device, const PlanOptions& options, QasmVersion version) {
+  WrittenPlan w;
+  w.plan = prepare_plan(device, options);
+  StringOutput text;
+  QasmWriter writer(version, circuit_header(device, options, w.plan), text);
+  w.report = execute_plan(device, options, w.plan, &writer);
+  w.text = text.text();
+  w.program = parse_qasm(w.text, "<memory>");
+  w.request.spec = w.plan.spec;
+  w.request.placement = w.plan.maps.placement;
+  w.request.final_placement = w.plan.maps.final_placement;
+  return w;
 }
 
 double distance_up_to_phase(const QftMatrix& a, const QftMatrix& b) {

@@ -17,7 +17,7 @@
 #include "qftplan/planners/plan.hpp"
 #include "qftplan/qasm/qasm_program.hpp"
 #include "qftplan/qasm/qasm_writer.hpp"
-#include "qftplan/report/circuit_header.hpp"
+#include "plan_simulation.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {
@@ -26,20 +26,12 @@ namespace {
 // Plans with the given options, writes OpenQASM 3 in memory, reads it back and runs the independent
 // checker (state vector for n <= 12 here, structural proof always).
 PlanReport plan_and_check(const Device& dev, const PlanOptions& opt) {
-  const auto plan = prepare_plan(dev, opt);
-  StringOutput text;
-  QasmWriter w(QasmVersion::v3, circuit_header(dev, opt, plan), text);
-  const PlanReport r = execute_plan(dev, opt, plan, &w);
-  const QasmProgram prog = parse_qasm(text.text(), "<memory>");
-  CheckRequest req;
-  req.spec = plan.spec;
-  req.placement = plan.maps.placement;
-  req.final_placement = plan.maps.final_placement;
-  req.statevector_limit = 12;
-  const CheckResult res = check_qft_circuit(dev, prog, req);
+  testing::WrittenPlan w = testing::write_and_read(dev, opt);
+  w.request.statevector_limit = 12;
+  const CheckResult res = check_qft_circuit(dev, w.program, w.request);
   EXPECT_TRUE(res.ok) << dev.name() << " " << opt.strategy << " n=" << opt.spec.qubits << ": " << res.message;
   EXPECT_TRUE(res.structural_proved) << res.message;
-  return r;
+  return w.report;
 }
 
 // A random tree on n qubits (each qubit joins a random earlier one; std::mt19937 is fully specified).
