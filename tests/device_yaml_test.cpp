@@ -576,6 +576,16 @@ TEST(DeviceYaml, EndOfTextPositionsStayInTheFile) {
             "t.yaml:3:18: YAML syntax error: end of sequence flow not found");
 }
 
+// YAML 1.2 (section 5.7) escapes \N and \_ name U+0085 and U+00A0; yaml-cpp 0.7 decodes them to lone
+// Latin-1 bytes. The loaded name is their UTF-8, and the written file reads back to the same device
+// (found by the device-yaml fuzzer: the written file was refused as not UTF-8).
+TEST(DeviceYaml, NextLineAndNoBreakSpaceEscapesAreUtf8) {
+  const Device d = parse_device_yaml("name: \"a\\Nb\\_c\"\nqubits: 2\ncouplers: [[0, 1]]\n", "esc.yaml");
+  EXPECT_EQ(d.name(), "a\xC2\x85" "b\xC2\xA0" "c");
+  const Device back = parse_device_yaml(device_to_yaml(d), "back.yaml");
+  EXPECT_EQ(back.description(), d.description());
+}
+
 TEST(DeviceYaml, CalibrationNumbers) {
   const auto dev = [](const std::string& tail) {
     return parse_device_yaml("name: t\nqubits: 3\ncouplers: [[0, 1], [1, 2]]\n" + tail, "t.yaml");

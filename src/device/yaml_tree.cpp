@@ -20,6 +20,31 @@
 namespace qftplan::yaml_detail {
 namespace {
 
+// The file is checked to be UTF-8 before yaml-cpp reads it, but yaml-cpp 0.7 decodes the escapes \N
+// (U+0085) and \_ (U+00A0) of double-quoted scalars to the single Latin-1 bytes 0x85 and 0xA0 (YAML
+// 1.2, section 5.7, names the characters, not bytes): a value is taken as UTF-8, such a lone byte is
+// written as the two bytes of its character.
+std::string as_utf8(const std::string& value) {
+  std::string out;
+  out.reserve(value.size());
+  for (std::size_t i = 0; i < value.size();) {
+    const auto u = static_cast<unsigned char>(value[i]);
+    const std::size_t len = u < 0x80 ? 1 : (u >> 5) == 0x6 ? 2 : (u >> 4) == 0xE ? 3 : (u >> 3) == 0x1E ? 4 : 0;
+    bool whole = len > 0 && i + len <= value.size();
+    for (std::size_t k = 1; whole && k < len; ++k) whole = (static_cast<unsigned char>(value[i + k]) >> 6) == 0x2;
+    if (whole) {
+      out.append(value, i, len);
+      i += len;
+    } else {
+      // A lone byte 0x80..0xFF stands for the character of that code point.
+      out += static_cast<char>(0xC0 | (u >> 6));
+      out += static_cast<char>(0x80 | (u & 0x3F));
+      ++i;
+    }
+  }
+  return out;
+}
+
 /// Upper bound on YAML nodes (and alias uses) in one file: bounds memory and work whatever the text.
 constexpr long long kMaxVisitedNodes = 20'000'000;
 
@@ -61,10 +86,11 @@ class TreeBuilder : public YAML::EventHandler {
     check_tag(mark, tag);
     if (value.find('\0') != std::string::npos) fail_(mark, nul_message());
     const auto style = tag == "?" ? Tree::Style::plain : Tree::Style::quoted;
+    const std::string text = as_utf8(value);
     const std::uint32_t i = add(mark, Tree::Kind::scalar, style);
     t_.records[i].begin = static_cast<std::uint32_t>(t_.chars.size());
-    t_.records[i].count = static_cast<std::uint32_t>(value.size());
-    t_.chars += value;
+    t_.records[i].count = static_cast<std::uint32_t>(text.size());
+    t_.chars += text;
     finish(i, anchor);
   }
   void OnSequenceStart(const YAML::Mark& mark, const std::string& tag, YAML::anchor_t anchor,
