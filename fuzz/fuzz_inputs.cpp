@@ -311,6 +311,8 @@ DeviceDescription fuzzed_device(ByteReader& r) {
     o.error_1q = r.below(32) / 512.0;
     o.t1_us = 1 + r.below(200);
     o.t2_us = 1 + r.below(200);
+    // T2 <= 2 T1 (a device breaking it is refused); clamped so the input bytes keep their meaning.
+    o.t2_us = std::min(*o.t2_us, 2 * *o.t1_us);
     d.qubit_calibration.push_back(o);
   }
   if (cal & 32u) d.native_2q = TwoQubitGate::cz;
@@ -423,7 +425,8 @@ void plan_input(std::string_view data) {
   if (opt.placement) require(rep.placement == *opt.placement, "a pinned placement was not kept");
   require(rep.rotations == plan.spec.kept_rotations(), "every kept rotation appears exactly once");
   require(rep.noise.esp >= 0 && rep.noise.esp <= 1 && rep.noise.log_esp <= 1e-12, "ESP outside [0, 1]");
-  require(rep.noise.esp_with_idle <= rep.noise.esp * (1 + 1e-12), "idling cannot raise the ESP");
+  require(rep.noise.esp_idle <= 1 + 1e-12 && rep.noise.esp_total <= rep.noise.esp * (1 + 1e-12),
+          "idling and readout cannot raise the ESP");
   require(rep.approx_error_bound >= 0 && (plan.spec.approx_degree || rep.approx_error_bound == 0),
           "error bound of the exact transform");
 

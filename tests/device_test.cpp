@@ -10,6 +10,8 @@
 #include <string>
 #include <vector>
 
+#include <fmt/format.h>
+
 #include "qftplan/core/input_error.hpp"
 #include "qftplan/device/device_check.hpp"
 #include "qftplan/device/device_source.hpp"
@@ -118,12 +120,12 @@ TEST(DeviceSummary, CountsAreSingularForOne) {
 TEST(DeviceSummary, InfiniteLifetimesAreShownAsSuch) {
   // T1 and T2 default to infinite (README "Device files"), and .inf says the same explicitly.
   const auto s =
-      summarize(parse_device_yaml("name: t\nqubits: 2\ncouplers: [[0, 1]]\ncalibration: {error_2q: 0.01, t2_us: .inf}\n"
-                                  "qubit_calibration: [{id: 1, t1_us: 50}]\n",
+      summarize(parse_device_yaml("name: t\nqubits: 2\ncouplers: [[0, 1]]\ncalibration: {error_2q: 0.01, t1_us: .inf}\n"
+                                  "qubit_calibration: [{id: 1, t2_us: 50}]\n",
                                   "t.yaml"));
   const std::string text = format_summary(s);
-  EXPECT_NE(text.find("T1 (us)         50 .. infinite\n"), std::string::npos) << text;
-  EXPECT_NE(text.find("T2 (us)         infinite\n"), std::string::npos) << text;
+  EXPECT_NE(text.find("T2 (us)         50 .. infinite\n"), std::string::npos) << text;
+  EXPECT_NE(text.find("T1 (us)         infinite\n"), std::string::npos) << text;
 }
 
 TEST(DeviceSummary, OddRingIsNotBipartite) {
@@ -191,22 +193,28 @@ TEST(DeviceCheck, LatticesAreSane) {
 }
 
 TEST(DeviceCheck, FindsImplausibleCalibrationAndClashingPositions) {
-  const Device d = parse_device_yaml(
-      "name: odd\nqubits: 3\ncouplers: [[0, 1]]\ncalibration: {t1_us: 50, t2_us: 120}\n"
-      "positions: [{id: 0, at: [1, 1]}, {id: 2, at: [1, 1]}]\n",
-      "odd.yaml");
-  const auto problems = check_device(d);
   // T2 <= 2 T1 holds for any qubit (1/T2 = 1/(2 T1) + 1/T_phi); from memory: P. Krantz et al., "A quantum
   // engineer's guide to superconducting qubits", Appl. Phys. Rev. 6, 021318 (2019), sec. on decoherence.
-  EXPECT_NE(std::find(problems.begin(), problems.end(), "qubit 0: t2_us 120 exceeds 2 * t1_us = 100"), problems.end());
+  // Such a device is refused when built (the file's position in DeviceYaml tests), from a file or not.
+  EXPECT_THROW(parse_device_yaml("name: odd\nqubits: 3\ncouplers: [[0, 1]]\ncalibration: {t1_us: 50, t2_us: 120}\n",
+                                 "odd.yaml"),
+               InputError);
+  DeviceDescription impossible = make_line(3).description();
+  impossible.qubit_calibration.push_back({1, {}, {}, {}, 10.0, 20.5});
+  EXPECT_THROW(Device{impossible}, InputError);
+  impossible.qubit_calibration.back().t2_us = 20.0;  // T2 = 2 T1 exactly: pure amplitude damping
+  EXPECT_NO_THROW(Device{impossible});
+  const Device d = parse_device_yaml(
+      "name: odd\nqubits: 3\ncouplers: [[0, 1]]\npositions: [{id: 0, at: [1, 1]}, {id: 2, at: [1, 1]}]\n", "odd.yaml");
+  const auto problems = check_device(d);
   EXPECT_NE(std::find(problems.begin(), problems.end(), "qubits 0 and 2 are drawn at the same position (1, 1)"),
             problems.end());
   // The same message for thousands of qubits is cut short.
-  const Device many =
-      parse_device_yaml("name: many\nqubits: 100\ncouplers: []\ncalibration: {t1_us: 1, t2_us: 3}\n", "many.yaml");
-  const auto cut = check_device(many);
+  std::string all_at_once = "name: many\nqubits: 100\ncouplers: []\npositions:\n";
+  for (int q = 0; q < 100; ++q) all_at_once += fmt::format("  - {{id: {}, at: [0, 0]}}\n", q);
+  const auto cut = check_device(parse_device_yaml(all_at_once, "many.yaml"));
   ASSERT_EQ(cut.size(), 6u);
-  EXPECT_EQ(cut.back(), "... and 95 more problems of the kind 't2 > 2 t1'");
+  EXPECT_EQ(cut.back(), "... and 94 more problems of the kind 'position clash'");
 }
 
 TEST(BundledDevices, EveryFileLoadsAndPassesTheCheck) {

@@ -232,6 +232,14 @@ const BadFile kBadFiles[] = {
     {"calibration_t1_negative.yaml", 6, 10, "'t1_us' must be a positive number (or .inf for no decay), got -110"},
     {"calibration_t1_word_inf.yaml", 5, 22, "'t1_us' must be a number, got 'inf' (YAML writes infinity as .inf)"},
     {"calibration_t2_nan.yaml", 7, 10, "'t2_us' must be a number, not NaN (got .nan)"},
+    // T2 <= 2 T1 (pure dephasing cannot be negative; Nielsen and Chuang 2000, section 8.3, from memory).
+    {"calibration_t2_above_twice_t1.yaml", 5, 3,
+     "calibration has t2_us 90 above 2 x t1_us = 80: physically impossible (T2 <= 2 T1, since pure dephasing cannot "
+     "be negative)"},
+    // Qubit 2 keeps the device's T2 of 150 us with its own T1 of 50 us.
+    {"override_t2_above_twice_t1.yaml", 7, 5,
+     "qubit 2 has t2_us 150 above 2 x t1_us = 100: physically impossible (T2 <= 2 T1, since pure dephasing cannot "
+     "be negative)"},
     {"unknown_key.yaml", 3, 1, "unknown key 'qbits'; did you mean 'qubits'?"},
     {"unknown_key_far.yaml", 5, 1, nullptr},  // checked below: lists the known keys
     {"unknown_calibration_key.yaml", 6, 3, "unknown key 'eror_2q' in calibration; did you mean 'error_2q'?"},

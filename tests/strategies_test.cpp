@@ -188,16 +188,30 @@ TEST(Routed, IsTheBaselineOnDevicesThatHoldAChain) {
 }
 
 TEST(Auto, KeepsTheBestByTheObjective) {
-  const Device dev = make_lattice("heavy-hex:2x2");
-  for (Objective o : {Objective::cx, Objective::depth}) {
-    PlanOptions opt;
-    opt.spec.qubits = 30;
-    opt.objective = o;
-    const auto r = plan_qft(dev, opt);
-    for (const auto& a : r.alternatives) {
-      if (!a.ok) continue;
-      if (o == Objective::cx) EXPECT_LE(r.cx_count, a.cx_count) << a.strategy;
-      if (o == Objective::depth) EXPECT_LE(r.depth_2q, a.depth_2q) << a.strategy;
+  // depth is the native two-qubit depth, duration the ASAP schedule's length, esp the esp_total.
+  for (const std::string spec : {"heavy-hex:2x2", "topologies/harbor-noisy-20.yaml"}) {
+    const Device dev = spec.ends_with(".yaml") ? load_device((testing::source_dir() / spec).string()) : make_lattice(spec);
+    for (Objective o : {Objective::cx, Objective::depth, Objective::duration, Objective::esp}) {
+      PlanOptions opt;
+      opt.spec.qubits = dev.qubit_count() > 20 ? 30 : 16;
+      opt.objective = o;
+      opt.measure = true;
+      const auto r = plan_qft(dev, opt);
+      int compared = 0;
+      for (const auto& a : r.alternatives) {
+        if (!a.ok) continue;
+        ++compared;
+        if (o == Objective::cx) EXPECT_LE(r.cx_count, a.cx_count) << a.strategy;
+        if (o == Objective::depth) EXPECT_LE(r.cx_depth, a.cx_depth) << a.strategy;
+        if (o == Objective::duration) EXPECT_LE(r.noise.duration_ns, a.duration_ns) << a.strategy;
+        if (o == Objective::esp) EXPECT_GE(r.noise.log_esp_total, a.log_esp_total) << a.strategy;
+        if (a.strategy == r.strategy) {
+          EXPECT_EQ(a.cx_depth, r.cx_depth);
+          EXPECT_EQ(a.duration_ns, r.noise.duration_ns);
+          EXPECT_EQ(a.log_esp_total, r.noise.log_esp_total);
+        }
+      }
+      EXPECT_GE(compared, 2) << spec;
     }
   }
 }

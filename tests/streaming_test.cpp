@@ -179,7 +179,7 @@ TEST(Streaming, NativeReplayEqualsTheDecomposedStream) {
         EXPECT_EQ(f1.log_esp, f2.log_esp) << what;
         // Equal to rounding: the replay adds each term as a multiple, not once per gate.
         EXPECT_NEAR(f1.duration_ns, f2.duration_ns, 1e-12 * f1.duration_ns) << what;
-        EXPECT_NEAR(f1.esp_with_readout, f2.esp_with_readout, 1e-15) << what;
+        EXPECT_NEAR(f1.esp_readout, f2.esp_readout, 1e-15) << what;
         EXPECT_GT(f1.duration_ns, 0) << what;
         // Without the stray gate off the couplers, the ESP and idling are finite and comparable.
         MetricsSink m3(dev.qubit_count()), m4(dev.qubit_count());
@@ -195,8 +195,10 @@ TEST(Streaming, NativeReplayEqualsTheDecomposedStream) {
         const NoiseFigures f3 = n3.figures(), f4 = n4.figures();
         EXPECT_LT(f3.log_esp, -0.1) << what;
         EXPECT_NEAR(f3.log_esp, f4.log_esp, 1e-12 * std::abs(f3.log_esp)) << what;
-        EXPECT_NEAR(f3.esp_with_idle / f4.esp_with_idle, 1.0, 1e-12) << what;
-        EXPECT_LT(f3.esp_with_idle, f3.esp) << what;
+        EXPECT_NEAR(f3.esp_idle / f4.esp_idle, 1.0, 1e-12) << what;
+        EXPECT_NEAR(f3.idle_ns, f4.idle_ns, 1e-9 * f3.idle_ns) << what;
+        EXPECT_LT(f3.esp_idle, 1.0) << what;
+        EXPECT_LT(f3.esp_total, f3.esp) << what;
         EXPECT_NEAR(f3.duration_ns, f4.duration_ns, 1e-12 * f3.duration_ns) << what;
       }
 }
@@ -220,8 +222,9 @@ TEST(Streaming, ReportOnlyPlanEqualsAWrittenPlan) {
     EXPECT_EQ(quiet.cx_depth, written.cx_depth);
     EXPECT_EQ(quiet.depth, written.depth);
     EXPECT_EQ(quiet.noise.log_esp, written.noise.log_esp);
-    EXPECT_EQ(quiet.noise.esp_with_idle, written.noise.esp_with_idle);
-    EXPECT_EQ(quiet.noise.esp_with_readout, written.noise.esp_with_readout);
+    EXPECT_EQ(quiet.noise.esp_idle, written.noise.esp_idle);
+    EXPECT_EQ(quiet.noise.esp_readout, written.noise.esp_readout);
+    EXPECT_EQ(quiet.noise.esp_total, written.noise.esp_total);
     EXPECT_EQ(quiet.noise.duration_ns, written.noise.duration_ns);
   }
 }

@@ -38,6 +38,13 @@ void check_lifetime(const std::optional<double>& v, const std::string& what) {
 
 }  // namespace
 
+std::string lifetime_violation(std::optional<double> t1, std::optional<double> t2, const std::string& who) {
+  if (!t1 || !t2 || !std::isfinite(*t1) || !(*t2 > 2.0 * *t1)) return {};
+  return fmt::format("{} has t2_us {} above 2 x t1_us = {}: physically impossible (T2 <= 2 T1, since pure "
+                     "dephasing cannot be negative)",
+                     who, *t2, 2.0 * *t1);
+}
+
 Device::Device(DeviceDescription description) : d_(std::move(description)) {
   const int n = d_.qubits;
   if (n <= 0) throw InputError("a device needs at least one qubit");
@@ -101,6 +108,16 @@ Device::Device(DeviceDescription description) : d_(std::move(description)) {
     check_duration(o.duration_1q_ns, what + ": duration_1q_ns");
     check_lifetime(o.t1_us, what + ": t1_us");
     check_lifetime(o.t2_us, what + ": t2_us");
+  }
+  // T2 <= 2 T1 for every qubit as applied: the overrides are indexed, so this is one pass.
+  {
+    const auto& c = d_.calibration;
+    for (int q = 0; q < n; ++q) {
+      const QubitOverride* o = override_of_[q] >= 0 ? &d_.qubit_calibration[override_of_[q]] : nullptr;
+      const auto t1 = o && o->t1_us ? o->t1_us : c.t1_us;
+      const auto t2 = o && o->t2_us ? o->t2_us : c.t2_us;
+      if (auto why = lifetime_violation(t1, t2, fmt::format("qubit {}", q)); !why.empty()) throw InputError(why);
+    }
   }
   if (!d_.positions.empty() && static_cast<int>(d_.positions.size()) != n)
     throw InputError(fmt::format("positions must list one entry per qubit ({}), got {}", n, d_.positions.size()));

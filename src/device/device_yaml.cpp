@@ -242,7 +242,11 @@ class Reader {
     if (!couplers) fail(root_pos, "missing required key 'couplers' (write 'couplers: []' for a chip without any)");
     read_couplers(*couplers, d);
 
-    if (const Entry* e = find(top, "calibration")) read_calibration(*e, d.calibration);
+    if (const Entry* e = find(top, "calibration")) {
+      read_calibration(*e, d.calibration);
+      if (auto why = lifetime_violation(d.calibration.t1_us, d.calibration.t2_us, "calibration"); !why.empty())
+        fail(value_pos(*e), why);
+    }
     if (const Entry* e = find(top, "qubit_calibration")) read_overrides(*e, d);
     if (const Entry* e = find(top, "positions")) read_positions(*e, d);
     if (const Entry* e = find(top, "native_2q")) {
@@ -353,6 +357,9 @@ class Reader {
         if (f.key == "id") continue;
         o.*override_field(f.key) = read_value(f);
       }
+      // T1 and T2 as applied to this qubit (its own, else the device-wide value).
+      const auto t1 = o.t1_us ? o.t1_us : d.calibration.t1_us, t2 = o.t2_us ? o.t2_us : d.calibration.t2_us;
+      if (auto why = lifetime_violation(t1, t2, fmt::format("qubit {}", o.id)); !why.empty()) fail(ip, why);
       d.qubit_calibration.push_back(o);
     }
   }

@@ -20,9 +20,10 @@ constexpr int kRoutedCompareLimit = 128;
 bool better(const StrategyOutcome& a, const StrategyOutcome& b, Objective o) {
   auto key = [o](const StrategyOutcome& x) {
     switch (o) {
-      case Objective::esp: return std::make_tuple(-x.log_esp, double(x.cx_count), double(x.depth_2q));
-      case Objective::depth: return std::make_tuple(double(x.depth_2q), double(x.cx_count), -x.log_esp);
-      case Objective::cx: return std::make_tuple(double(x.cx_count), double(x.depth_2q), -x.log_esp);
+      case Objective::esp: return std::make_tuple(-x.log_esp_total, double(x.cx_count), double(x.cx_depth));
+      case Objective::depth: return std::make_tuple(double(x.cx_depth), double(x.cx_count), -x.log_esp_total);
+      case Objective::duration: return std::make_tuple(x.duration_ns, double(x.cx_count), -x.log_esp_total);
+      case Objective::cx: return std::make_tuple(double(x.cx_count), double(x.cx_depth), -x.log_esp_total);
     }
     return std::make_tuple(0.0, 0.0, 0.0);
   };
@@ -113,8 +114,11 @@ PreparedPlan prepare_auto(const Device& device, const PlanOptions& options) {
       StrategyOutcome& o = outcomes[prepared[i].outcome];
       o.cx_count = f->cx_count;
       o.depth_2q = f->depth_2q;
+      o.cx_depth = f->cx_depth;
       o.swaps = f->swaps;
       o.log_esp = f->noise.log_esp;
+      o.log_esp_total = f->noise.log_esp_total;
+      o.duration_ns = f->noise.duration_ns;
       p.counted = f;
       if (prepared[i].eligible && i != pick && better(o, outcomes[prepared[pick].outcome], options.objective)) pick = i;
     }

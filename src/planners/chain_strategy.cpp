@@ -42,9 +42,24 @@ std::vector<int> chain_from_pin(const Device& device, const QftSpec& spec, const
 
 // Largest network (in blocks) whose ESP we evaluate by a dry run during --approx auto.
 constexpr long long kMaxScoredBlocks = 4'000'000;
+// Largest network (in blocks) whose esp_total is counted exactly (a full stream through the noise
+// model) for each degree and for each of the best chains; above it the scores are the placement
+// search's (gates exact, idling by its lower bound).
+constexpr long long kMaxCountedBlocks = 500'000;
 
-// The degree choice on a chain: uniform errors give the ESP from the numbers of gates (no dry run of
-// the whole network); otherwise the network's loads on the chain.
+long long blocks_of(int n) { return static_cast<long long>(n) * (n - 1) / 2; }
+
+// ln esp_total of the plan on `chain`, counted exactly by the noise model.
+double counted_log_esp_total(const Device& device, const QftSpec& spec, const PlanOptions& options,
+                             const std::vector<int>& chain) {
+  const auto circuit = make_line_circuit(spec, choose_network(spec, options.end_order, options.network), chain);
+  const CountSettings settings{gate_set_of(device.native_2q()), options.measure, options.format, options.budget};
+  return count_circuit(device, *circuit, settings, nullptr).noise.log_esp_total;
+}
+
+// The degree choice on a chain: esp_total counted exactly on small registers; above that, uniform
+// errors give the ESP from the numbers of gates (no dry run of the whole network), and otherwise the
+// network's loads on the chain score it.
 DegreeChoice choose_chain_degree(const Device& device, const QftSpec& base, const std::vector<int>& chain,
                                  const PlanOptions& options, bool* cut) {
   const bool uniform = uniform_errors(device);
@@ -54,8 +69,12 @@ DegreeChoice choose_chain_degree(const Device& device, const QftSpec& base, cons
     spec.approx_degree = degree;
     const auto net = choose_network(spec, options.end_order, options.network);
     DegreeCost c;
-    c.log_esp = uniform ? uniform_log_esp(device, *net, device.native_2q())
-                        : chain_log_esp(device, chain_loads(spec, *net, device.native_2q(), options.budget), chain);
+    if (blocks_of(n) <= kMaxCountedBlocks)
+      c.log_esp = counted_log_esp_total(device, spec, options, chain);
+    else
+      c.log_esp = uniform ? uniform_log_esp(device, *net, device.native_2q())
+                          : chain_log_esp(device, chain_loads_with_idling(device, spec, *net, options.measure, options.budget),
+                                          chain);
     c.native_2q = network_native_cost(*net);
     return c;
   };
@@ -97,7 +116,7 @@ bool choose_chain(const Device& device, const PlanOptions& options, PreparedPlan
   const auto net = choose_network(plan.spec, options.end_order, options.network);
   ChainLoads loads;
   try {
-    loads = chain_loads(plan.spec, *net, device.native_2q(), options.budget);
+    loads = chain_loads_with_idling(device, plan.spec, *net, options.measure, options.budget);
   } catch (const TimeLimitReached&) {
     note_cut_short(plan, "the placement search");
     return false;
@@ -111,8 +130,18 @@ bool choose_chain(const Device& device, const PlanOptions& options, PreparedPlan
   plan.placement.method = choice.time_out ? "time-limited" : choice.exhaustive ? "exhaustive" : "beam";
   plan.placement.chains_scored = choice.chains_scored;
   plan.placement.best = choice.best;
-  changed = !choice.best.empty() && choice.best.front().chain != chain;
-  if (!choice.best.empty()) chain = choice.best.front().chain;
+  // The search scores idling by a lower bound: the best few are counted exactly and ordered again.
+  if (blocks_of(plan.spec.qubits) <= kMaxCountedBlocks && !choice.time_out) {
+    try {
+      for (auto& c : plan.placement.best) c.log_esp = counted_log_esp_total(device, plan.spec, options, c.chain);
+      std::stable_sort(plan.placement.best.begin(), plan.placement.best.end(),
+                       [](const ScoredChain& a, const ScoredChain& b) { return a.log_esp > b.log_esp; });
+    } catch (const TimeLimitReached&) {
+      note_cut_short(plan, "the placement search");
+    }
+  }
+  changed = !plan.placement.best.empty() && plan.placement.best.front().chain != chain;
+  if (!plan.placement.best.empty()) chain = plan.placement.best.front().chain;
   return true;
 }
 

@@ -49,7 +49,7 @@ void choose_degree_by_counting(const Device& device, PreparedPlan& plan, bool me
     QftSpec s = plan.spec;
     s.approx_degree = degree;
     const CircuitFigures f = count_circuit(device, *make(s), {gate_set_of(device.native_2q()), measure}, nullptr);
-    return DegreeCost{f.noise.log_esp, f.cx_count};
+    return DegreeCost{f.noise.log_esp_total, f.cx_count};
   };
   bool cut = false;
   plan.degree_choice = choose_degree(plan.spec.qubits, true, cost, &cut);

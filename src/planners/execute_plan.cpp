@@ -17,8 +17,11 @@ void fill_chosen_outcome(PlanReport& r) {
     if (o.ok && o.strategy == r.strategy) {
       o.cx_count = r.cx_count;
       o.depth_2q = r.depth_2q;
+      o.cx_depth = r.cx_depth;
       o.swaps = r.swaps;
       o.log_esp = r.noise.log_esp;
+      o.log_esp_total = r.noise.log_esp_total;
+      o.duration_ns = r.noise.duration_ns;
     }
 }
 
@@ -53,7 +56,7 @@ PlanReport assemble_report(const Device& device, const PlanOptions& options, con
   r.placement_choice = plan.placement;
   // A chain the time limit left unscored gets the ESP just measured (the same quantity).
   if (!r.placement_choice.best.empty() && std::isnan(r.placement_choice.best.front().log_esp))
-    r.placement_choice.best.front().log_esp = r.noise.log_esp;
+    r.placement_choice.best.front().log_esp = r.noise.log_esp_total;
   r.depth_2q_unfused = f.depth_2q_unfused;
   // Lower bounds (ours). Blocks: every kept controlled phase needs a two-qubit gate of its own, and
   // a block carries at most one. Depth: the Hadamard of wire j waits for the rotation between wires

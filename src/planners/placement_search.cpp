@@ -7,8 +7,11 @@
 
 #include "qftplan/core/gate_program.hpp"
 #include "qftplan/core/run_budget.hpp"
+#include "qftplan/device/lattices.hpp"
 #include "qftplan/networks/chain_qft.hpp"
+#include "qftplan/sinks/circuit_metrics.hpp"
 #include "qftplan/sinks/native_gates.hpp"
+#include "qftplan/sinks/noise_model.hpp"
 
 namespace qftplan {
 
@@ -85,16 +88,71 @@ ChainLoads chain_loads(const QftSpec& spec, const QftNetwork& network, TwoQubitG
   return loads;
 }
 
+ChainLoads chain_loads_with_idling(const Device& device, const QftSpec& spec, const QftNetwork& network,
+                                   bool measured, const RunBudget* budget) {
+  const int n = spec.qubits;
+  const TwoQubitGate native = device.native_2q();
+  // The device's typical gate times: its defaults as written, else the common defaults.
+  const auto& cal = device.description().calibration;
+  const double d1 = cal.duration_1q_ns.value_or(kDefaultDuration1qNs);
+  const double d2 = cal.duration_2q_ns.value_or(kDefaultDuration2qNs);
+  DeviceDescription line = make_line(n).description();
+  line.calibration.duration_1q_ns = d1;
+  line.calibration.duration_2q_ns = d2;
+  line.native_2q = native;
+  const Device timed(line);
+  std::vector<int> chain(n);
+  for (int p = 0; p < n; ++p) chain[p] = p;
+  ChainLoads loads;
+  loads.edge_2q.assign(n > 1 ? n - 1 : 0, 0.0);
+  loads.pos_1q.assign(n, 0.0);
+  loads.measured = measured;
+  // One dry run feeds the loads and the schedule (the noise model's own, so the two cannot drift).
+  LoadSink load_sink(native, loads, budget);
+  MetricsSink metrics(n);
+  NoiseSink schedule(timed, chain);
+  NativeReplay replay(native, metrics, schedule);
+  TeeSink both({&load_sink, &replay});
+  emit_chain_qft(spec, network, chain, both);
+  both.finish();
+  const double makespan = schedule.figures().duration_ns;
+  loads.pos_idle_ns.assign(n, 0.0);
+  for (int p = 0; p < n; ++p) {
+    const double busy = loads.pos_1q[p] * d1 + ((p > 0 ? loads.edge_2q[p - 1] : 0.0) +
+                                                (p + 1 < n ? loads.edge_2q[p] : 0.0)) * d2;
+    loads.pos_idle_ns[p] = std::max(0.0, makespan - busy);
+  }
+  return loads;
+}
+
 namespace {
 
 struct Scorer {
   const Device& dev;
   const ChainLoads& loads;
-  std::vector<double> log_1q;  // per physical qubit ln(1 - error_1q)
+  std::vector<double> log_1q;     // per physical qubit ln(1 - error_1q)
+  std::vector<double> idle_rate;  // per physical qubit 1/(4 T1) + 1/(2 T2), per ns (with idling)
+  std::vector<double> log_read;   // per physical qubit ln(1 - error_readout) (when measured)
   Scorer(const Device& d, const ChainLoads& l) : dev(d), loads(l), log_1q(d.qubit_count()) {
     for (int q = 0; q < d.qubit_count(); ++q) log_1q[q] = std::log1p(-d.qubit_calibration(q).error_1q);
+    if (!loads.pos_idle_ns.empty()) {
+      idle_rate.resize(d.qubit_count());
+      for (int q = 0; q < d.qubit_count(); ++q) {
+        const auto c = d.qubit_calibration(q);  // T1, T2 in microseconds; +infinity gives 0
+        idle_rate[q] = 1.0 / (4000.0 * c.t1_us) + 1.0 / (2000.0 * c.t2_us);
+      }
+    }
+    if (loads.measured) {
+      log_read.resize(d.qubit_count());
+      for (int q = 0; q < d.qubit_count(); ++q) log_read[q] = std::log1p(-d.qubit_calibration(q).error_readout);
+    }
   }
-  double at(int pos, int q) const { return loads.pos_1q[pos] * log_1q[q]; }
+  double at(int pos, int q) const {
+    double s = loads.pos_1q[pos] * log_1q[q];
+    if (!idle_rate.empty()) s -= loads.pos_idle_ns[pos] * idle_rate[q];
+    if (!log_read.empty()) s += log_read[q];
+    return s;
+  }
   double edge(int pos, int a, int b) const {
     if (loads.edge_2q[pos] == 0) return 0.0;
     return loads.edge_2q[pos] * std::log1p(-dev.coupler_calibration(a, b).error);

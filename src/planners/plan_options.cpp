@@ -50,6 +50,7 @@ std::vector<int> parse_id_list(const std::string& text, const std::string& what)
 Objective parse_objective(const std::string& text) {
   if (text == "esp") return Objective::esp;
   if (text == "depth") return Objective::depth;
+  if (text == "duration") return Objective::duration;
   if (text == "cx") return Objective::cx;
   throw InputError("unknown objective '" + text + "' (valid: esp, depth, cx)");
 }
@@ -58,6 +59,7 @@ const char* objective_name(Objective o) {
   switch (o) {
     case Objective::esp: return "esp";
     case Objective::depth: return "depth";
+    case Objective::duration: return "duration";
     case Objective::cx: return "cx";
   }
   return "?";
@@ -100,10 +102,18 @@ void validate_spec(const Device& device, const QftSpec& spec) {
 }
 
 bool uniform_errors(const Device& device) {
-  for (int c = 1; c < device.coupler_count(); ++c)
-    if (device.coupler_calibration(c).error != device.coupler_calibration(0).error) return false;
-  for (int q = 1; q < device.qubit_count(); ++q)
-    if (device.qubit_calibration(q).error_1q != device.qubit_calibration(0).error_1q) return false;
+  const auto c0 = device.coupler_count() > 0 ? device.coupler_calibration(0) : CouplerCalibration{};
+  for (int c = 1; c < device.coupler_count(); ++c) {
+    const auto cc = device.coupler_calibration(c);
+    if (cc.error != c0.error || cc.duration_ns != c0.duration_ns) return false;
+  }
+  const auto q0 = device.qubit_calibration(0);
+  for (int q = 1; q < device.qubit_count(); ++q) {
+    const auto c = device.qubit_calibration(q);
+    if (c.error_1q != q0.error_1q || c.duration_1q_ns != q0.duration_1q_ns || c.error_readout != q0.error_readout ||
+        c.t1_us != q0.t1_us || c.t2_us != q0.t2_us)
+      return false;
+  }
   return true;
 }
 

@@ -35,7 +35,8 @@ PreparedPlan prepare_spine(const Device& device, const PlanOptions& options) {
   validate_spec(device, spec);
   if (options.placement) throw SettingError("placement", " pins a chain; the spine strategy chooses its own line");
   const SpineLayout layout = make_spine_layout(device, spec.qubits, options.search.seed, options.budget,
-                                                 options.objective == Objective::depth);
+                                                 options.objective == Objective::depth ||
+                                                     options.objective == Objective::duration);
   throw_if_interrupted(options.budget);
   if (layout.detours.empty() || static_cast<int>(layout.spine.size()) >= spec.qubits)
     throw PlanningError("the register fits on one chain: the chain strategy covers it");

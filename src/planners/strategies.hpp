@@ -12,8 +12,9 @@ namespace qftplan {
 /// Throws InputError / PlanningError when `spec` cannot be planned on `device` at all.
 void validate_spec(const Device& device, const QftSpec& spec);
 
-/// True when every coupler has the same two-qubit error and every qubit the same one-qubit error:
-/// then all chains of a network have the same ESP and there is nothing to choose.
+/// True when every coupler has the same two-qubit error and gate time and every qubit the same
+/// one-qubit error, gate time, readout error, T1 and T2: then all chains of a network have the same
+/// esp_total and there is nothing to choose.
 bool uniform_errors(const Device& device);
 
 /// A new plan of `strategy` for `options` before any decision: the spec (degree cleared for
@@ -25,7 +26,7 @@ void note_cut_short(PreparedPlan& plan, const std::string& what);
 
 /// What one approximation degree costs, as the strategy measured it.
 struct DegreeCost {
-  double log_esp = 0;        ///< ln ESP of the planned circuit with this degree
+  double log_esp = 0;        ///< ln esp_total of the planned circuit with this degree
   long long native_2q = 0;   ///< its native two-qubit gates
 };
 

@@ -47,9 +47,12 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
   j["gate_counts"] = r.gate_counts;
   j["esp"] = r.noise.esp;
   j["log_esp"] = r.noise.log_esp;
-  j["esp_with_idle"] = r.noise.esp_with_idle;
-  j["esp_with_readout"] = r.measured ? nlohmann::ordered_json(r.noise.esp_with_readout) : nlohmann::ordered_json(nullptr);
+  j["esp_idle"] = r.noise.esp_idle;
+  j["esp_readout"] = r.measured ? nlohmann::ordered_json(r.noise.esp_readout) : nlohmann::ordered_json(nullptr);
+  j["esp_total"] = r.noise.esp_total;
+  j["log_esp_total"] = r.noise.log_esp_total;
   j["duration_ns"] = r.noise.duration_ns;
+  j["idle_ns"] = r.noise.idle_ns;
   j["calibrated"] = r.calibrated;
   j["approx_error_bound"] = r.approx_error_bound;
   if (r.degree_choice) {
@@ -58,7 +61,7 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
     auto& list = d["considered"] = nlohmann::ordered_json::array();
     for (const auto& c : r.degree_choice->considered)
       list.push_back({{"degree", c.degree ? nlohmann::ordered_json(*c.degree) : nlohmann::ordered_json(nullptr)},
-                      {"esp", std::exp(c.log_esp)},
+                      {"esp_total", std::exp(c.log_esp)},
                       {"approx_error_bound", c.error_bound},
                       {"fidelity_bound", c.fidelity_bound},
                       {"score", c.score}});
@@ -70,7 +73,7 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
   pc["method"] = r.placement_choice.method;
   pc["chains_scored"] = r.placement_choice.chains_scored;
   auto& best = pc["best"] = nlohmann::ordered_json::array();
-  for (const auto& c : r.placement_choice.best) best.push_back({{"chain", c.chain}, {"esp", std::exp(c.log_esp)}});
+  for (const auto& c : r.placement_choice.best) best.push_back({{"chain", c.chain}, {"esp_total", std::exp(c.log_esp)}});
   j["placement_choice"] = pc;
   auto& alts = j["alternatives"] = nlohmann::ordered_json::array();
   for (const auto& a : r.alternatives) {
@@ -81,8 +84,11 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
       x["network"] = a.network;
       x["cx_count"] = a.cx_count;
       x["depth_2q"] = a.depth_2q;
+      x["cx_depth"] = a.cx_depth;
       x["swaps"] = a.swaps;
       x["esp"] = std::exp(a.log_esp);
+      x["esp_total"] = std::exp(a.log_esp_total);
+      x["duration_ns"] = a.duration_ns;
     } else {
       x["reason"] = a.reason;
     }
@@ -126,10 +132,10 @@ std::string format_plan_summary(const PlanReport& r) {
                    count_of(r.depth, "layer"), r.gates);
   s += fmt::format("  native {}       {} in {}\n", r.native_2q, count_of(r.cx_count, "gate"), count_of(r.cx_depth, "layer"));
   if (r.calibrated) {
-    s += fmt::format("  ESP             {:.4g} (gates), {:.4g} with idling over {:.0f} ns", r.noise.esp, r.noise.esp_with_idle,
-                     r.noise.duration_ns);
-    if (r.measured) s += fmt::format(", {:.4g} with readout", r.noise.esp_with_readout);
-    s += "\n";
+    s += fmt::format("  ESP             {:.4g} total = {:.4g} gates x {:.4g} idling", r.noise.esp_total, r.noise.esp,
+                     r.noise.esp_idle);
+    if (r.measured) s += fmt::format(" x {:.4g} readout", r.noise.esp_readout);
+    s += fmt::format("\n  duration        {:.0f} ns ({:.0f} ns of idle qubit time)\n", r.noise.duration_ns, r.noise.idle_ns);
   }
   if (r.end_order == "same")
     s += fmt::format("  end order       same as the start ({} SWAP{} added)\n", r.end_swaps, r.end_swaps == 1 ? "" : "s");
@@ -157,13 +163,13 @@ std::string format_plan_explanation(const PlanReport& r) {
   for (std::size_t i = 0; i < pc.best.size(); ++i) {
     const auto& c = pc.best[i];
     const char* tag = i == 0 ? "chosen   " : i == 1 ? "runner-up" : "         ";
-    s += fmt::format("  {}  esp {:<10.4g}  chain {}\n", tag, std::exp(c.log_esp), short_list(c.chain));
+    s += fmt::format("  {}  esp_total {:<10.4g}  chain {}\n", tag, std::exp(c.log_esp), short_list(c.chain));
   }
   if (r.degree_choice) {
     const auto& d = *r.degree_choice;
     auto name = [](const std::optional<int>& m) { return m ? std::to_string(*m) : std::string("exact"); };
     s += fmt::format("approximation degree: {} chosen\n", name(d.chosen));
-    s += "  degree   esp          error bound  fidelity >=  score\n";
+    s += "  degree   esp_total    error bound  fidelity >=  score\n";
     double exact_score = -1;
     for (const auto& c : d.considered)
       if (!c.degree) exact_score = c.score;

@@ -5,16 +5,30 @@
 
 namespace qftplan {
 
+double log_idle_fidelity(double t_ns, double t1_us, double t2_us) {
+  // 1 - F = (1 - e^(-t/T1) + 2 (1 - e^(-t/T2))) / 4, with expm1 so that short gaps keep their digits.
+  const double loss = (-std::expm1(-t_ns / (1000.0 * t1_us)) - 2.0 * std::expm1(-t_ns / (1000.0 * t2_us))) / 4.0;
+  return std::log1p(-loss);
+}
+
 NoiseSink::NoiseSink(const Device& device, std::vector<int> register_qubits)
     : dev_(device), register_(std::move(register_qubits)), ready_(device.qubit_count(), 0.0),
-      first_use_(device.qubit_count(), -1.0) {
-  log_keep_1q_.resize(device.qubit_count());
-  dur_1q_.resize(device.qubit_count());
-  for (int q = 0; q < device.qubit_count(); ++q) {
+      first_use_(device.qubit_count(), -1.0), in_register_(device.qubit_count(), 0) {
+  const int D = device.qubit_count();
+  log_keep_1q_.resize(D);
+  dur_1q_.resize(D);
+  t1_us_.resize(D);
+  t2_us_.resize(D);
+  last_gap_.assign(D, -1.0);
+  last_log_idle_.assign(D, 0.0);
+  for (int q = 0; q < D; ++q) {
     const auto c = device.qubit_calibration(q);
     log_keep_1q_[q] = std::log1p(-c.error_1q);
     dur_1q_[q] = c.duration_1q_ns;
+    t1_us_[q] = c.t1_us;
+    t2_us_[q] = c.t2_us;
   }
+  for (int q : register_) in_register_[q] = 1;
   log_keep_2q_.resize(device.coupler_count());
   dur_2q_.resize(device.coupler_count());
   for (int i = 0; i < device.coupler_count(); ++i) {
@@ -45,19 +59,35 @@ double natives_of(GateKind k) {
 
 }  // namespace
 
-inline void NoiseSink::step(GateKind k, int qa, int ci, double& ra, double& fa, double& rb, double& fb) {
+inline void NoiseSink::idle(int q, double gap_ns) {
+  if (!(gap_ns > 0) || !holds(q)) return;
+  idle_ns_ += gap_ns;
+  if (gap_ns != last_gap_[q]) {
+    last_gap_[q] = gap_ns;
+    // T1 and T2 are in microseconds; an unknown time is +infinity and contributes nothing.
+    last_log_idle_[q] = log_idle_fidelity(gap_ns, t1_us_[q], t2_us_[q]);
+  }
+  log_idle_ += last_log_idle_[q];
+}
+
+inline void NoiseSink::step(GateKind k, int qa, int qb, int ci) {
+  double& ra = ready_[qa];
   if (is_two_qubit(k)) {
+    double& rb = ready_[qb];
     // Logical two-qubit gates count as their native decomposition on the same coupler.
     const double natives = natives_of(k);
     // A gate off the couplers cannot run: it counts as certain failure.
     log_gates_ += ci >= 0 ? natives * log_keep_2q_[ci] : -INFINITY;
+    // On the ASAP schedule the gate starts when both qubits are free: the earlier one waits.
     const double t = std::max(ra, rb);
-    if (fa < 0) fa = t;
-    if (fb < 0) fb = t;
+    idle(qa, t - ra);
+    idle(qb, t - rb);
+    if (first_use_[qa] < 0) first_use_[qa] = t;
+    if (first_use_[qb] < 0) first_use_[qb] = t;
     ra = rb = t + (ci >= 0 ? natives * dur_2q_[ci] : 0.0);
     return;
   }
-  if (fa < 0) fa = ra;  // the qubit is in use from here on
+  if (first_use_[qa] < 0) first_use_[qa] = ra;  // the qubit is in use from here on
   if (k == GateKind::rz || k == GateKind::p) return;  // virtual Z: no error, no time
   // h, x, sx
   log_gates_ += log_keep_1q_[qa];
@@ -71,12 +101,10 @@ void NoiseSink::add(const Gate& g) {
     measured_ = true;
     return;
   }
-  if (is_two_qubit(g.kind)) {
-    const int b = g.q1;
-    step(g.kind, a, coupler_of(a, b), ready_[a], first_use_[a], ready_[b], first_use_[b]);
-  } else {
-    step(g.kind, a, -1, ready_[a], first_use_[a], ready_[a], first_use_[a]);
-  }
+  if (is_two_qubit(g.kind))
+    step(g.kind, a, g.q1, coupler_of(a, g.q1));
+  else
+    step(g.kind, a, a, -1);
 }
 
 
@@ -123,6 +151,9 @@ void NoiseSink::replay(const GateProgram& program, const ProgramCost& cost, int 
     r1 += seg.timed[1] * d1;
     if (seg.syncs == 0) continue;
     const double t = std::max(r0, r1);
+    // The slot that is ready first waits for the other (counted as in step()).
+    idle(q0, t - r0);
+    idle(q1, t - r1);
     if (first_sync) {
       if (first_use_[q0] < 0) first_use_[q0] = t;
       if (first_use_[q1] < 0) first_use_[q1] = t;
@@ -141,18 +172,21 @@ NoiseFigures NoiseSink::figures() const {
   // Ready times only grow, so the schedule ends at the latest one.
   const double makespan = ready_.empty() ? 0.0 : *std::max_element(ready_.begin(), ready_.end());
   f.duration_ns = makespan;
-  std::vector<bool> in_register(dev_.qubit_count(), false);
-  for (int q : register_) in_register[q] = true;
-  double log_idle = 0;
+  // Every qubit holding information waits from its last gate to the end of the schedule.
+  double log_idle = log_idle_, idle_ns = idle_ns_;
   for (int q = 0; q < dev_.qubit_count(); ++q) {
-    if (!in_register[q] && first_use_[q] < 0) continue;
-    const double t_ns = in_register[q] ? makespan : makespan - first_use_[q];
-    const auto c = dev_.qubit_calibration(q);
-    // T1 and T2 are in microseconds; an unknown time is +infinity and contributes nothing.
-    log_idle -= t_ns / (1000.0 * c.t1_us) + t_ns / (1000.0 * c.t2_us);
+    const double gap = makespan - ready_[q];
+    if (!(gap > 0) || !holds(q)) continue;
+    idle_ns += gap;
+    log_idle += log_idle_fidelity(gap, t1_us_[q], t2_us_[q]);
   }
-  f.esp_with_idle = std::exp(log_gates_ + log_idle);
-  f.esp_with_readout = measured_ ? std::exp(log_gates_ + log_readout_) : f.esp;
+  f.log_esp_idle = log_idle;
+  f.esp_idle = std::exp(log_idle);
+  f.idle_ns = idle_ns;
+  f.log_esp_readout = measured_ ? log_readout_ : 0.0;
+  f.esp_readout = std::exp(f.log_esp_readout);
+  f.log_esp_total = log_gates_ + log_idle + f.log_esp_readout;
+  f.esp_total = std::exp(f.log_esp_total);
   return f;
 }
 

@@ -90,10 +90,15 @@ struct DeviceDescription {
   bool operator==(const DeviceDescription&) const = default;
 };
 
+/// Why lifetimes `t1_us`, `t2_us` (of `who`, e.g. "qubit 3") are impossible, or empty: T2 <= 2 T1 always
+/// holds, since pure dephasing cannot be negative (1/T2 = 1/(2 T1) + 1/T_phi; Nielsen and Chuang,
+/// "Quantum Computation and Quantum Information", 2000, section 8.3, from memory).
+std::string lifetime_violation(std::optional<double> t1_us, std::optional<double> t2_us, const std::string& who);
+
 /// A validated, indexed device graph. Qubits are 0..qubit_count()-1; couplers are undirected.
 class Device {
  public:
-  /// Validates (ids in range, no self-loops or duplicates, rates in [0,1], positive times) and
+  /// Validates (ids in range, no self-loops or duplicates, rates in [0,1], positive times, T2 <= 2 T1) and
   /// indexes the description. Throws InputError with a plain message on a violation.
   explicit Device(DeviceDescription description);
 

@@ -18,6 +18,10 @@ class RunBudget;
 struct ChainLoads {
   std::vector<double> edge_2q;  ///< native two-qubit gates between positions p and p+1
   std::vector<double> pos_1q;   ///< h/x/sx gates at position p
+  /// Idle time of position p on the ASAP schedule with the device's typical gate times (empty: not
+  /// estimated), and whether every position is measured at the end.
+  std::vector<double> pos_idle_ns;
+  bool measured = false;
 };
 
 /// Counts the loads by a dry run of the network through the native decomposition. The dry run of a
@@ -25,7 +29,16 @@ struct ChainLoads {
 ChainLoads chain_loads(const QftSpec& spec, const QftNetwork& network, TwoQubitGate native,
                        const RunBudget* budget = nullptr);
 
-/// ln(ESP) of the planned circuit on `chain` (exactly the noise model's esp, before idling).
+/// chain_loads plus the idle time of each position, scheduled with `device`'s default gate times
+/// (its per-coupler and per-qubit times may differ; the estimate ignores that), and the readouts when
+/// `measured`: chain_log_esp then scores esp_total.
+ChainLoads chain_loads_with_idling(const Device& device, const QftSpec& spec, const QftNetwork& network,
+                                   bool measured, const RunBudget* budget = nullptr);
+
+/// ln(ESP) of the planned circuit on `chain`: exactly the noise model's esp (gates) for plain loads.
+/// For loads with idling, ln esp_total where the idling term is its lower bound
+/// -t (1/(4 T1) + 1/(2 T2)) per position (by the AM-GM inequality, ln((1 + a + 2b)/4) >= ln(a b^2)/4),
+/// with t the position's total idle time.
 double chain_log_esp(const Device& device, const ChainLoads& loads, std::span<const int> chain);
 
 /// The same ln(ESP) on a device whose qubits all share one error_1q and whose couplers all share
@@ -43,7 +56,7 @@ struct PlacementSearchOptions {
 /// One chain considered.
 struct ScoredChain {
   std::vector<int> chain;
-  double log_esp = 0;
+  double log_esp = 0;  ///< ln esp_total of the plan on this chain (the search's score until rescored exactly)
 };
 
 /// Outcome of the search.

@@ -31,9 +31,10 @@ namespace qftplan {
 
 class RunBudget;
 
-/// What `--strategy auto` optimises when it compares strategies.
-enum class Objective { esp, depth, cx };
-/// Parses "esp", "depth", "cx"; InputError listing them otherwise.
+/// What `--strategy auto` optimises when it compares strategies: esp_total (highest), native two-qubit
+/// depth (cx_depth, lowest), schedule length in ns (duration_ns, lowest) or native two-qubit gates.
+enum class Objective { esp, depth, duration, cx };
+/// Parses "esp", "depth", "duration", "cx"; InputError listing them otherwise.
 Objective parse_objective(const std::string& text);
 const char* objective_name(Objective o);
 
@@ -81,7 +82,7 @@ PlanOptions plan_options(const PlanSettings& settings);
 /// One approximation degree considered by the automatic choice.
 struct DegreeCandidate {
   std::optional<int> degree;     ///< absent: exact
-  double log_esp = 0;            ///< ln ESP of the planned circuit with this degree
+  double log_esp = 0;            ///< ln esp_total of the planned circuit with this degree
   double error_bound = 0;        ///< approx_error_bound
   double fidelity_bound = 1;     ///< lower bound on the fidelity to the exact QFT
   double score = 0;              ///< esp * fidelity_bound
@@ -109,8 +110,11 @@ struct StrategyOutcome {
   std::string reason;        ///< why it could not plan, when !ok
   long long cx_count = 0;
   long long depth_2q = 0;
+  long long cx_depth = 0;    ///< native two-qubit depth
   long long swaps = 0;
-  double log_esp = 0;
+  double log_esp = 0;        ///< ln esp (gates)
+  double log_esp_total = 0;  ///< ln esp_total (gates x idling x readout)
+  double duration_ns = 0;
 };
 
 /// Decisions made before any gate is emitted: the strategy's circuit and how it was chosen.

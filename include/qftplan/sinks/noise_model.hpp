@@ -8,10 +8,19 @@
 ///                    error-free frame changes (common practice for virtual Z gates).
 ///   duration_ns    = length of the ASAP schedule with the calibrated gate times (rz and p take no
 ///                    time; measurements are not scheduled).
-///   esp_with_idle  = esp * product over used qubits q of exp(-t_q / T1_q) * exp(-t_q / T2_q), where t_q
-///                    is how long q holds information: the whole duration for register qubits (they
-///                    hold the input from the start), and from its first gate to the end for others.
-///   esp_with_readout = esp * product over register qubits of (1 - error_readout), when measured.
+///   esp_idle       = product over every idle interval of a qubit that holds information of the
+///                    probability that the Pauli-twirled amplitude and phase damping channel of that
+///                    interval applies no error, F(t) = (1 + e^(-t/T1) + 2 e^(-t/T2)) / 4 (the
+///                    entanglement fidelity of the channel). An interval is a gap of length t > 0 on the
+///                    ASAP schedule where the qubit waits (for its partner of a two-qubit gate, or for the
+///                    end of the circuit). Register qubits hold information from time 0 (the input);
+///                    other qubits from their first gate. Time inside a gate is the gate's own error.
+///                    Source: Ghosh, Fowler, Geller, "Surface code with decoherence: an analysis of three
+///                    superconducting architectures", Phys. Rev. A 86, 062318 (2012) (the Pauli
+///                    twirl approximation of the amplitude and phase damping channel: p_x = p_y =
+///                    (1 - e^(-t/T1)) / 4, p_z = (1 - e^(-t/T2)) / 2 - (1 - e^(-t/T1)) / 4).
+///   esp_readout    = product over measured qubits of (1 - error_readout); 1 when not measured.
+///   esp_total      = esp * esp_idle * esp_readout, the headline figure every automatic choice maximises.
 
 #include <span>
 #include <vector>
@@ -24,12 +33,21 @@ namespace qftplan {
 
 /// The figures of the noise model.
 struct NoiseFigures {
-  double esp = 1;
+  double esp = 1;              ///< gates only
   double log_esp = 0;          ///< natural log of esp (finite even when esp underflows to 0)
-  double esp_with_idle = 1;
-  double esp_with_readout = 1;
+  double esp_idle = 1;         ///< idling factor
+  double log_esp_idle = 0;
+  double esp_readout = 1;      ///< readout factor (1 when not measured)
+  double log_esp_readout = 0;
+  double esp_total = 1;        ///< esp * esp_idle * esp_readout
+  double log_esp_total = 0;
   double duration_ns = 0;
+  double idle_ns = 0;          ///< idle time summed over the intervals counted in esp_idle, ns
 };
+
+/// F(t) of one idle interval of length `t_ns` on a qubit with lifetimes T1, T2 in microseconds (+infinity:
+/// no decay), as its natural log: ln((1 + e^(-t/T1) + 2 e^(-t/T2)) / 4) (see esp_idle above).
+double log_idle_fidelity(double t_ns, double t1_us, double t2_us);
 
 /// Accumulates the noise figures of a native gate stream (h, x, sx, rz, p, cx, cz, measure; the
 /// logical cp/swap/cp_swap/parity_step are counted as their 2/3/3/2 native two-qubit gates on the same
@@ -62,9 +80,12 @@ class NoiseSink final : public GateSink {
 
  private:
   void add(const Gate& g);
-  // One gate that is not a measurement: `ra`/`fa` are the ready time and first use of its first
-  // qubit `qa`, `rb`/`fb` of its second (two-qubit gates, on coupler `ci`, -1 when not coupled).
-  void step(GateKind k, int qa, int ci, double& ra, double& fa, double& rb, double& fb);
+  // One gate that is not a measurement on qubit `qa` (and `qb` for a two-qubit gate on coupler `ci`,
+  // -1 when not coupled).
+  void step(GateKind k, int qa, int qb, int ci);
+  // `q` waits `gap_ns` before its next gate (or the end): counted when it holds information.
+  void idle(int q, double gap_ns);
+  bool holds(int q) const { return first_use_[q] >= 0 || in_register_[q]; }
   int coupler_of(int a, int b);
   const Device& dev_;
   std::vector<int> register_;
@@ -75,6 +96,12 @@ class NoiseSink final : public GateSink {
   std::vector<double> log_keep_1q_, dur_1q_, log_keep_2q_, dur_2q_;
   std::vector<double> ready_;       // time each qubit becomes free, ns
   std::vector<double> first_use_;   // start of its first gate, ns; -1 when unused
+  std::vector<char> in_register_;
+  // Idle intervals: lifetimes in microseconds (+infinity: none), and the last gap's log fidelity per qubit
+  // (regular networks repeat the same gap).
+  std::vector<double> t1_us_, t2_us_, last_gap_, last_log_idle_;
+  double log_idle_ = 0;
+  double idle_ns_ = 0;
   int last_a_ = -1, last_b_ = -1, last_coupler_ = -1;
 };
 
