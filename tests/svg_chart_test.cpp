@@ -153,6 +153,8 @@ SurveyRow row(const std::string& series, int n, long long swaps, std::optional<d
   r.asked_strategy = "auto";
   r.log_esp = log_esp;
   if (log_esp) r.esp = std::exp(*log_esp);
+  r.log_esp_total = log_esp;
+  if (log_esp) r.esp_total = std::exp(*log_esp);
   return r;
 }
 

@@ -47,6 +47,7 @@ std::vector<std::string> survey_csv_columns(SurveyTiming timing) {
   std::vector<std::string> c = {"index", "series", "device", "device_qubits", "qubits", "asked_strategy", "asked_approx",
                                 "inverse", "status", "strategy", "network", "approx_degree", "swaps", "blocks",
                                 "rotations", "depth_2q", "cx_count", "cx_depth", "esp", "log_esp",
+                                "esp_total", "log_esp_total", "duration_ns",
                                 "lower_bound_blocks", "lower_bound_depth_2q", "blocks_ratio", "depth_2q_ratio"};
   if (timing == SurveyTiming::include) c.push_back("elapsed_ms");
   c.push_back("reason");
@@ -85,6 +86,9 @@ std::string survey_csv(const std::vector<SurveyRow>& rows, SurveyTiming timing) 
     f.push_back(when_ok(r.cx_depth));
     f.push_back(optional_text(r.esp));
     f.push_back(optional_text(r.log_esp));
+    f.push_back(optional_text(r.esp_total));
+    f.push_back(optional_text(r.log_esp_total));
+    f.push_back(optional_text(r.duration_ns));
     f.push_back(when_ok(r.lower_bound_blocks));
     f.push_back(when_ok(r.lower_bound_depth_2q));
     f.push_back(optional_text(r.blocks_ratio));
@@ -126,6 +130,9 @@ nlohmann::ordered_json survey_row_to_json(const SurveyRow& r, SurveyTiming timin
   j["cx_depth"] = when_ok(r.cx_depth);
   j["esp"] = optional_json(r.esp);
   j["log_esp"] = optional_json(r.log_esp);
+  j["esp_total"] = optional_json(r.esp_total);
+  j["log_esp_total"] = optional_json(r.log_esp_total);
+  j["duration_ns"] = optional_json(r.duration_ns);
   j["lower_bound_blocks"] = when_ok(r.lower_bound_blocks);
   j["lower_bound_depth_2q"] = when_ok(r.lower_bound_depth_2q);
   j["blocks_ratio"] = optional_json(r.blocks_ratio);
@@ -249,6 +256,9 @@ std::vector<SurveyRow> parse_survey_jsonl(const std::string& text, const std::st
     r.cx_depth = rd.integer_or_zero("cx_depth");
     r.esp = rd.optional_double("esp");
     r.log_esp = rd.optional_double("log_esp");
+    r.esp_total = rd.optional_double("esp_total");
+    r.log_esp_total = rd.optional_double("log_esp_total");
+    r.duration_ns = rd.optional_double("duration_ns");
     r.lower_bound_blocks = rd.integer_or_zero("lower_bound_blocks");
     r.lower_bound_depth_2q = rd.integer_or_zero("lower_bound_depth_2q");
     r.blocks_ratio = rd.optional_double("blocks_ratio");

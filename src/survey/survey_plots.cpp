@@ -108,16 +108,18 @@ std::vector<ChartGroup> survey_charts(const std::vector<SurveyRow>& rows) {
   depth.integer_y = true;
   groups.push_back(quantity_group(rows, namer, depth, "Native two-qubit depth against register size",
                                   [](const SurveyRow& r) { return std::optional<double>(r.cx_depth); }));
-  const bool calibrated = std::any_of(rows.begin(), rows.end(), [](const SurveyRow& r) { return r.ok && r.log_esp; });
+  const bool calibrated =
+      std::any_of(rows.begin(), rows.end(), [](const SurveyRow& r) { return r.ok && r.log_esp_total; });
   if (calibrated) {
     ChartSpec esp = axes;
-    esp.y_label = "ESP (probability, log scale)";
+    esp.y_label = "esp_total (probability, log scale)";
     esp.log_y = true;
     // log10 from the natural log, which stays finite where the probability underflows.
-    groups.push_back(quantity_group(rows, namer, esp, "Estimated success probability against register size",
+    groups.push_back(quantity_group(rows, namer, esp,
+                                    "Estimated success probability (gates x idling x readout) against register size",
                                     [](const SurveyRow& r) -> std::optional<double> {
-                                      if (!r.log_esp) return std::nullopt;
-                                      return *r.log_esp / std::numbers::ln10;
+                                      if (!r.log_esp_total) return std::nullopt;
+                                      return *r.log_esp_total / std::numbers::ln10;
                                     }));
   }
   return groups;

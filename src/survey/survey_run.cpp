@@ -69,7 +69,10 @@ SurveyRow run_survey_case(const SurveyRequest& request, const SurveyCase& c) {
     if (r.calibrated) {
       row.esp = r.noise.esp;
       row.log_esp = r.noise.log_esp;
+      row.esp_total = r.noise.esp_total;
+      row.log_esp_total = r.noise.log_esp_total;
     }
+    row.duration_ns = r.noise.duration_ns;
     // The bounds are the plan report's (plan.cpp derives them): blocks >= kept rotations, since
     // every controlled phase needs a two-qubit gate on the pair holding its two qubits; depth_2q >=
     // n-1 when rotations of distance 1 are kept, since rotation (i-1, i) must precede H on wire i,

@@ -7,7 +7,7 @@ QFTPLAN_BUILD_PACKAGES=(cmake g++ make pkg-config libboost-graph-dev libeigen3-d
   pybind11-dev python3-dev)  # the Python module (skipped by the build when these are missing)
 QFTPLAN_TEST_PACKAGES=(libgtest-dev libfftw3-dev nodejs libbenchmark-dev
   librsvg2-bin libxml2-utils  # independent SVG renderer and XML checker used by the drawing tests
-  python3-pytest python3-numpy python3-jsonschema)  # the Python module's tests and the schema checks
+  python3-pytest python3-numpy python3-jsonschema python3-yaml)  # the Python module's tests, the schema checks, tools/noise-sim
 
 # ensure_packages PKG...: apt-get installs the ones not yet installed (we run as root).
 ensure_packages() {

@@ -38,6 +38,9 @@ struct SurveyRow {
   long long cx_depth = 0;               ///< layers of native two-qubit gates
   std::optional<double> esp;            ///< absent when the device carries no calibration
   std::optional<double> log_esp;        ///< natural log of esp (finite when esp underflows)
+  std::optional<double> esp_total;      ///< gates x idling (x readout when measured); absent without calibration
+  std::optional<double> log_esp_total;  ///< natural log of esp_total
+  std::optional<double> duration_ns;    ///< ASAP schedule length with the calibrated (or default) gate times
   long long lower_bound_blocks = 0;     ///< from the plan report (kept rotations)
   long long lower_bound_depth_2q = 0;   ///< from the plan report (n-1 when a rotation is kept)
   std::optional<double> blocks_ratio;   ///< blocks / lower_bound_blocks; absent when the bound is 0
