@@ -239,21 +239,24 @@ TEST(Placement, ChosenChainHasTheBestEspOverAllChains) {
       on[s] = false;
     }
     ASSERT_GT(chains.size(), 20u);
-    double best = 0;
-    for (const auto& c : chains) {
-      // Pin each chain (its position-k qubit holds input bit n-1-k for the forward network).
-      PlanOptions pin;
-      pin.spec.qubits = n;
-      std::vector<int> placement(n);
-      for (int k = 0; k < n; ++k) placement[k] = c[n - 1 - k];
-      pin.placement = placement;
-      best = std::max(best, plan_qft(dev, pin).noise.esp);
-    }
     PlanOptions opt;
     opt.spec.qubits = n;
     const auto r = plan_qft(dev, opt);
     EXPECT_EQ(r.placement_choice.method, "exhaustive");
-    EXPECT_NEAR(r.noise.esp, best, 1e-12 * best) << "n=" << n;
+    // Every chain with the default network (choose_network), and with every network, counted by the
+    // noise model: the plan is the best of the first (its chain is chosen for that network's loads), and
+    // switching the network on that chain only helps; within 1% of the best pair of all.
+    double best_default = 0, best_any = 0;
+    const CountSettings count{gate_set_of(dev.native_2q())};
+    for (const auto& c : chains)
+      for (NetworkChoice net : {NetworkChoice::automatic, NetworkChoice::parity, NetworkChoice::anchored}) {
+        const double esp =
+            count_circuit(dev, *make_line_circuit(opt.spec, choose_network(opt.spec, net), c), count, nullptr).noise.esp_total;
+        if (net == NetworkChoice::automatic) best_default = std::max(best_default, esp);
+        best_any = std::max(best_any, esp);
+      }
+    EXPECT_GE(r.noise.esp_total, best_default * (1 - 1e-12)) << "n=" << n;
+    EXPECT_GE(r.noise.esp_total, 0.99 * best_any) << "n=" << n;
   }
 }
 

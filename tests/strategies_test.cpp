@@ -282,3 +282,38 @@ TEST(Strategies, NamedNetworkIsNeverReplacedSilently) {
 
 }  // namespace
 }  // namespace qftplan
+
+namespace qftplan {
+namespace {
+
+// --network auto on a chain: the network is the best on the chosen chain by the objective, every chain
+// network counted on that chain by the noise model and the counters.
+TEST(Auto, ChainNetworkIsTheBestOnItsChainByTheObjective) {
+  const Device dev = load_device((testing::source_dir() / "topologies/harbor-noisy-20.yaml").string());
+  for (Objective o : {Objective::esp, Objective::depth, Objective::duration, Objective::cx})
+    for (std::optional<int> degree : {std::optional<int>(), std::optional<int>(4)}) {
+      PlanOptions opt;
+      opt.spec.qubits = 12;
+      opt.spec.approx_degree = degree;
+      opt.strategy = "chain";
+      opt.objective = o;
+      const PlanReport r = plan_qft(dev, opt);
+      const CountSettings count{gate_set_of(dev.native_2q())};
+      int compared = 0;
+      for (NetworkChoice net : {NetworkChoice::parity, NetworkChoice::anchored, NetworkChoice::leapfrog}) {
+        if (net == NetworkChoice::leapfrog && !degree) continue;
+        const CircuitFigures f =
+            count_circuit(dev, *make_line_circuit(opt.spec, choose_network(opt.spec, net), r.chain), count, nullptr);
+        ++compared;
+        const std::string what = std::string(objective_name(o)) + " vs " + network_choice_name(net);
+        if (o == Objective::esp) EXPECT_GE(r.noise.log_esp_total, f.noise.log_esp_total - 1e-12) << what;
+        if (o == Objective::depth) EXPECT_LE(r.cx_depth, f.cx_depth) << what;
+        if (o == Objective::duration) EXPECT_LE(r.noise.duration_ns, f.noise.duration_ns + 1e-9) << what;
+        if (o == Objective::cx) EXPECT_LE(r.cx_count, f.cx_count) << what;
+      }
+      EXPECT_GE(compared, 2);
+    }
+}
+
+}  // namespace
+}  // namespace qftplan

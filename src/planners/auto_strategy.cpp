@@ -16,20 +16,6 @@ namespace {
 // Largest register on which --strategy auto also runs the router next to a structured strategy.
 constexpr int kRoutedCompareLimit = 128;
 
-// Lexicographic comparison by the objective (ties broken by the other figures).
-bool better(const StrategyOutcome& a, const StrategyOutcome& b, Objective o) {
-  auto key = [o](const StrategyOutcome& x) {
-    switch (o) {
-      case Objective::esp: return std::make_tuple(-x.log_esp_total, double(x.cx_count), double(x.cx_depth));
-      case Objective::depth: return std::make_tuple(double(x.cx_depth), double(x.cx_count), -x.log_esp_total);
-      case Objective::duration: return std::make_tuple(x.duration_ns, double(x.cx_count), -x.log_esp_total);
-      case Objective::cx: return std::make_tuple(double(x.cx_count), double(x.cx_depth), -x.log_esp_total);
-    }
-    return std::make_tuple(0.0, 0.0, 0.0);
-  };
-  return key(a) < key(b);
-}
-
 struct Candidate {
   PreparedPlan plan;
   std::size_t outcome;  // index in the outcomes
@@ -112,15 +98,9 @@ PreparedPlan prepare_auto(const Device& device, const PlanOptions& options) {
       const CountSettings settings{p.gates, options.measure, options.format, options.budget};
       const auto f = std::make_shared<const CircuitFigures>(count_circuit(device, *p.circuit, settings, nullptr));
       StrategyOutcome& o = outcomes[prepared[i].outcome];
-      o.cx_count = f->cx_count;
-      o.depth_2q = f->depth_2q;
-      o.cx_depth = f->cx_depth;
-      o.swaps = f->swaps;
-      o.log_esp = f->noise.log_esp;
-      o.log_esp_total = f->noise.log_esp_total;
-      o.duration_ns = f->noise.duration_ns;
+      fill_figures(o, *f);
       p.counted = f;
-      if (prepared[i].eligible && i != pick && better(o, outcomes[prepared[pick].outcome], options.objective)) pick = i;
+      if (prepared[i].eligible && i != pick && better_by_objective(o, outcomes[prepared[pick].outcome], options.objective)) pick = i;
     }
   }
   PreparedPlan best = std::move(prepared[pick].plan);

@@ -145,6 +145,35 @@ bool choose_chain(const Device& device, const PlanOptions& options, PreparedPlan
   return true;
 }
 
+// --network auto: of the chain networks that apply, the best on `chain` by the objective, each counted
+// exactly (small registers only; above, and with a pinned placement, whose chain depends on the
+// network, the fewest native two-qubit gates as choose_network() decides).
+NetworkChoice network_by_objective(const Device& device, const QftSpec& spec, const PlanOptions& options,
+                                   const std::vector<int>& chain) {
+  if (options.network != NetworkChoice::automatic || options.placement || blocks_of(spec.qubits) > kMaxCountedBlocks ||
+      spec.qubits < 3)
+    return options.network;
+  const CountSettings settings{gate_set_of(device.native_2q()), options.measure, options.format, options.budget};
+  NetworkChoice best = NetworkChoice::automatic;
+  StrategyOutcome best_figures;
+  for (NetworkChoice c : {NetworkChoice::automatic, NetworkChoice::parity, NetworkChoice::anchored, NetworkChoice::leapfrog}) {
+    std::shared_ptr<const QftNetwork> net;
+    try {
+      net = choose_network(spec, options.end_order, c);
+    } catch (const InputError&) {
+      continue;  // a network that does not apply to this spec (leapfrog for the exact QFT)
+    }
+    StrategyOutcome o;
+    fill_figures(o, count_circuit(device, *make_line_circuit(spec, std::move(net), chain), settings, nullptr));
+    // The automatic choice comes first and keeps ties.
+    if (c == NetworkChoice::automatic || better_by_objective(o, best_figures, options.objective)) {
+      best = c;
+      best_figures = o;
+    }
+  }
+  return best;
+}
+
 }  // namespace
 
 PreparedPlan prepare_chain(const Device& device, const PlanOptions& options) {
@@ -165,7 +194,9 @@ PreparedPlan prepare_chain(const Device& device, const PlanOptions& options) {
   }
   const bool by_esp = !options.placement && options.calibration_aware && device.has_calibration() &&
                       !uniform_errors(device) && n >= 2;
-  // Degree and chain depend on each other; two rounds settle them in practice.
+  // Degree, network and chain depend on each other; two rounds settle them in practice. The chain is
+  // placed for the network chosen on the chain before it.
+  PlanOptions chosen = options;
   for (int round = 0; round < 2; ++round) {
     if (options.auto_approx) {
       bool cut = false;
@@ -174,10 +205,12 @@ PreparedPlan prepare_chain(const Device& device, const PlanOptions& options) {
       plan.spec.approx_degree = plan.degree_choice->chosen;
       if (options.placement) chain = pinned_chain();
     }
+    const NetworkChoice before = chosen.network;
+    chosen.network = network_by_objective(device, plan.spec, options, chain);
     if (!by_esp || !plan.cut_short.empty()) break;
     bool changed = false;
-    if (!choose_chain(device, options, plan, chain, changed)) break;
-    if (!options.auto_approx || !changed) break;
+    if (!choose_chain(device, chosen, plan, chain, changed)) break;
+    if ((!options.auto_approx || !changed) && (round > 0 || chosen.network == before)) break;
   }
   throw_if_interrupted(options.budget);
   if (plan.placement.best.empty()) {
@@ -186,7 +219,8 @@ PreparedPlan prepare_chain(const Device& device, const PlanOptions& options) {
     plan.placement.best.push_back({chain, std::numeric_limits<double>::quiet_NaN()});
     plan.placement.chains_scored = 1;
   }
-  std::shared_ptr<const QftNetwork> network = choose_network(plan.spec, options.end_order, options.network);
+  std::shared_ptr<const QftNetwork> network =
+      choose_network(plan.spec, options.end_order, network_by_objective(device, plan.spec, options, chain));
   plan.end_swaps = end_swap_count(*network);
   plan.circuit = make_line_circuit(plan.spec, std::move(network), chain);
   plan.maps = plan.circuit->maps();

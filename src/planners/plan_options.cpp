@@ -127,6 +127,29 @@ PreparedPlan start_plan(const Device& device, const PlanOptions& options, const 
   return plan;
 }
 
+bool better_by_objective(const StrategyOutcome& a, const StrategyOutcome& b, Objective objective) {
+  auto key = [objective](const StrategyOutcome& x) {
+    switch (objective) {
+      case Objective::esp: return std::make_tuple(-x.log_esp_total, double(x.cx_count), double(x.cx_depth));
+      case Objective::depth: return std::make_tuple(double(x.cx_depth), double(x.cx_count), -x.log_esp_total);
+      case Objective::duration: return std::make_tuple(x.duration_ns, double(x.cx_count), -x.log_esp_total);
+      case Objective::cx: return std::make_tuple(double(x.cx_count), double(x.cx_depth), -x.log_esp_total);
+    }
+    return std::make_tuple(0.0, 0.0, 0.0);
+  };
+  return key(a) < key(b);
+}
+
+void fill_figures(StrategyOutcome& o, const CircuitFigures& f) {
+  o.cx_count = f.cx_count;
+  o.depth_2q = f.depth_2q;
+  o.cx_depth = f.cx_depth;
+  o.swaps = f.swaps;
+  o.log_esp = f.noise.log_esp;
+  o.log_esp_total = f.noise.log_esp_total;
+  o.duration_ns = f.noise.duration_ns;
+}
+
 void note_cut_short(PreparedPlan& plan, const std::string& what) {
   if (plan.cut_short.find(what) == std::string::npos) plan.cut_short += (plan.cut_short.empty() ? "" : ", ") + what;
 }

@@ -21,6 +21,14 @@ bool uniform_errors(const Device& device);
 /// --approx auto, validated) and the emitted gate set.
 PreparedPlan start_plan(const Device& device, const PlanOptions& options, const char* strategy);
 
+/// Whether figures `a` beat `b` by `objective`: the one comparison of every choice made by the objective
+/// (strategies, chain networks). Lexicographic: esp_total (higher), native two-qubit depth, schedule
+/// duration or native two-qubit gates (lower) first, ties broken by the other figures.
+bool better_by_objective(const StrategyOutcome& a, const StrategyOutcome& b, Objective objective);
+
+/// The comparison figures of `outcome` from a circuit's counted figures.
+void fill_figures(StrategyOutcome& outcome, const CircuitFigures& figures);
+
 /// Records that the time limit cut `what` short (once).
 void note_cut_short(PreparedPlan& plan, const std::string& what);
 

@@ -107,7 +107,8 @@ def test_bad_circuit_gives_line_and_column(qftplan, tmp_path):
 
 
 def test_wrong_circuit_is_a_verdict_not_an_exception(qftplan, tmp_path):
-    plan = qftplan.plan("line:4", 4, gates="logical")
+    plan = qftplan.plan("line:4", 4, gates="logical", network="anchored")
+    assert "cp(pi/2**2)" in plan.qasm
     text = plan.qasm.replace("cp(pi/2**2)", "cp(pi/2**3)", 1)
     path = tmp_path / "wrong.qasm"
     path.write_text(text)
