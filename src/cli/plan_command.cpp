@@ -50,7 +50,7 @@ CLI::App* add_plan_command(CLI::App& app, PlanArgs& a) {
     for (const auto& s : plan_strategies()) help += std::string("\n  ") + s.name + ": " + s.description;
     plan->add_option("--strategy", a.strategy, help)->capture_default_str();
   }
-  plan->add_option("--objective", a.objective, "what --strategy auto optimises: esp, depth or cx")
+  plan->add_option("--objective", a.objective, "what the automatic choices optimise: esp (highest esp_total = gates x idling x readout), depth (native two-qubit depth), duration (schedule length, ns) or cx (native two-qubit gates)")
       ->capture_default_str();
   plan->add_option("--end-order", a.end_order,
                    "free: output bits end where the plan leaves them; same: SWAPs at the end put output bit k on "
