@@ -69,12 +69,4 @@ CircuitFigures count_circuit(const Device& device, const PlannedCircuit& circuit
   return f;
 }
 
-double circuit_log_esp(const Device& device, const PlannedCircuit& circuit) {
-  NoiseSink noise(device, circuit.maps().placement);
-  NativeDecomposer dec(device.native_2q(), noise);
-  circuit.emit(dec);
-  dec.finish();
-  return noise.figures().log_esp;
-}
-
 }  // namespace qftplan

@@ -44,7 +44,4 @@ struct CircuitFigures {
 CircuitFigures count_circuit(const Device& device, const PlannedCircuit& circuit, const CountSettings& settings,
                              GateSink* output);
 
-/// ln ESP of `circuit` on `device`: its gates through the native decomposition into the noise model.
-double circuit_log_esp(const Device& device, const PlannedCircuit& circuit);
-
 }  // namespace qftplan
