@@ -23,7 +23,13 @@
 namespace qftplan {
 namespace {
 
-const char* const kStrategies[] = {"auto", "chain", "spine", "cover", "routed"};
+// Every strategy of the registry (a new one is covered without touching this file).
+std::vector<std::string> all_strategies() {
+  std::vector<std::string> out;
+  for (const auto& s : plan_strategies()) out.push_back(s.name);
+  return out;
+}
+const std::vector<std::string> kStrategies = all_strategies();
 
 // `base` with qubits `dead` and couplers `broken` (pairs) written `disabled: true`, everything else kept.
 Device disable(const Device& base, const std::vector<int>& dead, const std::vector<std::pair<int, int>>& broken) {
@@ -172,11 +178,11 @@ TEST(OutOfService, CouplerOfErrorOneIsOutOfService) {
 
 TEST(OutOfService, EveryStrategyAvoidsAMiddleQubitOfAGrid) {
   const Device dev = disable(make_lattice("grid:5x5"), {12}, {});
-  for (const char* s : kStrategies) {
+  for (const std::string& s : kStrategies) {
     int planned = 0;
     for (int n : {1, 2, 5, 9, 16, 24}) planned += plan_avoids(dev, s, n);
     // Every strategy plans most of these; spine only what no chain holds (here: nothing).
-    EXPECT_GE(planned, std::string(s) == "spine" ? 0 : 5) << s;
+    EXPECT_GE(planned, s == "spine" ? 0 : 5) << s;
   }
   // 25 qubits would need the disabled one.
   PlanOptions opt;
@@ -196,10 +202,10 @@ TEST(OutOfService, EveryStrategyAvoidsBrokenCouplersOfAHeavyHexagon) {
   for (int i = 0; i < base.coupler_count(); i += 7) broken.push_back({base.couplers()[i].a, base.couplers()[i].b});
   const Device dev = disable(base, {}, broken);
   ASSERT_EQ(dev.usable_coupler_count(), base.coupler_count() - static_cast<int>(broken.size()));
-  for (const char* s : kStrategies) {
+  for (const std::string& s : kStrategies) {
     int planned = 0;
     for (int n : {2, 4, 8, 12, 20}) planned += plan_avoids(dev, s, n);
-    EXPECT_GE(planned, std::string(s) == "spine" ? 1 : 4) << s;
+    EXPECT_GE(planned, s == "spine" ? 1 : 4) << s;
   }
 }
 
@@ -208,13 +214,13 @@ TEST(OutOfService, TheOnlyLongChainThroughADisabledQubitIsNotUsed) {
   // 4 fit on one side only.
   const Device dev = disable(make_lattice("line:9"), {4}, {});
   // (The spine strategy leaves registers that fit on a chain to the chain strategy.)
-  for (const char* s : kStrategies) {
+  for (const std::string& s : kStrategies) {
     EXPECT_FALSE(plan_avoids(dev, s, 5)) << s;
-    EXPECT_EQ(plan_avoids(dev, s, 4), std::string(s) != "spine") << s;
+    EXPECT_EQ(plan_avoids(dev, s, 4), s != "spine") << s;
   }
   // A ring of 10 with one coupler disabled is a line: the chain must not close over [0, 9].
   const Device ring = disable(make_lattice("ring:10"), {}, {{0, 9}});
-  for (const char* s : kStrategies) EXPECT_EQ(plan_avoids(ring, s, 10), std::string(s) != "spine") << s;
+  for (const std::string& s : kStrategies) EXPECT_EQ(plan_avoids(ring, s, 10), s != "spine") << s;
 }
 
 TEST(OutOfService, ASingleQubitRegisterNeverLandsOnADisabledQubit) {
@@ -230,12 +236,12 @@ TEST(OutOfService, ASingleQubitRegisterNeverLandsOnADisabledQubit) {
   best.disabled = true;
   d.qubit_calibration.push_back(best);
   const Device dev(d);
-  for (const char* s : kStrategies) EXPECT_EQ(plan_avoids(dev, s, 1), std::string(s) != "spine") << s;
+  for (const std::string& s : kStrategies) EXPECT_EQ(plan_avoids(dev, s, 1), s != "spine") << s;
   // Every qubit but one disabled, and that one isolated: n = 1 goes there, n = 2 cannot be planned.
   const Device lone = disable(make_lattice("grid:3x3"), {0, 1, 2, 3, 5, 6, 7, 8}, {});
-  for (const char* s : kStrategies) {
+  for (const std::string& s : kStrategies) {
     EXPECT_FALSE(plan_avoids(lone, s, 2)) << s;
-    if (std::string(s) == "spine") continue;  // a chain holds one qubit: the spine strategy declines
+    if (s == "spine") continue;  // a chain holds one qubit: the spine strategy declines
     PlanOptions opt;
     opt.spec.qubits = 1;
     opt.strategy = s;
@@ -303,7 +309,7 @@ TEST(OutOfService, RandomDisabledSetsOnLatticesAreNeverUsed) {
       for (const auto& c : base.couplers())
         if (g() % 6 == 0) broken.push_back({c.a, c.b});
       const Device dev = disable(base, dead, broken);
-      for (const char* s : kStrategies)
+      for (const std::string& s : kStrategies)
         for (int n : {1, 2, 3, 5, 7}) planned += plan_avoids(dev, s, n, trial + 1);
     }
   }
@@ -335,6 +341,28 @@ TEST(OutOfService, SummaryAndDrawingShowThem) {
   // A device with everything in service draws no such marks.
   const std::string clean = draw_device_svg(make_lattice("grid:3x3"), nullptr);
   EXPECT_EQ(clean.find("out of service"), std::string::npos);
+}
+
+TEST(OutOfService, TheMaintenanceExampleFile) {
+  // examples/harbor-grid-4x4-service.yaml (README "Device files"): every strategy avoids its hole, and
+  // the drawing of a plan on it shows the parts out of service beside the plan's chain.
+  const Device dev = load_device_file((testing::source_dir() / "examples" / "harbor-grid-4x4-service.yaml").string());
+  EXPECT_TRUE(check_device(dev).empty());
+  EXPECT_EQ(dev.usable_qubit_count(), 15);
+  EXPECT_EQ(dev.usable_coupler_count(), 18);
+  for (const std::string& s : kStrategies)
+    for (int n : {4, 10, 15}) plan_avoids(dev, s, n);
+  EXPECT_TRUE(plan_avoids(dev, "chain", 15));
+  const auto dir = testing::temp_dir();
+  const std::string file = (testing::source_dir() / "examples" / "harbor-grid-4x4-service.yaml").string();
+  const auto r = testing::run_qftplan("plan --device '" + file + "' -n 15 --quiet --report '" +
+                                      (dir / "r.json").string() + "'");
+  ASSERT_EQ(r.status, 0) << r.err;
+  const auto d = testing::run_qftplan("draw '" + file + "' --plan '" + (dir / "r.json").string() + "' --svg -");
+  ASSERT_EQ(d.status, 0) << d.err;
+  EXPECT_NE(d.out.find("1 qubit and 6 couplers out of service"), std::string::npos);
+  EXPECT_NE(d.out.find("chain (15 qubits)"), std::string::npos);
+  EXPECT_NE(d.out.find("coupler out of service"), std::string::npos);
 }
 
 }  // namespace
