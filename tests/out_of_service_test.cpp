@@ -218,6 +218,16 @@ TEST(OutOfService, TheOnlyLongChainThroughADisabledQubitIsNotUsed) {
     EXPECT_FALSE(plan_avoids(dev, s, 5)) << s;
     EXPECT_EQ(plan_avoids(dev, s, 4), s != "spine") << s;
   }
+  PlanOptions opt;
+  opt.spec.qubits = 5;
+  opt.strategy = "chain";
+  try {
+    prepare_plan(dev, opt);
+    ADD_FAILURE() << "a chain of 5";
+  } catch (const PlanningError& e) {
+    EXPECT_EQ(std::string(e.what()).rfind("no chain of 5 qubits exists in line:9 among the parts in service (proved", 0), 0u)
+        << e.what();
+  }
   // A ring of 10 with one coupler disabled is a line: the chain must not close over [0, 9].
   const Device ring = disable(make_lattice("ring:10"), {}, {{0, 9}});
   for (const std::string& s : kStrategies) EXPECT_EQ(plan_avoids(ring, s, 10), s != "spine") << s;
@@ -339,6 +349,8 @@ TEST(OutOfService, SummaryAndDrawingShowThem) {
   EXPECT_NE(svg.find("coupler out of service"), std::string::npos);
   EXPECT_NE(svg.find("couplers-out-of-service"), std::string::npos);
   // A device with everything in service draws no such marks.
+  EXPECT_NE(draw_device_svg(disable(make_lattice("line:3"), {}, {{1, 2}}), nullptr).find("; 1 coupler out of service"),
+            std::string::npos);
   const std::string clean = draw_device_svg(make_lattice("grid:3x3"), nullptr);
   EXPECT_EQ(clean.find("out of service"), std::string::npos);
 }

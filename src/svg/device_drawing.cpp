@@ -37,12 +37,14 @@ struct Heading {
   std::string plan_line;  // the plan's title, method and blocks; empty without a plan
 };
 
-// "; 2 qubits and 5 couplers out of service", or empty.
+// "; 2 qubits and 5 couplers out of service" ("; 1 coupler out of service"), or empty.
 std::string out_of_service_note(const Device& device) {
   if (!device.has_parts_out_of_service()) return {};
   const int q = device.qubit_count() - device.usable_qubit_count();
   const int c = device.coupler_count() - device.usable_coupler_count();
-  return fmt::format("; {} qubit{} and {} coupler{} out of service", q, q == 1 ? "" : "s", c, c == 1 ? "" : "s");
+  const std::string qubits = q > 0 ? fmt::format("{} qubit{}", q, q == 1 ? "" : "s") : "";
+  const std::string couplers = c > 0 ? fmt::format("{} coupler{}", c, c == 1 ? "" : "s") : "";
+  return "; " + qubits + (q > 0 && c > 0 ? " and " : "") + couplers + " out of service";
 }
 
 // Parts out of service: a pale grey, dotted line for a coupler, and a pale grey circle struck
