@@ -385,6 +385,29 @@ void plan_input(std::string_view data) {
   const NetworkChoice networks[] = {NetworkChoice::automatic, NetworkChoice::reversal, NetworkChoice::anchored,
                                     NetworkChoice::leapfrog, NetworkChoice::parity};
   opt.network = networks[r.below(5)];
+  // Parts out of service (read after everything else, for the same reason): a disabled qubit, a disabled
+  // coupler, a coupler of error 1. No plan may touch them; the checker refuses any gate that does. Behind
+  // a marker byte, so that saved inputs with trailing bytes almost always keep their old meaning.
+  if (r.next() == 0xD5u)
+    if (const unsigned service = r.next(); service & 1u) {
+      DeviceDescription d = dev->description();
+      if (service & 2u) {
+        QubitOverride o;
+        o.id = r.below(N);
+        o.disabled = true;
+        if (std::none_of(d.qubit_calibration.begin(), d.qubit_calibration.end(),
+                         [&](const QubitOverride& x) { return x.id == o.id; }))
+          d.qubit_calibration.push_back(o);
+      }
+      const int couplers = static_cast<int>(d.couplers.size());
+      if ((service & 4u) && couplers > 0) d.couplers[static_cast<std::size_t>(r.below(couplers))].disabled = true;
+      if ((service & 8u) && couplers > 0) d.couplers[static_cast<std::size_t>(r.below(couplers))].error = 1.0;
+      try {
+        dev.emplace(std::move(d));
+      } catch (const InputError& e) {
+        broken(std::string("a device with parts out of service was refused: ") + e.what());
+      }
+    }
 
   if (std::getenv("QFTPLAN_FUZZ_SHOW")) {
     // For reproducing a saved input with the command line (DEVELOPERS.md "Sanitizers and fuzzing").
@@ -423,6 +446,8 @@ void plan_input(std::string_view data) {
             "a qubit map with repeated or out-of-range qubits");
   }
   if (opt.placement) require(rep.placement == *opt.placement, "a pinned placement was not kept");
+  for (const auto* map : {&rep.placement, &rep.final_placement})
+    for (int q : *map) require(dev->usable(q), "a plan on a qubit out of service");
   require(rep.rotations == plan.spec.kept_rotations(), "every kept rotation appears exactly once");
   require(rep.noise.esp >= 0 && rep.noise.esp <= 1 && rep.noise.log_esp <= 1e-12, "ESP outside [0, 1]");
   require(rep.noise.esp_idle <= 1 + 1e-12 && rep.noise.esp_total <= rep.noise.esp * (1 + 1e-12),

@@ -4,6 +4,7 @@
 #include <pybind11/stl.h>
 
 #include "bindings.hpp"
+#include "qftplan/device/calibration_profile.hpp"
 #include "qftplan/device/device_source.hpp"
 #include "qftplan/device/device_summary.hpp"
 #include "qftplan/device/device_yaml.hpp"
@@ -38,6 +39,14 @@ py::dict summary_dict(const DeviceSummary& s) {
   d["bipartite"] = s.bipartite;
   d["native_2q"] = s.native_2q;
   d["calibrated"] = s.calibrated;
+  py::list out;
+  for (const auto& p : s.out_of_service) {
+    py::dict part;
+    part["qubits"] = p.qubits;
+    part["reason"] = p.reason;
+    out.append(part);
+  }
+  d["out_of_service"] = out;
   if (s.calibrated) {
     d["error_1q"] = range_dict(s.error_1q);
     d["error_2q"] = range_dict(s.error_2q);
@@ -62,13 +71,38 @@ std::shared_ptr<const Device> device_arg(const py::object& device) {
   throw py::type_error("device must be a qftplan.Device, a built-in spec such as 'grid:4x4', or a YAML file path");
 }
 
+// A path argument (str or os.PathLike) as text.
+std::string path_text(const py::object& path) { return py::str(py::module_::import("os").attr("fspath")(path)); }
+
+// The device of `spec`, with the calibration profile in file `calibration` applied when given.
+std::shared_ptr<Device> calibrated_device(const py::object& spec, const py::object& calibration) {
+  auto dev = std::const_pointer_cast<Device>(device_arg(spec));
+  if (calibration.is_none()) return dev;
+  const std::string file = path_text(calibration);
+  py::gil_scoped_release release;
+  return share(with_calibration_profile(*dev, load_calibration_profile(file)));
+}
+
 void bind_device(py::module_& m) {
   py::class_<Device, std::shared_ptr<Device>>(m, "Device",
                                               "A qubit chip: qubits 0..n-1, couplers between pairs, calibration data.\n"
                                               "Device(spec) loads a built-in lattice ('line:N', 'ring:N', 'grid:RxC',\n"
                                               "'heavy-hex:RxC', 'full:N') or a YAML device file, like load_device.")
-      .def(py::init([](const py::object& spec) { return std::const_pointer_cast<Device>(device_arg(spec)); }),
-           py::arg("spec"))
+      .def(py::init(&calibrated_device), py::arg("spec"), py::kw_only(), py::arg("calibration") = py::none(),
+           "calibration: a calibration profile file applied to the device (README \"Calibration profiles\").")
+      .def(
+          "with_calibration",
+          [](const std::shared_ptr<Device>& d, const py::object& profile) { return calibrated_device(py::cast(d), profile); },
+          py::arg("profile"),
+          "A copy with the calibration profile in file `profile` applied: its values hold on every qubit and coupler.")
+      .def(
+          "usable",
+          [](const Device& d, int q) {
+            if (q < 0 || q >= d.qubit_count())
+              throw py::index_error(fmt::format("qubit {} is not in 0..{}", q, d.qubit_count() - 1));
+            return d.usable(q);
+          },
+          py::arg("qubit"), "False for a qubit out of service (disabled, or error_1q 1): no plan uses it.")
       .def_static(
           "from_yaml", [](const std::string& text, const std::string& source) { return share(parse_device_yaml(text, source)); },
           py::arg("text"), py::arg("source") = "<string>",
@@ -83,7 +117,7 @@ void bind_device(py::module_& m) {
             for (const auto& c : d.couplers()) out.append(py::make_tuple(c.a, c.b));
             return out;
           },
-          "Couplers as (a, b) pairs with a < b, in file order.")
+          "Couplers as (a, b) pairs with a < b, in file order (those out of service included).")
       .def_property_readonly(
           "native_2q", [](const Device& d) { return std::string(two_qubit_gate_name(d.native_2q())); },
           "The native two-qubit gate: 'cx' or 'cz'.")
@@ -112,9 +146,9 @@ void bind_device(py::module_& m) {
       });
 
   m.def(
-      "load_device", [](const py::object& spec) { return std::const_pointer_cast<Device>(device_arg(spec)); },
-      py::arg("spec"),
-      "A built-in lattice ('line:N', 'ring:N', 'grid:RxC', 'heavy-hex:RxC', 'full:N') or a YAML device file.");
+      "load_device", &calibrated_device, py::arg("spec"), py::kw_only(), py::arg("calibration") = py::none(),
+      "A built-in lattice ('line:N', 'ring:N', 'grid:RxC', 'heavy-hex:RxC', 'full:N') or a YAML device file;\n"
+      "calibration: a calibration profile file applied to it (as --calibration).");
   m.def(
       "device_from_yaml", [](const std::string& text, const std::string& source) { return share(parse_device_yaml(text, source)); },
       py::arg("text"), py::arg("source") = "<string>", "Parses a device from YAML text (same as Device.from_yaml).");

@@ -37,16 +37,16 @@ std::string str_text(const py::object& v) {
   return v.cast<std::string>();
 }
 
-SurveyDeviceEntry entry_arg(const py::object& d) {
+SurveyDeviceEntry entry_arg(const py::object& d, const std::optional<CalibrationProfile>& calibration) {
   if (py::isinstance<Device>(d)) {
     SurveyDeviceEntry e;
     auto dev = d.cast<std::shared_ptr<Device>>();
     e.text = e.label = dev->name();
-    e.device = dev;
+    e.device = calibration ? std::make_shared<const Device>(with_calibration_profile(*dev, *calibration)) : dev;
     return e;
   }
   if (py::isinstance<py::str>(d) || py::hasattr(d, "__fspath__"))
-    return make_survey_entry(py::str(py::module_::import("os").attr("fspath")(d)));
+    return make_survey_entry(py::str(py::module_::import("os").attr("fspath")(d)), calibration);
   throw py::type_error("each device must be a qftplan.Device, a spec ('grid:4x4', 'grid:*') or a YAML path");
 }
 
@@ -62,12 +62,15 @@ std::vector<bool> directions_arg(const py::object& inverse) {
 }
 
 std::vector<SurveyRow> run(const py::object& devices, const py::object& qubits, const py::object& approx,
-                           const py::object& inverse, const py::object& strategy, std::uint64_t seed, std::optional<int> jobs_arg) {
+                           const py::object& inverse, const py::object& strategy, std::uint64_t seed, std::optional<int> jobs_arg,
+                           const py::object& calibration) {
   SurveyRequest req;
+  if (!calibration.is_none())
+    req.calibration = load_calibration_profile(py::str(py::module_::import("os").attr("fspath")(calibration)));
   if (py::isinstance<py::str>(devices) || py::isinstance<Device>(devices) || py::hasattr(devices, "__fspath__")) {
-    req.devices.push_back(entry_arg(devices));
+    req.devices.push_back(entry_arg(devices, req.calibration));
   } else {
-    for (const auto& d : devices) req.devices.push_back(entry_arg(py::reinterpret_borrow<py::object>(d)));
+    for (const auto& d : devices) req.devices.push_back(entry_arg(py::reinterpret_borrow<py::object>(d), req.calibration));
   }
   if (req.devices.empty()) throw InputError("a survey needs at least one device");
   req.sizes = parse_size_list(joined(qubits, int_text));
@@ -99,6 +102,7 @@ void bind_survey(py::module_& m) {
       "  strategy  a strategy name or a list of names\n"
       "  seed      seed of every randomised search; jobs: worker threads (None: every core)\n"
       "  timing    include the wall-time column elapsed_ms (off: reproducible output)\n"
+      "  calibration  a calibration profile file applied to every device (as --calibration)\n"
       "Cases run in the command line's order (device, strategy, approx, direction, size); a case that\n"
       "cannot be planned is a row with status 'failed' and its reason.";
   static const std::string survey_doc = std::string("Runs a survey and returns its rows as dicts (the JSON-lines fields).\n") + args_doc;
@@ -106,25 +110,27 @@ void bind_survey(py::module_& m) {
   m.def(
       "survey",
       [](const py::object& devices, const py::object& qubits, const py::object& approx, const py::object& inverse,
-         const py::object& strategy, std::uint64_t seed, std::optional<int> jobs, bool timing) {
-        const auto rows = run(devices, qubits, approx, inverse, strategy, seed, jobs);
+         const py::object& strategy, std::uint64_t seed, std::optional<int> jobs, bool timing,
+         const py::object& calibration) {
+        const auto rows = run(devices, qubits, approx, inverse, strategy, seed, jobs, calibration);
         py::list out;
         for (const auto& r : rows) out.append(to_python(survey_row_to_json(r, timing_arg(timing))));
         return out;
       },
       py::arg("devices"), py::arg("qubits"), py::kw_only(), py::arg("approx") = "none", py::arg("inverse") = false,
       py::arg("strategy") = "auto", py::arg("seed") = 1, py::arg("jobs") = py::none(), py::arg("timing") = false,
-      survey_doc.c_str());
+      py::arg("calibration") = py::none(), survey_doc.c_str());
   m.def(
       "survey_csv",
       [](const py::object& devices, const py::object& qubits, const py::object& approx, const py::object& inverse,
-         const py::object& strategy, std::uint64_t seed, std::optional<int> jobs, bool timing) {
-        const auto rows = run(devices, qubits, approx, inverse, strategy, seed, jobs);
+         const py::object& strategy, std::uint64_t seed, std::optional<int> jobs, bool timing,
+         const py::object& calibration) {
+        const auto rows = run(devices, qubits, approx, inverse, strategy, seed, jobs, calibration);
         return survey_csv(rows, timing_arg(timing));
       },
       py::arg("devices"), py::arg("qubits"), py::kw_only(), py::arg("approx") = "none", py::arg("inverse") = false,
       py::arg("strategy") = "auto", py::arg("seed") = 1, py::arg("jobs") = py::none(), py::arg("timing") = false,
-      csv_doc.c_str());
+      py::arg("calibration") = py::none(), csv_doc.c_str());
 }
 
 }  // namespace qftplan::python

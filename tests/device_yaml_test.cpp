@@ -242,7 +242,7 @@ const BadFile kBadFiles[] = {
     {"unknown_key.yaml", 3, 1, "unknown key 'qbits'; did you mean 'qubits'?"},
     {"unknown_key_far.yaml", 5, 1, nullptr},  // checked below: lists the known keys
     {"unknown_calibration_key.yaml", 6, 3, "unknown key 'eror_2q' in calibration; did you mean 'error_2q'?"},
-    {"unknown_coupler_key.yaml", 5, 20, "unknown key 'fidelity' in coupler; known keys: pair, error, duration_ns"},
+    {"unknown_coupler_key.yaml", 5, 20, "unknown key 'fidelity' in coupler; known keys: pair, error, duration_ns, disabled"},
     {"unknown_override_key.yaml", 6, 13, "unknown key 'error_2q' in qubit_calibration; did you mean 'error_1q'?"},
     {"duplicate_key.yaml", 5, 1, "key 'qubits' appears twice (first on line 3)"},
     {"native_unknown.yaml", 5, 12, "unknown native_2q 'iswap'; expected cx or cz"},

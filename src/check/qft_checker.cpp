@@ -60,10 +60,19 @@ std::optional<CheckResult> coupler_failure(const Device& device, const QasmProgr
       return failure(std::string(gate_name(g.kind)) + " on qubit " + std::to_string(g.q0 < 0 || g.q0 >= nq ? g.q0 : g.q1) +
                          ", but the device has qubits 0.." + std::to_string(nq - 1),
                      line_of(program, i));
-    if (two && !device.coupled(g.q0, g.q1))
+    for (const int q : {g.q0, two ? g.q1 : g.q0})
+      if (!device.usable(q))
+        return failure(std::string(gate_name(g.kind)) + " on qubit " + std::to_string(q) +
+                           ", which is out of service (" + device.out_of_service_reason(q) + ")",
+                       line_of(program, i));
+    if (two && !device.coupled(g.q0, g.q1)) {
+      const int any = device.any_coupler_index(g.q0, g.q1);
       return failure(std::string(gate_name(g.kind)) + " on qubits " + std::to_string(g.q0) + " and " +
-                         std::to_string(g.q1) + ", which have no coupler",
+                         std::to_string(g.q1) +
+                         (any < 0 ? ", which have no coupler"
+                                  : ", whose coupler is out of service (" + device.coupler_out_of_service_reason(any) + ")"),
                      line_of(program, i));
+    }
     if (g.kind == GateKind::measure) {
       measured[g.q0] = 1;
       continue;

@@ -117,6 +117,11 @@ bool StructuralChecker::Impl::check_qubit(int q, int line) {
     fail("gate on qubit " + std::to_string(q) + " after its measurement", line);
     return false;
   }
+  if (!device->usable(q)) {
+    fail("gate on qubit " + std::to_string(q) + ", which is out of service (" + device->out_of_service_reason(q) + ")",
+         line);
+    return false;
+  }
   return true;
 }
 
@@ -130,8 +135,10 @@ bool StructuralChecker::Impl::check_gate_qubits(const Gate& g, int line) {
     return false;
   }
   if (!device->coupled(g.q0, g.q1)) {
+    const int any = device->any_coupler_index(g.q0, g.q1);
     fail(std::string(gate_name(g.kind)) + " on qubits " + std::to_string(g.q0) + " and " + std::to_string(g.q1) +
-             ", which have no coupler",
+             (any < 0 ? ", which have no coupler"
+                      : ", whose coupler is out of service (" + device->coupler_out_of_service_reason(any) + ")"),
          line);
     return false;
   }

@@ -24,7 +24,7 @@ void StructuralChecker::Impl::peephole(const Gate& g, int line) {
   if (failed) return;
   const bool two = is_two_qubit(g.kind);
   // Anything the front end refuses (ranges, couplers, gates after a measurement) goes to it at once.
-  const bool valid = g.q0 >= 0 && g.q0 < nq && !measured[g.q0] &&
+  const bool valid = g.q0 >= 0 && g.q0 < nq && !measured[g.q0] && device->usable(g.q0) &&
                      (!two || (g.q1 >= 0 && g.q1 < nq && g.q1 != g.q0 && !measured[g.q1] && device->coupled(g.q0, g.q1)));
   if (!valid) {
     drain_window();

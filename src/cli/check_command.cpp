@@ -10,6 +10,7 @@
 #include <fmt/format.h>
 
 #include "cli_common.hpp"
+#include "cli_options.hpp"
 #include "qftplan/check/qft_checker.hpp"
 #include "qftplan/core/input_error.hpp"
 #include "qftplan/device/device_source.hpp"
@@ -22,6 +23,7 @@ CLI::App* add_check_command(CLI::App& app, CheckArgs& a) {
   auto* check = app.add_subcommand("check", "prove that an OpenQASM file implements a QFT on a device");
   check->add_option("file", a.file, "OpenQASM 2 or 3 file")->required();
   check->add_option("--device", a.device, "built-in spec or YAML file")->required();
+  add_calibration_option(check, a.calibration);
   check->add_option("--qubits,-n", a.qubits, "register size n (default: the file's '// transform:' comment)");
   check->add_option("--approx", a.approx, "approximation degree: none or M (default: the file's '// transform:' comment)");
   check->add_flag("--inverse", a.inverse, "expect the inverse QFT (default: as the file's '// transform:' comment says)");
@@ -71,7 +73,7 @@ CheckRequest settle_request(const CheckArgs& a, const QasmProgram& header) {
 
 int run_check(const CheckArgs& a) {
   install_stop_handlers();  // Ctrl-C stops reading and proving (exit 130)
-  const Device dev = load_device(a.device);
+  const Device dev = load_device(a.device, a.calibration);
   std::error_code ec;
   const auto bytes = std::filesystem::file_size(a.file, ec);
   CheckResult res;

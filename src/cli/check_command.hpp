@@ -16,6 +16,7 @@ inline constexpr int kQubitsFromHeader = -1;
 struct CheckArgs {
   std::string file;
   std::string device;
+  std::string calibration;  // --calibration FILE (empty: none)
   int qubits = kQubitsFromHeader;  ///< from the file's "// transform:" header unless given
   std::string approx;             ///< empty: from the header (else exact)
   bool inverse = false;

@@ -12,6 +12,7 @@ namespace qftplan::cli {
 /// The options of the device command.
 struct DeviceArgs {
   std::string device;
+  std::string calibration;  // --calibration FILE (empty: none)
   bool summary = false;
 };
 

@@ -12,6 +12,7 @@ namespace qftplan::cli {
 /// The options of the draw command.
 struct DrawArgs {
   std::string device;
+  std::string calibration;  // --calibration FILE (empty: none)
   std::string plan;
   std::string svg;
 };

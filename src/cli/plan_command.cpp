@@ -26,6 +26,7 @@ namespace qftplan::cli {
 CLI::App* add_plan_command(CLI::App& app, PlanArgs& a) {
   auto* plan = app.add_subcommand("plan", "plan a QFT on a device and write OpenQASM and/or a JSON report");
   plan->add_option("--device", a.device, "built-in spec or YAML file")->required();
+  add_calibration_option(plan, a.calibration);
   plan->add_option("--qubits,-n", a.qubits, "register size n")->required();
   plan->add_option("--approx", a.approx, "approximation degree: none (exact), M (keep rotations R_k, k <= M) or auto (best ESP x fidelity)")
       ->capture_default_str();
@@ -73,7 +74,7 @@ int run_plan(const PlanArgs& a) {
   const RunBudget budget(parse_time_limit(a.time_limit), &g_interrupted, BudgetClock::from_environment());
   if (same_output_file(a.output, a.report))
     throw InputError("--output and --report name the same file '" + a.output + "'");
-  const Device dev = load_device(a.device);
+  const Device dev = load_device(a.device, a.calibration);
   // The flags as settings, turned into options by the library's one builder.
   PlanSettings settings;
   settings.qubits = a.qubits;

@@ -13,6 +13,7 @@ namespace qftplan::cli {
 /// The options of the plan command.
 struct PlanArgs {
   std::string device;
+  std::string calibration;  // --calibration FILE (empty: none)
   int qubits = 0;
   std::string approx = "none";
   bool inverse = false;

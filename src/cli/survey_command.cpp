@@ -55,6 +55,7 @@ CLI::App* add_survey_command(CLI::App& app, SurveyArgs& a) {
                      "devices: YAML files, built-in specs, or FAMILY:* (line, ring, grid, heavy-hex, full) for the "
                      "smallest member that holds each register size")
       ->required();
+  add_calibration_option(survey, a.calibration);
   survey->add_option("--qubits,-n", a.qubits, "register sizes: N, A:B, A:B:STEP, comma-separated (4:64:4)")->required();
   survey->add_option("--approx", a.approx, "approximation settings, comma-separated: none, M, auto")->capture_default_str();
   survey->add_flag("--inverse", a.inverse, "survey the inverse QFT (same as --direction inverse)");
@@ -89,7 +90,8 @@ int run_survey_command(const SurveyArgs& a) {
   req.time_limit = parse_time_limit(a.time_limit);
   req.clock = BudgetClock::from_environment();
   req.interrupt = &g_interrupted;
-  for (const auto& d : a.devices) req.devices.push_back(make_survey_entry(d));
+  if (!a.calibration.empty()) req.calibration = load_calibration_profile(a.calibration);
+  for (const auto& d : a.devices) req.devices.push_back(make_survey_entry(d, req.calibration));
   if (a.jobs < 0) throw InputError("--jobs must be at least 1 (0 or absent: every core)");
   const int jobs = a.jobs == 0 ? default_survey_jobs() : a.jobs;
 

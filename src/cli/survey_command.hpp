@@ -24,6 +24,7 @@ struct SurveyOutputArgs {
 /// The options of the survey command.
 struct SurveyArgs {
   std::vector<std::string> devices;
+  std::string calibration;  // --calibration FILE (empty: none)
   std::string qubits;
   std::string approx = "none";
   std::string direction;

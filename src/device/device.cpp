@@ -119,8 +119,64 @@ Device::Device(DeviceDescription description) : d_(std::move(description)) {
       if (auto why = lifetime_violation(t1, t2, fmt::format("qubit {}", q)); !why.empty()) throw InputError(why);
     }
   }
+  index_service();
   if (!d_.positions.empty() && static_cast<int>(d_.positions.size()) != n)
     throw InputError(fmt::format("positions must list one entry per qubit ({}), got {}", n, d_.positions.size()));
+}
+
+void Device::index_service() {
+  const int n = d_.qubits;
+  qubit_on_.assign(n, 1);
+  for (int q = 0; q < n; ++q) qubit_on_[q] = out_of_service_reason(q).empty();
+  coupler_on_.assign(d_.couplers.size(), 1);
+  for (int i = 0; i < coupler_count(); ++i) coupler_on_[i] = coupler_out_of_service_reason(i).empty();
+  usable_qubits_ = static_cast<int>(std::count(qubit_on_.begin(), qubit_on_.end(), 1));
+  usable_couplers_ = static_cast<int>(std::count(coupler_on_.begin(), coupler_on_.end(), 1));
+  if (usable_couplers_ == coupler_count()) return;
+  // Keep the full index for any_coupler_index, and make the graph that of the couplers in service.
+  all_offsets_ = offsets_;
+  all_adj_ = adj_;
+  all_adj_coupler_ = adj_coupler_;
+  std::size_t out = 0;
+  for (int q = 0; q < n; ++q) {
+    const std::size_t begin = out;
+    for (int k = all_offsets_[q]; k < all_offsets_[q + 1]; ++k)
+      if (coupler_on_[all_adj_coupler_[k]]) {
+        adj_[out] = all_adj_[k];
+        adj_coupler_[out++] = all_adj_coupler_[k];
+      }
+    offsets_[q] = static_cast<int>(begin);
+  }
+  offsets_[n] = static_cast<int>(out);
+  adj_.resize(out);
+  adj_coupler_.resize(out);
+}
+
+std::string Device::out_of_service_reason(int q) const {
+  const int i = override_of_[q];
+  if (i >= 0 && d_.qubit_calibration[i].disabled) return "disabled";
+  // A one-qubit gate that always fails: every plan puts at least a Hadamard on each register qubit.
+  if (qubit_calibration(q).error_1q >= 1.0) return "error_1q 1";
+  return {};
+}
+
+std::string Device::coupler_out_of_service_reason(int coupler) const {
+  const Coupler& c = d_.couplers[coupler];
+  if (c.disabled) return "disabled";
+  for (int q : {c.a, c.b})
+    if (!out_of_service_reason(q).empty()) return fmt::format("qubit {} out of service", q);
+  // Certain failure: a plan over it would have ESP 0.
+  if (coupler_calibration(coupler).error >= 1.0) return "error 1";
+  return {};
+}
+
+int Device::any_coupler_index(int a, int b) const {
+  if (all_offsets_.empty()) return coupler_index(a, b);
+  if (a < 0 || b < 0 || a >= d_.qubits || b >= d_.qubits) return -1;
+  const auto first = all_adj_.begin() + all_offsets_[a], last = all_adj_.begin() + all_offsets_[a + 1];
+  auto it = std::lower_bound(first, last, b);
+  if (it == last || *it != b) return -1;
+  return all_adj_coupler_[static_cast<std::size_t>(it - all_adj_.begin())];
 }
 
 int Device::coupler_index(int a, int b) const {
@@ -151,7 +207,8 @@ std::vector<int> Device::distances_from(int source) const {
 std::pair<std::vector<int>, int> Device::components() const {
   using Graph = boost::adjacency_list<boost::vecS, boost::vecS, boost::undirectedS>;
   Graph g(d_.qubits);
-  for (const auto& c : d_.couplers) boost::add_edge(c.a, c.b, g);
+  for (int i = 0; i < coupler_count(); ++i)
+    if (coupler_on_[i]) boost::add_edge(d_.couplers[i].a, d_.couplers[i].b, g);
   std::vector<int> comp(d_.qubits);
   const int count = boost::connected_components(g, comp.data());
   // Renumber so component ids follow the order of their smallest qubit (Boost already visits

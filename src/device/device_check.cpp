@@ -43,15 +43,22 @@ std::vector<std::string> check_device(const Device& device) {
     }
     if (const auto [it, fresh] = seen.emplace(static_cast<std::uint64_t>(c.a) * n + c.b, i); !fresh)
       report("duplicate", fmt::format("coupler [{}, {}] is listed twice (#{} and #{})", c.a, c.b, it->second, i));
-    if (device.coupler_index(c.a, c.b) != i || device.coupler_index(c.b, c.a) != i)
+    if (device.any_coupler_index(c.a, c.b) != i || device.any_coupler_index(c.b, c.a) != i)
       report("lookup", fmt::format("coupler [{}, {}] is not found at its own index {} from both ends", c.a, c.b, i));
+    // The graph holds exactly the couplers in service.
+    if (device.coupled(c.a, c.b) != device.coupler_usable(i))
+      report("service", fmt::format("coupler [{}, {}] is {} the graph but {} service", c.a, c.b,
+                                    device.coupled(c.a, c.b) ? "in" : "not in",
+                                    device.coupler_usable(i) ? "in" : "out of"));
+    if (device.coupler_usable(i) && (!device.usable(c.a) || !device.usable(c.b)))
+      report("service", fmt::format("coupler [{}, {}] is in service but touches a qubit out of service", c.a, c.b));
     if (c.error && !probability(*c.error))
       report("coupler error", fmt::format("coupler [{}, {}] has error {} outside [0, 1]", c.a, c.b, *c.error));
     if (c.duration_ns && !positive_time(*c.duration_ns))
       report("coupler time", fmt::format("coupler [{}, {}] has duration {} ns", c.a, c.b, *c.duration_ns));
   }
 
-  // Adjacency: sorted, no self-loops, symmetric, and exactly the coupler list.
+  // Adjacency: sorted, no self-loops, symmetric, and exactly the couplers in service.
   for (int q = 0; q < n; ++q) {
     const auto nbs = device.neighbours(q);
     degree_sum += static_cast<std::int64_t>(nbs.size());
@@ -70,9 +77,9 @@ std::vector<std::string> check_device(const Device& device) {
         report("adjacency couplers", fmt::format("qubits {} and {} are neighbours without a coupler", q, nb));
     }
   }
-  if (degree_sum != 2 * static_cast<std::int64_t>(device.coupler_count()))
-    report("degree sum",
-           fmt::format("degrees add up to {}, expected twice the {} couplers", degree_sum, device.coupler_count()));
+  if (degree_sum != 2 * static_cast<std::int64_t>(device.usable_coupler_count()))
+    report("degree sum", fmt::format("degrees add up to {}, expected twice the {} couplers in service", degree_sum,
+                                     device.usable_coupler_count()));
 
   // Calibration as applied, qubit by qubit and coupler by coupler.
   for (const auto& o : d.qubit_calibration)

@@ -6,6 +6,7 @@
 #include <fmt/format.h>
 
 #include "qftplan/core/input_error.hpp"
+#include "qftplan/device/calibration_profile.hpp"
 #include "qftplan/device/device_yaml.hpp"
 #include "qftplan/device/lattices.hpp"
 
@@ -26,6 +27,13 @@ Device load_device(const std::string& spec_or_path) {
                                  spec_or_path.substr(0, colon), known));
   }
   return load_device_file(spec_or_path);
+}
+
+Device load_device(const std::string& spec_or_path, const std::optional<std::string>& calibration) {
+  if (!calibration || calibration->empty()) return load_device(spec_or_path);
+  // The profile first: a bad profile is reported before a large device is built.
+  const CalibrationProfile profile = load_calibration_profile(*calibration);
+  return with_calibration_profile(load_device(spec_or_path), profile);
 }
 
 }  // namespace qftplan

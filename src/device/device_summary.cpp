@@ -54,7 +54,9 @@ int dense_diameter(const Device& d) {
   const int n = d.qubit_count();
   const std::size_t words = (static_cast<std::size_t>(n) + 63) / 64;
   std::vector<std::uint64_t> adj(words * n, 0);
-  for (const auto& c : d.couplers()) {
+  for (int i = 0; i < d.coupler_count(); ++i) {
+    if (!d.coupler_usable(i)) continue;
+    const Coupler& c = d.couplers()[i];
     adj[c.a * words + c.b / 64] |= std::uint64_t{1} << (c.b % 64);
     adj[c.b * words + c.a / 64] |= std::uint64_t{1} << (c.a % 64);
   }
@@ -94,7 +96,7 @@ int dense_diameter(const Device& d) {
 /// massive graphs", ACM J. Experimental Algorithmics 13, 2009 — reference from memory).
 int diameter_value(const Device& d, const std::vector<int>& comp, int components) {
   const int n = d.qubit_count();
-  const auto m = static_cast<std::int64_t>(d.coupler_count());
+  const auto m = static_cast<std::int64_t>(d.usable_coupler_count());
   if (diameter_is_exact(n)) {
     // A bit-set search costs about n/64 words per reached qubit; a plain one about its degree.
     if (2 * m > std::int64_t{n} * n / 32) return dense_diameter(d);
@@ -162,28 +164,41 @@ DeviceSummary summarize(const Device& device) {
   s.name = device.name();
   s.qubits = n;
   s.couplers = device.coupler_count();
-  s.min_degree = std::numeric_limits<int>::max();
+  for (int q = 0; q < n; ++q)
+    if (!device.usable(q)) s.out_of_service.push_back({{q}, device.out_of_service_reason(q)});
+  for (int i = 0; i < s.couplers; ++i)
+    if (!device.coupler_usable(i))
+      s.out_of_service.push_back({{device.couplers()[i].a, device.couplers()[i].b},
+                                  device.coupler_out_of_service_reason(i)});
+  // The graph in service: qubits out of service are not counted (they are isolated there).
+  const bool any_usable = device.usable_qubit_count() > 0;
+  s.min_degree = any_usable ? std::numeric_limits<int>::max() : 0;
   for (int q = 0; q < n; ++q) {
+    if (!device.usable(q)) continue;
     s.min_degree = std::min(s.min_degree, device.degree(q));
     s.max_degree = std::max(s.max_degree, device.degree(q));
   }
   const auto [comp, count] = device.components();
-  s.components = count;
   std::vector<int> sizes(count, 0);
-  for (int c : comp) ++sizes[c];
+  for (int q = 0; q < n; ++q) sizes[comp[q]] += device.usable(q);
+  s.components = static_cast<int>(std::count_if(sizes.begin(), sizes.end(), [](int z) { return z > 0; }));
   s.largest_component = *std::max_element(sizes.begin(), sizes.end());
   s.diameter = diameter_value(device, comp, count);
   s.bipartite = is_bipartite(device);
   s.native_2q = two_qubit_gate_name(device.native_2q());
   s.calibrated = device.has_calibration();
   if (s.calibrated) {
+    // Ranges over the parts in service (all parts when none is in service).
+    bool first = true;
     for (int q = 0; q < n; ++q) {
+      if (any_usable && !device.usable(q)) continue;
       const auto c = device.qubit_calibration(q);
-      widen(s.error_1q, c.error_1q, q == 0);
-      widen(s.error_readout, c.error_readout, q == 0);
-      widen(s.duration_1q_ns, c.duration_1q_ns, q == 0);
-      widen(s.t1_us, c.t1_us, q == 0);
-      widen(s.t2_us, c.t2_us, q == 0);
+      widen(s.error_1q, c.error_1q, first);
+      widen(s.error_readout, c.error_readout, first);
+      widen(s.duration_1q_ns, c.duration_1q_ns, first);
+      widen(s.t1_us, c.t1_us, first);
+      widen(s.t2_us, c.t2_us, first);
+      first = false;
     }
     if (s.couplers == 0) {
       // No coupler to look at: show what a coupler would get.
@@ -192,10 +207,14 @@ DeviceSummary summarize(const Device& device) {
       const double t = cal.duration_2q_ns.value_or(kDefaultDuration2qNs);
       s.duration_2q_ns = Range{t, t};
     }
+    const bool any_coupler = device.usable_coupler_count() > 0;
+    first = true;
     for (int i = 0; i < s.couplers; ++i) {
+      if (any_coupler && !device.coupler_usable(i)) continue;
       const auto c = device.coupler_calibration(i);
-      widen(s.error_2q, c.error, i == 0);
-      widen(s.duration_2q_ns, c.duration_ns, i == 0);
+      widen(s.error_2q, c.error, first);
+      widen(s.duration_2q_ns, c.duration_ns, first);
+      first = false;
     }
   }
   return s;
@@ -204,8 +223,25 @@ DeviceSummary summarize(const Device& device) {
 std::string format_summary(const DeviceSummary& s) {
   std::vector<std::pair<std::string, std::string>> rows;
   rows.emplace_back("name", s.name);
-  rows.emplace_back("qubits", fmt::format("{}", s.qubits));
-  rows.emplace_back("couplers", fmt::format("{}", s.couplers));
+  long long qubits_out = 0;
+  for (const auto& p : s.out_of_service) qubits_out += p.qubits.size() == 1;
+  const long long couplers_out = static_cast<long long>(s.out_of_service.size()) - qubits_out;
+  const auto out_note = [](long long k) { return k > 0 ? fmt::format(" ({} out of service)", k) : std::string(); };
+  rows.emplace_back("qubits", fmt::format("{}{}", s.qubits, out_note(qubits_out)));
+  rows.emplace_back("couplers", fmt::format("{}{}", s.couplers, out_note(couplers_out)));
+  if (!s.out_of_service.empty()) {
+    // Each part with its reason; a long list is cut after kListed parts.
+    constexpr std::size_t kListed = 16;
+    std::string list;
+    for (std::size_t i = 0; i < s.out_of_service.size() && i < kListed; ++i) {
+      const auto& p = s.out_of_service[i];
+      const std::string part = p.qubits.size() == 1 ? fmt::format("qubit {}", p.qubits[0])
+                                                    : fmt::format("coupler [{}, {}]", p.qubits[0], p.qubits[1]);
+      list += fmt::format("{}{} ({})", i ? ", " : "", part, p.reason);
+    }
+    if (s.out_of_service.size() > kListed) list += fmt::format(", ... and {} more", s.out_of_service.size() - kListed);
+    rows.emplace_back("out of service", list);
+  }
   rows.emplace_back("degree", s.min_degree == s.max_degree ? fmt::format("{} (every qubit)", s.min_degree)
                                                            : fmt::format("{} .. {}", s.min_degree, s.max_degree));
   std::string diameter =
@@ -215,13 +251,14 @@ std::string format_summary(const DeviceSummary& s) {
   if (s.components > 1) diameter += " within a component";
   rows.emplace_back("diameter", diameter);
   if (s.components <= 1)
-    rows.emplace_back("components", "1 (connected)");
+    rows.emplace_back("components", fmt::format("{} (connected{})", s.components, qubits_out ? " in service" : ""));
   else
     rows.emplace_back(
         "components",
         fmt::format("{}, largest {} qubit{} — disconnected: {} qubit{} cannot reach the largest component",
                     s.components, s.largest_component, s.largest_component == 1 ? "" : "s",
-                    s.qubits - s.largest_component, s.qubits - s.largest_component == 1 ? "" : "s"));
+                    s.qubits - qubits_out - s.largest_component,
+                    s.qubits - qubits_out - s.largest_component == 1 ? "" : "s"));
   rows.emplace_back("bipartite", s.bipartite ? "yes" : "no");
   rows.emplace_back("native 2q gate", s.native_2q);
   if (!s.calibrated) {

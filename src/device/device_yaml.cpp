@@ -18,8 +18,10 @@
 #include <vector>
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include "qftplan/core/input_error.hpp"
+#include "qftplan/device/calibration_profile.hpp"
 #include "yaml_messages.hpp"
 #include "yaml_scalars.hpp"
 #include "yaml_text_check.hpp"
@@ -40,14 +42,14 @@ using yaml_detail::unknown_key_message;
 /// device_to_yaml writes for the biggest built-in lattices (grid:1000x1000 is about 71 MiB, ring:1000000
 /// about 66 MiB), so that every lattice round-trips; memory stays near 1 GB thanks to the compact Tree.
 constexpr std::uintmax_t kMaxDeviceFileMiB = 128;
-constexpr std::uintmax_t kMaxDeviceFileBytes = kMaxDeviceFileMiB << 20;
 
 const std::vector<std::string> kTopKeys = {"name",      "qubits",   "couplers", "calibration", "qubit_calibration",
                                            "positions", "native_2q"};
 const std::vector<std::string> kCalibrationKeys = {"error_1q",       "error_2q", "error_readout", "duration_1q_ns",
                                                    "duration_2q_ns", "t1_us",    "t2_us"};
-const std::vector<std::string> kOverrideKeys = {"id", "error_1q", "error_readout", "duration_1q_ns", "t1_us", "t2_us"};
-const std::vector<std::string> kCouplerKeys = {"pair", "error", "duration_ns"};
+const std::vector<std::string> kOverrideKeys = {"id",    "error_1q", "error_readout", "duration_1q_ns",
+                                               "t1_us", "t2_us",    "disabled"};
+const std::vector<std::string> kCouplerKeys = {"pair", "error", "duration_ns", "disabled"};
 const std::vector<std::string> kPositionKeys = {"id", "at"};
 
 /// The member of CalibrationValues a key of `calibration` sets (keys are checked against kCalibrationKeys).
@@ -61,7 +63,7 @@ std::optional<double> CalibrationValues::*calibration_field(const std::string& k
   return &CalibrationValues::t2_us;
 }
 
-/// The member of QubitOverride a key of a qubit_calibration entry sets (other than "id").
+/// The member of QubitOverride a number key of a qubit_calibration entry sets (not "id" or "disabled").
 std::optional<double> QubitOverride::*override_field(const std::string& key) {
   if (key == "error_1q") return &QubitOverride::error_1q;
   if (key == "error_readout") return &QubitOverride::error_readout;
@@ -70,34 +72,53 @@ std::optional<double> QubitOverride::*override_field(const std::string& key) {
   return &QubitOverride::t2_us;
 }
 
+/// Calibration profiles are a handful of lines: anything above this is not one.
+constexpr std::uintmax_t kMaxProfileFileMiB = 1;
+
 /// Walks a parsed document along the schema, validating with positions, and fills a description.
 class Reader {
  public:
   Reader(const std::string& text, const std::string& source) : text_(text), source_(source) {}
 
   Device read() {
-    if (text_.size() > kMaxDeviceFileBytes)
-      throw InputError(
-          source_, 0, 0,
-          fmt::format("the device text is {} bytes, more than the limit of {} MiB", text_.size(), kMaxDeviceFileMiB));
+    return read_root(parse_root("device text", kMaxDeviceFileMiB, "a device description",
+                                " with name, qubits and couplers", "a mapping with name, qubits and couplers"));
+  }
+
+  /// A calibration profile: one mapping of the `calibration` block's keys, at least one of them.
+  CalibrationValues read_profile() {
+    const NodeRef root =
+        parse_root("calibration profile", kMaxProfileFileMiB, "a calibration profile", " such as {error_2q: 0.008}",
+                   "a mapping of calibration values such as {error_2q: 0.008}");
+    CalibrationValues cal;
+    read_calibration_map(root, cal, "calibration profile");
+    if (cal.empty())
+      fail(node_pos(root), fmt::format("the calibration profile sets nothing; give at least one of {}",
+                                       fmt::join(kCalibrationKeys, ", ")));
+    if (auto why = lifetime_violation(cal.t1_us, cal.t2_us, "the calibration profile"); !why.empty())
+      fail(node_pos(root), why);
+    return cal;
+  }
+
+ private:
+  /// The checks every document gets (size, encoding, characters, YAML syntax) and its root, which
+  /// must be a mapping: `what` names the text in the size message, `expected` + `example` the content.
+  NodeRef parse_root(const char* what, std::uintmax_t limit_mib, const std::string& expected, const char* example,
+                     const char* mapping) {
+    if (text_.size() > (limit_mib << 20))
+      throw InputError(source_, 0, 0,
+                       fmt::format("the {} is {} bytes, more than the limit of {} MiB", what, text_.size(), limit_mib));
     if ((normalized_ = yaml_detail::normalized_text(text_))) text_ = *normalized_;
     yaml_detail::check_raw_text(text_, source_);
     const int documents =
         yaml_detail::build_tree(text_, tree_, [this](Pos p, const std::string& msg) { fail(p, msg); });
-    if (documents == 0)
-      throw InputError(source_, 0, 0,
-                       "the file is empty; expected a device description with name, qubits and couplers");
+    if (documents == 0) throw InputError(source_, 0, 0, "the file is empty; expected " + expected + example);
     const NodeRef root(tree_, tree_.root);
-    if (root.null())
-      fail(node_pos(root), "the YAML document is empty; expected a device description with name, qubits and couplers");
-    if (!root.map())
-      fail(node_pos(root),
-           fmt::format("expected a device description (a mapping with name, qubits and couplers), found {}",
-                       describe(root)));
-    return read_root(root);
+    if (root.null()) fail(node_pos(root), "the YAML document is empty; expected " + expected + example);
+    if (!root.map()) fail(node_pos(root), fmt::format("expected {} ({}), found {}", expected, mapping, describe(root)));
+    return root;
   }
 
- private:
   struct Entry {
     std::string key;
     Pos key_pos;
@@ -195,6 +216,17 @@ class Reader {
     return v;
   }
 
+  /// A flag: the YAML 1.2 core schema's booleans (section 10.3.2: true, True, TRUE, false, False, FALSE).
+  bool read_flag(const Entry& e) {
+    const Pos p = value_pos(e);
+    if (e.value.scalar() && e.value.style() == Tree::Style::plain) {
+      const std::string_view t = e.value.text();
+      if (t == "true" || t == "True" || t == "TRUE") return true;
+      if (t == "false" || t == "False" || t == "FALSE") return false;
+    }
+    fail(p, fmt::format("'{}' must be true or false, got {}", e.key, describe(e.value)));
+  }
+
   /// A calibration value: error rates are probabilities, durations gate times, t1/t2 lifetimes.
   double read_value(const Entry& e) {
     if (e.key.starts_with("error")) return read_rate(e);
@@ -289,6 +321,7 @@ class Reader {
         pair_pos = value_pos(*p);
         if (const Entry* f = find(fields, "error")) c.error = read_rate(*f);
         if (const Entry* f = find(fields, "duration_ns")) c.duration_ns = read_duration(*f);
+        if (const Entry* f = find(fields, "disabled")) c.disabled = read_flag(*f);
       } else if (!item.sequence()) {
         fail(ip, fmt::format("a coupler must be a pair such as [0, 1] or a mapping such as "
                              "{{pair: [0, 1], error: 0.01}}, got {}",
@@ -327,7 +360,11 @@ class Reader {
     if (!e.value.map())
       fail(value_pos(e),
            fmt::format("'calibration' must be a mapping such as {{error_2q: 0.008}}, got {}", describe(e.value)));
-    for (const auto& f : entries(e.value, kCalibrationKeys, "calibration")) {
+    read_calibration_map(e.value, cal, "calibration");
+  }
+
+  void read_calibration_map(const NodeRef& map, CalibrationValues& cal, const std::string& context) {
+    for (const auto& f : entries(map, kCalibrationKeys, context)) {
       // An infinite T1 or T2 (.inf) is a qubit that does not decay: kept as written.
       cal.*calibration_field(f.key) = read_value(f);
     }
@@ -355,7 +392,10 @@ class Reader {
              fmt::format("qubit_calibration lists qubit {} twice (first on line {})", o.id, it->second));
       for (const auto& f : fields) {
         if (f.key == "id") continue;
-        o.*override_field(f.key) = read_value(f);
+        if (f.key == "disabled")
+          o.disabled = read_flag(f);
+        else
+          o.*override_field(f.key) = read_value(f);
       }
       // T1 and T2 as applied to this qubit (its own, else the device-wide value).
       const auto t1 = o.t1_us ? o.t1_us : d.calibration.t1_us, t2 = o.t2_us ? o.t2_us : d.calibration.t2_us;
@@ -414,36 +454,52 @@ class Reader {
 
 Device parse_device_yaml(const std::string& text, const std::string& source) { return Reader(text, source).read(); }
 
-Device load_device_file(const std::string& path) {
+namespace {
+
+/// The text of a YAML file of `kind` ("device file", "calibration profile"), refused above `limit_mib`.
+std::string read_yaml_file(const std::string& path, const char* kind, std::uintmax_t limit_mib) {
   namespace fs = std::filesystem;
-  if (path.empty()) throw InputError("no device file given (the path is empty)");
+  const std::uintmax_t limit = limit_mib << 20;
+  if (path.empty()) throw InputError(fmt::format("no {} given (the path is empty)", kind));
   std::error_code ec;
   const auto status = fs::status(path, ec);
   if (!fs::exists(status)) {
     if (ec && ec != std::errc::no_such_file_or_directory) throw InputError(path, 0, 0, "cannot open: " + ec.message());
     throw InputError(path, 0, 0, "no such file");
   }
-  if (fs::is_directory(status)) throw InputError(path, 0, 0, "is a directory, not a device file");
+  if (fs::is_directory(status)) throw InputError(path, 0, 0, fmt::format("is a directory, not a {}", kind));
   if (!fs::is_regular_file(status)) throw InputError(path, 0, 0, "is not a regular file");
   const auto size = fs::file_size(path, ec);
-  if (!ec && size > kMaxDeviceFileBytes)
-    throw InputError(path, 0, 0,
-                     fmt::format("the file is {} bytes, more than the limit of {} MiB", size, kMaxDeviceFileMiB));
+  if (!ec && size > limit)
+    throw InputError(path, 0, 0, fmt::format("the file is {} bytes, more than the limit of {} MiB", size, limit_mib));
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError(path, 0, 0, std::string("cannot open: ") + std::strerror(errno));
   // Read at most one byte past the limit, in case the file grew since it was measured.
-  std::string text(static_cast<std::size_t>(std::min<std::uintmax_t>(ec ? 0 : size, kMaxDeviceFileBytes)), '\0');
+  std::string text(static_cast<std::size_t>(std::min<std::uintmax_t>(ec ? 0 : size, limit)), '\0');
   in.read(text.data(), static_cast<std::streamsize>(text.size()));
   text.resize(static_cast<std::size_t>(in.gcount()));
   char buf[65536];
-  while (in && text.size() <= kMaxDeviceFileBytes) {
+  while (in && text.size() <= limit) {
     in.read(buf, sizeof buf);
     text.append(buf, static_cast<std::size_t>(in.gcount()));
   }
   if (in.bad()) throw InputError(path, 0, 0, "cannot read the file");
-  if (text.size() > kMaxDeviceFileBytes)
-    throw InputError(path, 0, 0, fmt::format("the file is more than the limit of {} MiB", kMaxDeviceFileMiB));
-  return parse_device_yaml(text, path);
+  if (text.size() > limit) throw InputError(path, 0, 0, fmt::format("the file is more than the limit of {} MiB", limit_mib));
+  return text;
+}
+
+}  // namespace
+
+Device load_device_file(const std::string& path) {
+  return parse_device_yaml(read_yaml_file(path, "device file", kMaxDeviceFileMiB), path);
+}
+
+CalibrationProfile parse_calibration_profile(const std::string& text, const std::string& source) {
+  return CalibrationProfile{Reader(text, source).read_profile(), source};
+}
+
+CalibrationProfile load_calibration_profile(const std::string& path) {
+  return parse_calibration_profile(read_yaml_file(path, "calibration profile", kMaxProfileFileMiB), path);
 }
 
 }  // namespace qftplan

@@ -98,6 +98,7 @@ std::string device_to_yaml(const Device& device) {
                                                                              {"t2_us", &o.t2_us}};
       for (const auto& [key, value] : fields)
         if (*value) out += fmt::format(", {}: {}", key, num(**value));
+      if (o.disabled) out += ", disabled: true";
       out += "}\n";
     }
   }
@@ -107,13 +108,14 @@ std::string device_to_yaml(const Device& device) {
   } else {
     out += "couplers:\n";
     for (const auto& cp : d.couplers) {
-      if (!cp.error && !cp.duration_ns) {
+      if (!cp.error && !cp.duration_ns && !cp.disabled) {
         out += fmt::format("  - [{}, {}]\n", cp.a, cp.b);
         continue;
       }
       out += fmt::format("  - {{pair: [{}, {}]", cp.a, cp.b);
       if (cp.error) out += ", error: " + num(*cp.error);
       if (cp.duration_ns) out += ", duration_ns: " + num(*cp.duration_ns);
+      if (cp.disabled) out += ", disabled: true";
       out += "}\n";
     }
   }

@@ -15,7 +15,7 @@ bool is_chain(const Device& device, const std::vector<int>& chain) {
   std::vector<bool> seen(device.qubit_count(), false);
   for (std::size_t i = 0; i < chain.size(); ++i) {
     const int q = chain[i];
-    if (q < 0 || q >= device.qubit_count() || seen[q]) return false;
+    if (q < 0 || q >= device.qubit_count() || seen[q] || !device.usable(q)) return false;
     seen[q] = true;
     if (i > 0 && !device.coupled(chain[i - 1], q)) return false;
   }
@@ -31,8 +31,8 @@ class Searcher {
 
   ChainSearchResult run() {
     ChainSearchResult r;
-    if (n_ <= 0 || n_ > dev_.qubit_count()) {
-      r.proved_none = n_ > dev_.qubit_count();  // more qubits than the device has
+    if (n_ <= 0 || n_ > dev_.usable_qubit_count()) {
+      r.proved_none = n_ > dev_.usable_qubit_count();  // more qubits than the device has in service
       return r;
     }
     const std::vector<int> first = starts();
@@ -83,7 +83,8 @@ class Searcher {
     };
     auto [comp, count] = dev_.components();
     std::vector<int> comp_size(count, 0);
-    for (int c : comp) ++comp_size[c];
+    // A qubit out of service is a component of its own with nothing to offer: size 0, never a start.
+    for (int q = 0; q < N; ++q) comp_size[comp[q]] += dev_.usable(q);
     std::vector<int> first_of(count, -1);
     for (int q = 0; q < N; ++q)
       if (first_of[comp[q]] < 0) first_of[comp[q]] = q;
@@ -103,7 +104,7 @@ class Searcher {
     }
     std::vector<int> by_degree;
     for (int q = 0; q < N; ++q)
-      if (comp_size[comp[q]] >= n_) by_degree.push_back(q);
+      if (dev_.usable(q) && comp_size[comp[q]] >= n_) by_degree.push_back(q);
     std::stable_sort(by_degree.begin(), by_degree.end(), [&](int x, int y) { return dev_.degree(x) < dev_.degree(y); });
     for (std::size_t i = 0; i < by_degree.size() && i < 4; ++i) add(by_degree[i]);
     if (!by_degree.empty())
@@ -229,7 +230,7 @@ class Searcher {
   int searchable_qubits() const {
     const auto [comp, count] = dev_.components();
     std::vector<int> size(static_cast<std::size_t>(count), 0);
-    for (int c : comp) ++size[static_cast<std::size_t>(c)];
+    for (int q = 0; q < dev_.qubit_count(); ++q) size[static_cast<std::size_t>(comp[q])] += dev_.usable(q);
     int total = 0;
     for (int c = 0; c < count; ++c)
       if (size[static_cast<std::size_t>(c)] >= n_) total += size[static_cast<std::size_t>(c)];

@@ -40,6 +40,11 @@ std::vector<int> chain_from_pin(const Device& device, const QftSpec& spec, const
   return chain;
 }
 
+// Said after the device's name when parts out of service narrow the search.
+std::string in_service_note(const Device& device) {
+  return device.has_parts_out_of_service() ? " among the parts in service" : "";
+}
+
 // Largest network (in blocks) whose ESP we evaluate by a dry run during --approx auto.
 constexpr long long kMaxScoredBlocks = 4'000'000;
 // Largest network (in blocks) whose esp_total is counted exactly (a full stream through the noise
@@ -96,15 +101,15 @@ std::vector<int> first_chain(const Device& device, const PlanOptions& options, P
   }
   if (found.chain.empty() && found.proved_none) {
     throw PlanningError(fmt::format(
-        "no chain of {} qubits exists in {} (proved by a complete search; longest found: {} qubits); a chain "
+        "no chain of {} qubits exists in {}{} (proved by a complete search; longest found: {} qubits); a chain "
         "strategy needs one",
-        n, device.name(), found.longest.size()));
+        n, device.name(), in_service_note(device), found.longest.size()));
   }
   if (found.chain.empty()) {
     throw PlanningError(fmt::format(
-        "no chain of {} qubits found in {} within the search budget (longest found: {} qubits; --effort raises "
+        "no chain of {} qubits found in {}{} within the search budget (longest found: {} qubits; --effort raises "
         "the budget); a chain strategy needs one",
-        n, device.name(), found.longest.size()));
+        n, device.name(), in_service_note(device), found.longest.size()));
   }
   plan.placement.method = "first-found";
   return found.chain;

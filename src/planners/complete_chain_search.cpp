@@ -20,10 +20,10 @@ class CompleteSearch {
     // Components too small to hold the chain are never entered.
     const auto [comp, count] = dev_.components();
     std::vector<int> size(static_cast<std::size_t>(count), 0);
-    for (int q = 0; q < N; ++q) ++size[static_cast<std::size_t>(comp[q])];
+    for (int q = 0; q < N; ++q) size[static_cast<std::size_t>(comp[q])] += dev_.usable(q);
     std::vector<int> starts;
     for (int q = 0; q < N; ++q)
-      if (size[static_cast<std::size_t>(comp[q])] >= n_) starts.push_back(q);
+      if (dev_.usable(q) && size[static_cast<std::size_t>(comp[q])] >= n_) starts.push_back(q);
     // Chains tend to end on qubits of few couplers: try those first (finds chains sooner; the
     // order does not matter for the proof).
     std::stable_sort(starts.begin(), starts.end(), [&](int a, int b) { return dev_.degree(a) < dev_.degree(b); });

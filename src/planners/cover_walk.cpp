@@ -239,7 +239,10 @@ CoverRegion cover_region(const Device& dev, int n, std::uint64_t seed, const Run
   cso.work_budget = 5'000'000;
   const auto found = find_chain(dev, n, cso);
   std::vector<int> chain = found.chain.empty() ? found.longest : found.chain;
-  if (chain.empty()) chain.push_back(0);
+  // No chain at all (no component holds n qubits): grow from the first qubit in service, which then
+  // reports how short its component falls.
+  for (int q = 0; chain.empty() && q < dev.qubit_count(); ++q)
+    if (dev.usable(q)) chain.push_back(q);
   if (static_cast<int>(chain.size()) > n) chain.resize(n);
   CoverRegion out;
   out.roots.push_back(chain.front());

@@ -193,6 +193,7 @@ class Exhaustive {
       : dev_(d), sc_(s), n_(n), budget_(budget), best_(best), on_(d.qubit_count(), false), poll_(run_budget) {}
   bool run() {
     for (int q = 0; q < dev_.qubit_count(); ++q) {
+      if (!dev_.usable(q)) continue;  // out of service: never placed on
       path_.assign(1, q);
       on_[q] = true;
       dfs(sc_.at(0, q));
@@ -261,8 +262,12 @@ double uniform_log_esp(const Device& device, const QftNetwork& network, TwoQubit
       two_q += static_cast<double>(counts[k]) * l.two_q;
     }
   }
-  const double log_1q = device.qubit_count() > 0 ? std::log1p(-device.qubit_calibration(0).error_1q) : 0.0;
-  const double log_2q = device.coupler_count() > 0 ? std::log1p(-device.coupler_calibration(0).error) : 0.0;
+  // Uniform over the parts in service: read the calibration of the first qubit and coupler in service.
+  int q0 = 0, c0 = 0;
+  while (q0 < device.qubit_count() && !device.usable(q0)) ++q0;
+  while (c0 < device.coupler_count() && !device.coupler_usable(c0)) ++c0;
+  const double log_1q = q0 < device.qubit_count() ? std::log1p(-device.qubit_calibration(q0).error_1q) : 0.0;
+  const double log_2q = c0 < device.coupler_count() ? std::log1p(-device.coupler_calibration(c0).error) : 0.0;
   return (one_q > 0 ? one_q * log_1q : 0.0) + (two_q > 0 ? two_q * log_2q : 0.0);
 }
 
@@ -299,8 +304,9 @@ PlacementChoice best_chain(const Device& device, const ChainLoads& loads, const 
     };
     std::vector<State> beam;
     // Start from the best single positions: every qubit, ranked by its first-position score.
-    std::vector<int> qs(device.qubit_count());
-    for (int q = 0; q < device.qubit_count(); ++q) qs[q] = q;
+    std::vector<int> qs;
+    for (int q = 0; q < device.qubit_count(); ++q)
+      if (device.usable(q)) qs.push_back(q);
     std::mt19937_64 rng(options.seed);
     std::shuffle(qs.begin(), qs.end(), rng);
     std::stable_sort(qs.begin(), qs.end(), [&](int a, int b) { return sc.at(0, a) > sc.at(0, b); });

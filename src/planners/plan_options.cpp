@@ -94,27 +94,49 @@ void validate_spec(const Device& device, const QftSpec& spec) {
   if (spec.qubits > kMaxRegisterQubits)
     throw SettingError("qubits", fmt::format(" {} is more than the limit of {} qubits per register", spec.qubits,
                                  kMaxRegisterQubits));
-  if (spec.qubits > device.qubit_count())
-    throw PlanningError(fmt::format("device {} has {} qubits, fewer than the {} requested", device.name(),
-                                    device.qubit_count(), spec.qubits));
+  if (spec.qubits > device.usable_qubit_count()) {
+    if (device.usable_qubit_count() == device.qubit_count())
+      throw PlanningError(fmt::format("device {} has {} qubits, fewer than the {} requested", device.name(),
+                                      device.qubit_count(), spec.qubits));
+    throw PlanningError(fmt::format("device {} has {} qubits in service ({} out of service), fewer than the {} requested",
+                                    device.name(), device.usable_qubit_count(),
+                                    device.qubit_count() - device.usable_qubit_count(), spec.qubits));
+  }
   if (spec.approx_degree && *spec.approx_degree < 1)
     throw SettingError("approx", fmt::format(" must be at least 1 (1 keeps Hadamards only), got {}", *spec.approx_degree));
 }
 
 bool uniform_errors(const Device& device) {
-  const auto c0 = device.coupler_count() > 0 ? device.coupler_calibration(0) : CouplerCalibration{};
-  for (int c = 1; c < device.coupler_count(); ++c) {
+  // Only the parts in service: no plan uses the others.
+  const int first_c = first_usable_coupler(device), first_q = first_usable_qubit(device);
+  const auto c0 = first_c >= 0 ? device.coupler_calibration(first_c) : CouplerCalibration{};
+  for (int c = first_c + 1; first_c >= 0 && c < device.coupler_count(); ++c) {
+    if (!device.coupler_usable(c)) continue;
     const auto cc = device.coupler_calibration(c);
     if (cc.error != c0.error || cc.duration_ns != c0.duration_ns) return false;
   }
-  const auto q0 = device.qubit_calibration(0);
-  for (int q = 1; q < device.qubit_count(); ++q) {
+  if (first_q < 0) return true;
+  const auto q0 = device.qubit_calibration(first_q);
+  for (int q = first_q + 1; q < device.qubit_count(); ++q) {
+    if (!device.usable(q)) continue;
     const auto c = device.qubit_calibration(q);
     if (c.error_1q != q0.error_1q || c.duration_1q_ns != q0.duration_1q_ns || c.error_readout != q0.error_readout ||
         c.t1_us != q0.t1_us || c.t2_us != q0.t2_us)
       return false;
   }
   return true;
+}
+
+int first_usable_qubit(const Device& device) {
+  for (int q = 0; q < device.qubit_count(); ++q)
+    if (device.usable(q)) return q;
+  return -1;
+}
+
+int first_usable_coupler(const Device& device) {
+  for (int c = 0; c < device.coupler_count(); ++c)
+    if (device.coupler_usable(c)) return c;
+  return -1;
 }
 
 PreparedPlan start_plan(const Device& device, const PlanOptions& options, const char* strategy) {

@@ -209,14 +209,14 @@ SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, c
   if (device.qubit_count() == 0) throw PlanningError(fmt::format("{} has no qubits", device.name()));
   auto [comp, count] = device.components();
   std::vector<int> size(count, 0);
-  for (int c : comp) ++size[c];
+  for (int q = 0; q < device.qubit_count(); ++q) size[comp[q]] += device.usable(q);
   const int big = static_cast<int>(std::max_element(size.begin(), size.end()) - size.begin());
   const int largest = size[big];
   if (largest < n)
     throw PlanningError(fmt::format(
         "the spine strategy needs {} connected qubits; the largest connected piece of {} has {}", n, device.name(), largest));
   std::vector<char> inside(device.qubit_count(), 0);
-  for (int q = 0; q < device.qubit_count(); ++q) inside[q] = comp[q] == big;
+  for (int q = 0; q < device.qubit_count(); ++q) inside[q] = comp[q] == big && device.usable(q);
   out.spine = grow_best_spine(device, inside, largest, seed, budget);
   // Both directions of the spine, each with the trees read in place, gathered on a walk back from the
   // end, or split between the two at a few points; the cheapest line by the weighted detour cost.

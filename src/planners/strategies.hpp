@@ -12,8 +12,13 @@ namespace qftplan {
 /// Throws InputError / PlanningError when `spec` cannot be planned on `device` at all.
 void validate_spec(const Device& device, const QftSpec& spec);
 
-/// True when every coupler has the same two-qubit error and gate time and every qubit the same
-/// one-qubit error, gate time, readout error, T1 and T2: then all chains of a network have the same
+/// The lowest qubit in service, or -1 when there is none.
+int first_usable_qubit(const Device& device);
+/// The lowest coupler (index into couplers()) in service, or -1 when there is none.
+int first_usable_coupler(const Device& device);
+
+/// True when every coupler in service has the same two-qubit error and gate time and every qubit the same
+/// one-qubit error, gate time, readout error, T1 and T2 (parts out of service left out): then all chains of a network have the same
 /// esp_total and there is nothing to choose.
 bool uniform_errors(const Device& device);
 

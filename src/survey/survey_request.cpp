@@ -118,7 +118,7 @@ SurveyShard parse_shard(const std::string& text) {
   return {*k, *m};
 }
 
-SurveyDeviceEntry make_survey_entry(const std::string& text) {
+SurveyDeviceEntry make_survey_entry(const std::string& text, const std::optional<CalibrationProfile>& calibration) {
   SurveyDeviceEntry e;
   e.text = text;
   const auto colon = text.find(':');
@@ -132,7 +132,8 @@ SurveyDeviceEntry make_survey_entry(const std::string& text) {
     e.label = text;
     return e;
   }
-  e.device = std::make_shared<const Device>(load_device(text));
+  e.device = std::make_shared<const Device>(calibration ? with_calibration_profile(load_device(text), *calibration)
+                                                        : load_device(text));
   e.label = e.device->name();
   return e;
 }
@@ -200,6 +201,17 @@ std::string survey_fingerprint(const SurveyRequest& request) {
   for (const auto& a : request.approx) text += "approx=" + a.text() + ";";
   for (const bool inv : request.directions) text += inv ? "dir=inverse;" : "dir=forward;";
   for (const auto& s : request.strategies) text += "strategy=" + s + ";";
+  // The profile's values (not its file name): shards calibrated alike merge, others do not. A survey
+  // without a profile keeps the fingerprint it always had.
+  if (request.calibration) {
+    const CalibrationValues& c = request.calibration->values;
+    const std::pair<const char*, const std::optional<double>*> fields[] = {
+        {"error_1q", &c.error_1q},         {"error_2q", &c.error_2q}, {"error_readout", &c.error_readout},
+        {"duration_1q_ns", &c.duration_1q_ns}, {"duration_2q_ns", &c.duration_2q_ns}, {"t1_us", &c.t1_us},
+        {"t2_us", &c.t2_us}};
+    for (const auto& [key, value] : fields)
+      if (*value) text += fmt::format("calibration.{}={};", key, **value);
+  }
   std::uint64_t h = 14695981039346656037ull;
   for (const unsigned char ch : text) {
     h ^= ch;

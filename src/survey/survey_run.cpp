@@ -32,7 +32,9 @@ SurveyRow run_survey_case(const SurveyRequest& request, const SurveyCase& c) {
       // A fitted family member is built here, in the worker, so large lattices build in parallel.
       const std::string spec = fitted_family_spec(*entry.family, c.qubits);
       row.device = spec;
-      dev = std::make_shared<const Device>(make_lattice(spec));
+      dev = std::make_shared<const Device>(request.calibration
+                                               ? with_calibration_profile(make_lattice(spec), *request.calibration)
+                                               : make_lattice(spec));
     }
     row.device = dev->name();
     row.device_qubits = dev->qubit_count();

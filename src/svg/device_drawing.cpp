@@ -37,11 +37,39 @@ struct Heading {
   std::string plan_line;  // the plan's title, method and blocks; empty without a plan
 };
 
+// "; 2 qubits and 5 couplers out of service" ("; 1 coupler out of service"), or empty.
+std::string out_of_service_note(const Device& device) {
+  if (!device.has_parts_out_of_service()) return {};
+  const int q = device.qubit_count() - device.usable_qubit_count();
+  const int c = device.coupler_count() - device.usable_coupler_count();
+  const std::string qubits = q > 0 ? fmt::format("{} qubit{}", q, q == 1 ? "" : "s") : "";
+  const std::string couplers = c > 0 ? fmt::format("{} coupler{}", c, c == 1 ? "" : "s") : "";
+  return "; " + qubits + (q > 0 && c > 0 ? " and " : "") + couplers + " out of service";
+}
+
+// Parts out of service: a pale grey, dotted line for a coupler, and a pale grey circle struck
+// through for a qubit, so that they read apart from the parts in service in grey scale too.
+constexpr const char* kOutOfServiceStroke = "#b4b4b4";
+constexpr const char* kOutOfServiceFill = "#ececec";
+
+SvgPaint out_of_service_coupler_paint(double coupler_w) {
+  SvgPaint p{"none", kOutOfServiceStroke, std::max(1.0, coupler_w * 0.6)};
+  p.dash = fmt::format("{} {}", svg_number(p.stroke_width * 1.2), svg_number(p.stroke_width * 2.4));
+  return p;
+}
+
+// A qubit out of service at (x, y): a grey disc with a stroke from lower left to upper right.
+void out_of_service_qubit(SvgDocument& doc, double x, double y, double r) {
+  doc.circle(x, y, r, SvgPaint{kOutOfServiceFill, kOutOfServiceStroke, 1.3});
+  const double d = r * 0.7;
+  doc.line(x - d, y + d, x + d, y - d, SvgPaint{"none", "#8c8c8c", std::max(1.0, r * 0.18)});
+}
+
 // The heading's text; measured before the page is sized, which must hold it.
 Heading heading_of(const Device& device, const DrawnPlan* plan) {
   Heading h;
-  h.sub = fmt::format("{} qubits, {} couplers, native {}{}", device.qubit_count(), device.coupler_count(),
-                      two_qubit_gate_name(device.native_2q()),
+  h.sub = fmt::format("{} qubits, {} couplers, native {}{}{}", device.qubit_count(), device.coupler_count(),
+                      two_qubit_gate_name(device.native_2q()), out_of_service_note(device),
                       has_all_positions(device) ? "" : "; positions computed (the device gives none)");
   if (plan) h.plan_line = fmt::format("{}; {}; {} two-qubit blocks", plan->title, plan->method, plan->blocks);
   return h;
@@ -102,7 +130,8 @@ ErrorShading error_shading(const Device& device) {
   s.err.resize(static_cast<std::size_t>(device.coupler_count()));
   for (int c = 0; c < device.coupler_count(); ++c) {
     s.err[c] = device.coupler_calibration(c).error;
-    s.emin = std::min(s.emin, s.err[c]), s.emax = std::max(s.emax, s.err[c]);
+    // The ramp spans the couplers in service (a coupler out of service is drawn apart).
+    if (device.coupler_usable(c)) s.emin = std::min(s.emin, s.err[c]), s.emax = std::max(s.emax, s.err[c]);
   }
   s.shaded = device.has_calibration() && s.emax > 0;
   s.log_scale = s.shaded && s.emin > 0 && s.emax / s.emin > 3;
@@ -160,10 +189,16 @@ void draw_couplers(SvgDocument& doc, const Device& device, const DrawingFrame& f
                    double coupler_w) {
   doc.begin_group("couplers");
   for (int c = 0; c < device.coupler_count(); ++c) {
+    if (!device.coupler_usable(c)) continue;
     SvgPaint p{"none", shading.shaded ? ramp_colour(shading.t(shading.err[c])) : "#8a8a8a", coupler_w};
     p.linecap = "round";
     coupler_line(doc, device, fr, c, p);
   }
+  doc.end_group();
+  if (device.usable_coupler_count() == device.coupler_count()) return;
+  doc.begin_group("couplers-out-of-service");
+  for (int c = 0; c < device.coupler_count(); ++c)
+    if (!device.coupler_usable(c)) coupler_line(doc, device, fr, c, out_of_service_coupler_paint(coupler_w));
   doc.end_group();
 }
 
@@ -184,6 +219,10 @@ void draw_qubits(SvgDocument& doc, const Device& device, const DrawingFrame& fr,
   const bool ids_inside = fr.node_r >= 7;
   doc.begin_group("qubits");
   for (int q = 0; q < device.qubit_count(); ++q) {
+    if (!device.usable(q)) {
+      out_of_service_qubit(doc, fr.x(q), fr.y(q), fr.node_r);
+      continue;
+    }
     const bool reg = bits.in_bit[q] >= 0 || bits.out_bit[q] >= 0;
     SvgPaint p{reg ? "#FCE6D6" : "#ffffff", reg ? kHighlightColour : "#3a3a3a", reg ? 2.0 : 1.3};
     if (device.degree(q) == 0) p.dash = "2 2", p.stroke = "#9a9a9a";  // an isolated (dead) qubit
@@ -304,12 +343,37 @@ void legend_plan(SvgDocument& doc, double lx, double ly, const DrawnPlan& plan, 
   }
 }
 
-// The legend, in the column right of the drawing: the coupler colours, then the plan's marks.
-void draw_legend(SvgDocument& doc, const DrawingFrame& fr, const ErrorShading& shading, const DrawnPlan* plan,
-                 const ChainBand& band, const BandPaints& paints) {
+// The legend's entries for parts out of service (when there are any). Returns the y of the next entry.
+double legend_out_of_service(SvgDocument& doc, const Device& device, double lx, double ly, double coupler_w) {
+  if (!device.has_parts_out_of_service()) return ly;
+  SvgFont body{11.5, "start", "#1a1a1a"};
+  body.middle = true;
+  if (device.usable_qubit_count() < device.qubit_count()) {
+    out_of_service_qubit(doc, lx + 14, ly, 8);
+    doc.text(lx + 36, ly, "qubit out of service", body);
+    ly += 24;
+  }
+  if (device.usable_coupler_count() < device.coupler_count()) {
+    SvgPaint p = out_of_service_coupler_paint(coupler_w);
+    p.stroke_width = std::max(p.stroke_width, 2.0);
+    p.dash = "2.4 4.8";
+    doc.line(lx + 2, ly, lx + 26, ly, p);
+    doc.text(lx + 36, ly, "coupler out of service", body);
+    ly += 24;
+  }
+  const SvgFont note{10.5, "start", "#555555"};
+  doc.text(lx, ly, "(never used by a plan)", note);
+  return ly + 22;
+}
+
+// The legend, in the column right of the drawing: the coupler colours, parts out of service, then
+// the plan's marks.
+void draw_legend(SvgDocument& doc, const Device& device, const DrawingFrame& fr, const ErrorShading& shading,
+                 const DrawnPlan* plan, const ChainBand& band, const BandPaints& paints, double coupler_w) {
   doc.begin_group("legend");
   const double lx = fr.width - fr.legend_w + 10;
-  const double ly = legend_errors(doc, lx, fr.head + 14, shading);
+  double ly = legend_errors(doc, lx, fr.head + 14, shading);
+  ly = legend_out_of_service(doc, device, lx, ly, coupler_w);
   if (plan) legend_plan(doc, lx, ly, *plan, band, paints);
   doc.end_group();
 }
@@ -338,7 +402,7 @@ std::string draw_device_svg(const Device& device, const DrawnPlan* plan) {
   const std::vector<CountBox> counts = count_boxes(device, fr, plan, count_fs);
   if (plan) draw_placement_labels(doc, device, fr, bits, counts);
   if (!counts.empty()) draw_counts(doc, counts, *plan, count_fs);
-  draw_legend(doc, fr, shading, plan, band, paints);
+  draw_legend(doc, device, fr, shading, plan, band, paints, coupler_w);
   return doc.str();
 }
 

@@ -26,9 +26,12 @@ struct Piece {
   std::vector<std::vector<int>> adj;
 };
 
-// The connected pieces, in order of their lowest qubit.
+// The connected pieces, in order of their lowest qubit. Over every coupler, in service or not: the drawing
+// shows the chip as built, parts out of service included.
 std::vector<Piece> pieces_of(const Device& device) {
   const int n = device.qubit_count();
+  std::vector<std::vector<int>> all(static_cast<std::size_t>(n));
+  for (const auto& c : device.couplers()) all[c.a].push_back(c.b), all[c.b].push_back(c.a);
   std::vector<int> piece(static_cast<std::size_t>(n), -1), local(static_cast<std::size_t>(n), -1);
   std::vector<Piece> out;
   for (int s = 0; s < n; ++s) {
@@ -42,14 +45,14 @@ std::vector<Piece> pieces_of(const Device& device) {
       const int u = todo.front();
       todo.pop();
       p.qubits.push_back(u);
-      for (const int v : device.neighbours(u))
+      for (const int v : all[u])
         if (piece[v] < 0) piece[v] = id, todo.push(v);
     }
     std::sort(p.qubits.begin(), p.qubits.end());
     for (std::size_t i = 0; i < p.qubits.size(); ++i) local[p.qubits[i]] = static_cast<int>(i);
     p.adj.resize(p.qubits.size());
     for (std::size_t i = 0; i < p.qubits.size(); ++i) {
-      for (const int v : device.neighbours(p.qubits[i]))
+      for (const int v : all[p.qubits[i]])
         if (v != p.qubits[i]) p.adj[i].push_back(local[v]);
       std::sort(p.adj[i].begin(), p.adj[i].end());
       p.adj[i].erase(std::unique(p.adj[i].begin(), p.adj[i].end()), p.adj[i].end());

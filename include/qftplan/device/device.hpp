@@ -34,6 +34,7 @@ struct CalibrationValues {
 struct QubitOverride {
   int id = 0;
   std::optional<double> error_1q, error_readout, duration_1q_ns, t1_us, t2_us;
+  bool disabled = false;  ///< `disabled: true`: out of service, kept in the file, never planned on
   bool operator==(const QubitOverride&) const = default;
 };
 
@@ -43,6 +44,7 @@ struct Coupler {
   int b = 0;
   std::optional<double> error;        ///< two-qubit gate error on this coupler
   std::optional<double> duration_ns;  ///< two-qubit gate time on this coupler
+  bool disabled = false;              ///< `disabled: true`: out of service, kept in the file, never planned on
   bool operator==(const Coupler&) const = default;
 };
 
@@ -96,6 +98,12 @@ struct DeviceDescription {
 std::string lifetime_violation(std::optional<double> t1_us, std::optional<double> t2_us, const std::string& who);
 
 /// A validated, indexed device graph. Qubits are 0..qubit_count()-1; couplers are undirected.
+///
+/// Parts out of service: a qubit written `disabled: true`, or whose one-qubit error is 1; a coupler
+/// written `disabled: true`, whose two-qubit error is 1 (certain failure), or touching a qubit out of
+/// service. They stay in description() and couplers() (files, summaries, drawings), but the graph
+/// (neighbours, degree, coupled, coupler_index, distances_from, components, diameter) is the graph of
+/// the parts in service only: this is the one place that decides what planning may use.
 class Device {
  public:
   /// Validates (ids in range, no self-loops or duplicates, rates in [0,1], positive times, T2 <= 2 T1) and
@@ -109,18 +117,37 @@ class Device {
   const std::vector<Coupler>& couplers() const { return d_.couplers; }
   TwoQubitGate native_2q() const { return d_.native_2q.value_or(TwoQubitGate::cx); }
 
-  /// Neighbours of `q`, sorted ascending.
+  /// False for a qubit out of service (see the class comment): no plan may use it.
+  bool usable(int q) const { return qubit_on_[q] != 0; }
+  /// False for a coupler (index into couplers()) out of service.
+  bool coupler_usable(int coupler) const { return coupler_on_[coupler] != 0; }
+  /// Qubits in service.
+  int usable_qubit_count() const { return usable_qubits_; }
+  /// Couplers in service.
+  int usable_coupler_count() const { return usable_couplers_; }
+  /// True when some qubit or coupler is out of service.
+  bool has_parts_out_of_service() const { return usable_qubits_ < d_.qubits || usable_couplers_ < coupler_count(); }
+  /// Why qubit `q` is out of service ("disabled", "error_1q 1"), or empty when it is in service.
+  std::string out_of_service_reason(int q) const;
+  /// Why a coupler (index into couplers()) is out of service ("disabled", "error 1", "qubit 3 out of
+  /// service"), or empty when it is in service.
+  std::string coupler_out_of_service_reason(int coupler) const;
+
+  /// Neighbours of `q` over couplers in service, sorted ascending.
   std::span<const int> neighbours(int q) const {
     return {adj_.data() + offsets_[q], adj_.data() + offsets_[q + 1]};
   }
   int degree(int q) const { return offsets_[q + 1] - offsets_[q]; }
-  /// Index into couplers() of the coupler joining `a` and `b`, or -1.
+  /// Index into couplers() of the coupler in service joining `a` and `b`, or -1.
   int coupler_index(int a, int b) const;
   bool coupled(int a, int b) const { return coupler_index(a, b) >= 0; }
 
   /// Breadth-first hop distances from `source`; -1 for unreachable qubits.
   std::vector<int> distances_from(int source) const;
-  /// Component id of every qubit (0-based, in order of smallest member) and the count.
+  /// Index into couplers() of the coupler joining `a` and `b`, in service or not, or -1.
+  int any_coupler_index(int a, int b) const;
+  /// Component id of every qubit (0-based, in order of smallest member) and the count, over couplers in
+  /// service: a qubit out of service is a component of its own (planners skip it by usable()).
   std::pair<std::vector<int>, int> components() const;
   /// Largest finite hop distance between two qubits of the same component.
   int diameter() const;
@@ -138,11 +165,16 @@ class Device {
   bool operator==(const Device& other) const { return d_ == other.d_; }
 
  private:
+  void index_service();  // fills the in-service flags and restricts the graph to them
+
   DeviceDescription d_;
   std::vector<int> offsets_;          // CSR: neighbours of q are adj_[offsets_[q] .. offsets_[q+1])
   std::vector<int> adj_;
   std::vector<int> adj_coupler_;      // coupler index parallel to adj_
   std::vector<int> override_of_;      // index into qubit_calibration, or -1
+  std::vector<int> all_offsets_, all_adj_, all_adj_coupler_;  // the same CSR over every coupler, in service or not
+  std::vector<char> qubit_on_, coupler_on_;  // 1 where in service
+  int usable_qubits_ = 0, usable_couplers_ = 0;
 };
 
 }  // namespace qftplan

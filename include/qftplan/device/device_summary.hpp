@@ -3,6 +3,7 @@
 /// The numbers `qftplan device --summary` prints.
 
 #include <string>
+#include <vector>
 
 #include "qftplan/device/device.hpp"
 
@@ -14,11 +15,19 @@ struct Range {
   double max = 0;
 };
 
-/// Graph and calibration figures of a device.
+/// A qubit (one id) or coupler (two ids) out of service, and why ("disabled", "error 1", ...).
+struct PartOutOfService {
+  std::vector<int> qubits;
+  std::string reason;
+};
+
+/// Graph and calibration figures of a device. The graph figures (degrees, diameter, components,
+/// bipartiteness) and the calibration ranges are those of the parts in service.
 struct DeviceSummary {
   std::string name;
-  int qubits = 0;
-  int couplers = 0;
+  int qubits = 0;    ///< every qubit, in service or not
+  int couplers = 0;  ///< every coupler, in service or not
+  std::vector<PartOutOfService> out_of_service;  ///< qubits first, then couplers, in file order
   int min_degree = 0;
   int max_degree = 0;
   int diameter = 0;         ///< largest hop distance within a component (a lower bound above 5000 qubits)

@@ -12,6 +12,7 @@
 #include <vector>
 
 #include "qftplan/core/run_budget.hpp"
+#include "qftplan/device/calibration_profile.hpp"
 #include "qftplan/device/device.hpp"
 
 namespace qftplan {
@@ -45,6 +46,7 @@ struct SurveyRequest {
   std::vector<bool> directions{false};    ///< false: forward QFT, true: inverse
   std::vector<std::string> strategies{"auto"};  ///< names from plan_strategies()
   std::uint64_t seed = 1;                 ///< seed of every randomised search
+  std::optional<CalibrationProfile> calibration;  ///< --calibration: applied to every device of the survey
   std::optional<double> time_limit;      ///< seconds per run; a run cut short keeps its best plan
   const std::atomic<bool>* interrupt = nullptr;  ///< set by Ctrl-C: stop the survey; null: never
   BudgetClock clock;                     ///< the clock each run's time limit reads (run_budget.hpp)
@@ -85,7 +87,9 @@ SurveyShard parse_shard(const std::string& text);
 
 /// Builds an entry from command-line text: "FAMILY:*" becomes a fitted family; anything else is
 /// loaded now with load_device (so bad files fail before any run starts).
-SurveyDeviceEntry make_survey_entry(const std::string& text);
+/// With `calibration`, the profile is applied to the device (family members: when each is built).
+SurveyDeviceEntry make_survey_entry(const std::string& text,
+                                    const std::optional<CalibrationProfile>& calibration = std::nullopt);
 
 /// The family member used for register size n: line:n, ring:max(n,3), full:n, and for grid and
 /// heavy-hex the first of the near-square sizes 1x1, 1x2, 2x2, 2x3, 3x3, ... (R x R, then R x (R+1))
@@ -101,7 +105,8 @@ std::vector<SurveyCase> expand_survey(const SurveyRequest& request);
 /// case, each with its share of small and large runs).
 std::vector<SurveyCase> shard_cases(const std::vector<SurveyCase>& all, SurveyShard shard);
 
-/// A fingerprint of the whole survey (device labels, sizes, settings, seed) as 16 hex digits, so that
+/// A fingerprint of the whole survey (device labels, sizes, settings, seed, calibration profile values)
+/// as 16 hex digits, so that
 /// merge can tell shards of one survey from those of another.
 std::string survey_fingerprint(const SurveyRequest& request);
 
