@@ -9,6 +9,13 @@
 
 namespace qftplan {
 
+// The one scoring of a degree: ln(esp_total x readout_success), the probability that the noisy circuit
+// runs without a fault and, run without fault, phase estimation reads the exact answer (the readout
+// success averages over the 2^n basis-state phases). The two are treated as independent.
+double degree_log_score(double log_esp_total, const ApproxFigures& approx) {
+  return log_esp_total + approx.log_readout_success;
+}
+
 DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCost(std::optional<int>)>& cost,
                            bool* cut) {
   DegreeChoice out;
@@ -18,15 +25,17 @@ DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCo
     c.degree = degree;
     c.log_esp = m.log_esp;
     c.native_2q = m.native_2q;
-    c.error_bound = approx_error_bound(n, degree);
-    c.fidelity_bound = approx_fidelity_lower_bound(c.error_bound);
-    c.score = std::exp(c.log_esp) * c.fidelity_bound;
+    c.approx = approx_figures(n, degree);
+    c.fidelity_bound = approx_fidelity_lower_bound(c.approx.distance.value_or(c.approx.error_bound));
+    c.log_score = degree_log_score(c.log_esp, c.approx);
+    c.score = std::exp(c.log_score);
     out.considered.push_back(c);
   };
   try {
     for (int m = 1; m < n; ++m) {
       score(m);
-      if (out.considered.back().fidelity_bound >= 1.0 - 1e-12) break;
+      // Higher degrees only add rotations once the readout is right to within 1e-12.
+      if (out.considered.back().approx.readout_success >= 1.0 - 1e-12) break;
     }
     if (score_exact || out.considered.empty()) score(std::nullopt);
   } catch (const TimeLimitReached&) {
@@ -34,11 +43,11 @@ DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCo
     if (cut) *cut = true;
     if (out.considered.empty()) return out;
   }
-  double best = -1;
-  for (const auto& c : out.considered) best = std::max(best, c.score);
+  double best = -INFINITY;
+  for (const auto& c : out.considered) best = std::max(best, c.log_score);
   const DegreeCandidate* pick = nullptr;
   for (const auto& c : out.considered)  // increasing degree, exact last
-    if (c.score >= best * (1.0 - 1e-12) && (!pick || c.native_2q <= pick->native_2q)) pick = &c;
+    if (c.log_score >= best - 1e-12 && (!pick || c.native_2q <= pick->native_2q)) pick = &c;
   out.chosen = pick->degree;
   return out;
 }

@@ -51,7 +51,8 @@ PlanReport assemble_report(const Device& device, const PlanOptions& options, con
   r.noise = f.noise;
   r.calibrated = device.has_calibration();
   r.measured = options.measure;
-  r.approx_error_bound = approx_error_bound(plan.spec.qubits, plan.spec.approx_degree);
+  r.approx = approx_figures(plan.spec.qubits, plan.spec.approx_degree);
+  r.approx_error_bound = r.approx.error_bound;
   r.degree_choice = plan.degree_choice;
   r.placement_choice = plan.placement;
   // A chain the time limit left unscored gets the ESP just measured (the same quantity).

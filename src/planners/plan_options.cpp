@@ -144,6 +144,8 @@ PreparedPlan start_plan(const Device& device, const PlanOptions& options, const 
   plan.spec = options.spec;
   if (options.auto_approx) plan.spec.approx_degree.reset();
   validate_spec(device, plan.spec);
+  // A degree that keeps every rotation (M >= n) is the exact transform, and is reported as such.
+  plan.spec.approx_degree = effective_degree(plan.spec.qubits, plan.spec.approx_degree);
   plan.strategy = strategy;
   plan.gates = options.gates.value_or(gate_set_of(device.native_2q()));
   return plan;

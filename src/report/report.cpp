@@ -55,6 +55,10 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
   j["idle_ns"] = r.noise.idle_ns;
   j["calibrated"] = r.calibrated;
   j["approx_error_bound"] = r.approx_error_bound;
+  j["approx_distance"] = r.approx.distance ? nlohmann::ordered_json(*r.approx.distance) : nlohmann::ordered_json(nullptr);
+  j["approx_infidelity"] = r.approx.infidelity;
+  j["readout_success"] = r.approx.readout_success;
+  j["readout_method"] = readout_method_name(r.approx.method);
   if (r.degree_choice) {
     nlohmann::ordered_json d;
     d["chosen"] = r.degree_choice->chosen ? nlohmann::ordered_json(*r.degree_choice->chosen) : nlohmann::ordered_json(nullptr);
@@ -62,7 +66,11 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
     for (const auto& c : r.degree_choice->considered)
       list.push_back({{"degree", c.degree ? nlohmann::ordered_json(*c.degree) : nlohmann::ordered_json(nullptr)},
                       {"esp_total", std::exp(c.log_esp)},
-                      {"approx_error_bound", c.error_bound},
+                      {"approx_error_bound", c.approx.error_bound},
+                      {"approx_distance", c.approx.distance ? nlohmann::ordered_json(*c.approx.distance)
+                                                            : nlohmann::ordered_json(nullptr)},
+                      {"readout_success", c.approx.readout_success},
+                      {"readout_method", readout_method_name(c.approx.method)},
                       {"fidelity_bound", c.fidelity_bound},
                       {"score", c.score}});
     j["approx_choice"] = d;
@@ -139,7 +147,12 @@ std::string format_plan_summary(const PlanReport& r) {
   }
   if (r.end_order == "same")
     s += fmt::format("  end order       same as the start ({} SWAP{} added)\n", r.end_swaps, r.end_swaps == 1 ? "" : "s");
-  if (r.approx_degree) s += fmt::format("  approximation   error bound {:.3g} (operator norm)\n", r.approx_error_bound);
+  if (r.approx_degree) {
+    s += "  approximation   ";
+    if (r.approx.distance) s += fmt::format("distance {:.3g} (operator norm), ", *r.approx.distance);
+    s += fmt::format("bound {:.3g}, average-gate infidelity {:.3g}\n", r.approx_error_bound, r.approx.infidelity);
+    s += fmt::format("  readout success {:.6g} ({})\n", r.approx.readout_success, readout_method_name(r.approx.method));
+  }
   if (r.lower_bound_depth_2q > 0)
     s += fmt::format("  vs lower bound  blocks x{:.2f}, two-qubit depth x{:.2f}\n",
                      double(r.two_qubit_blocks) / std::max<long long>(1, r.lower_bound_blocks),
@@ -169,18 +182,19 @@ std::string format_plan_explanation(const PlanReport& r) {
     const auto& d = *r.degree_choice;
     auto name = [](const std::optional<int>& m) { return m ? std::to_string(*m) : std::string("exact"); };
     s += fmt::format("approximation degree: {} chosen\n", name(d.chosen));
-    s += "  degree   esp_total    error bound  fidelity >=  score\n";
-    double exact_score = -1;
+    s += "  degree   esp_total    x readout    = score        distance     bound\n";
+    std::optional<double> exact_log;
     for (const auto& c : d.considered)
-      if (!c.degree) exact_score = c.score;
+      if (!c.degree) exact_log = c.log_score;
     for (const auto& c : d.considered) {
       const bool mark = c.degree == d.chosen;
-      s += fmt::format("  {:<6}   {:<11.4g}  {:<11.3g}  {:<11.6f}  {:.4g}{}\n", name(c.degree), std::exp(c.log_esp), c.error_bound,
-                       c.fidelity_bound, c.score, mark ? "  <- chosen" : "");
+      const std::string dist = c.approx.distance ? fmt::format("{:.3g}", *c.approx.distance) : std::string("-");
+      s += fmt::format("  {:<6}   {:<11.4g}  {:<11.6g}  {:<11.4g}  {:<11}  {:.3g}{}\n", name(c.degree), std::exp(c.log_esp),
+                       c.approx.readout_success, c.score, dist, c.approx.error_bound, mark ? "  <- chosen" : "");
     }
-    if (exact_score > 0) {
+    if (exact_log) {
       for (const auto& c : d.considered)
-        if (c.degree == d.chosen) s += fmt::format("  chosen against exact: {:.4g}x the score\n", c.score / exact_score);
+        if (c.degree == d.chosen) s += fmt::format("  chosen against exact: {:.4g}x the score\n", std::exp(c.log_score - *exact_log));
     } else {
       s += "  exact not scored (too large to plan twice)\n";
     }

@@ -12,6 +12,7 @@
 #include <string>
 #include <vector>
 
+#include "qftplan/core/approximation.hpp"
 #include "qftplan/core/input_error.hpp"
 #include "qftplan/core/qft_spec.hpp"
 #include "qftplan/device/device.hpp"
@@ -83,9 +84,10 @@ PlanOptions plan_options(const PlanSettings& settings);
 struct DegreeCandidate {
   std::optional<int> degree;     ///< absent: exact
   double log_esp = 0;            ///< ln esp_total of the planned circuit with this degree
-  double error_bound = 0;        ///< approx_error_bound
-  double fidelity_bound = 1;     ///< lower bound on the fidelity to the exact QFT
-  double score = 0;              ///< esp * fidelity_bound
+  ApproxFigures approx;          ///< distance, bound, readout success and infidelity of this degree
+  double fidelity_bound = 1;     ///< lower bound on the state fidelity to the exact QFT (from the distance, else the bound)
+  double log_score = 0;          ///< ln score (finite when score underflows): degree_score
+  double score = 1;              ///< esp_total x readout_success
   long long native_2q = 0;       ///< native two-qubit gates of the network (network_native_cost)
 };
 
@@ -167,7 +169,8 @@ struct PlanReport {
   NoiseFigures noise;
   bool calibrated = false;
   bool measured = false;
-  double approx_error_bound = 0;
+  double approx_error_bound = 0;      ///< approx_error_bound (0 when exact, never above 2)
+  ApproxFigures approx;               ///< every figure of the degree (approx_figures)
   std::optional<DegreeChoice> degree_choice;
   PlacementReport placement_choice;
   long long depth_2q_unfused = 0;      ///< two-qubit depth counting a fused block as cp then swap
