@@ -10,6 +10,10 @@
 
 #include "plan_simulation.hpp"
 #include "qftplan/core/approximation.hpp"
+#include "qftplan/device/lattices.hpp"
+#include "qftplan/planners/plan.hpp"
+#include "qftplan/report/report.hpp"
+#include "test_support.hpp"
 
 namespace qftplan {
 namespace {
@@ -165,6 +169,17 @@ TEST(ApproxFigures, TransferOperatorAgreesWithEnumeration) {
       EXPECT_NEAR(t.log_readout, e.log_readout, 1e-10) << bits << " " << M;
       EXPECT_NEAR(std::abs(t.overlap - e.overlap), 0.0, 1e-12) << bits << " " << M;
     }
+  // A probability, also where rounding could lift it above 1 (near-exact degrees of long registers).
+  for (int n : {64, 1024, 16384})
+    for (int M = 1; M < n; M += 1 + M) {
+      const auto f = approx_figures(n, M);
+      EXPECT_LE(f.readout_success, 1.0) << n << " " << M;
+      EXPECT_GE(f.readout_success, 0.0) << n << " " << M;
+      EXPECT_LE(f.log_readout_success, 0.0) << n << " " << M;
+      EXPECT_GE(f.infidelity, 0.0);
+      EXPECT_LE(f.infidelity, 1.0);
+    }
+  EXPECT_LE(approx_figures(16384, 29).readout_success, 1.0);
   // Above the enumeration limit the report says so.
   EXPECT_EQ(approx_figures(40, 8).method, ReadoutMethod::transfer);
   EXPECT_STREQ(readout_method_name(approx_figures(40, 8).method), "transfer");
@@ -191,6 +206,35 @@ TEST(ApproxFigures, SamplingAgreesWithinItsStandardError) {
     EXPECT_EQ(fig.method, ReadoutMethod::transfer);
     EXPECT_NEAR(fig.readout_success, s.mean, 4 * s.standard_error + 1e-12) << n << " " << M;
   }
+}
+
+TEST(ApproxFigures, ReportCarriesTheFigures) {
+  PlanOptions opt;
+  opt.spec.qubits = 10;
+  opt.spec.approx_degree = 3;
+  const auto r = plan_qft(make_line(10), opt);
+  const auto j = report_to_json(r);
+  EXPECT_EQ(j["approx_degree"], 3);
+  EXPECT_DOUBLE_EQ(j["approx_distance"].get<double>(), *approx_distance(10, 3));
+  EXPECT_DOUBLE_EQ(j["approx_error_bound"].get<double>(), approx_error_bound(10, 3));
+  EXPECT_LE(j["approx_error_bound"].get<double>(), 2.0);
+  EXPECT_DOUBLE_EQ(j["readout_success"].get<double>(), approx_figures(10, 3).readout_success);
+  EXPECT_EQ(j["readout_method"], "enumeration");
+  EXPECT_GT(j["approx_infidelity"].get<double>(), 0.0);
+  const std::string text = format_plan_summary(r);
+  EXPECT_NE(text.find("readout success"), std::string::npos) << text;
+}
+
+TEST(ApproxFigures, DegreeThatDropsNothingIsExact) {
+  // --qubits 4 --approx 9 keeps every rotation: reported and written as the exact transform.
+  const auto r = testing::run_qftplan("plan --device line:4 --qubits 4 --approx 9 --report -");
+  ASSERT_EQ(r.status, 0) << r.err;
+  EXPECT_NE(r.out.find("\"approx_degree\": null"), std::string::npos) << r.out;
+  EXPECT_NE(r.out.find("\"readout_method\": \"exact\""), std::string::npos) << r.out;
+  const auto q = testing::run_qftplan("plan --device line:4 --qubits 4 --approx 9 --quiet -o -");
+  ASSERT_EQ(q.status, 0) << q.err;
+  EXPECT_NE(q.out.find("// transform: QFT on 4 qubits, exact"), std::string::npos) << q.out;
+  EXPECT_EQ(q.out.find("approximate"), std::string::npos) << q.out;
 }
 
 }  // namespace

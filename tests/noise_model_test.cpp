@@ -357,6 +357,8 @@ TEST(ApproxAuto, ExplainShowsTheChoices) {
   EXPECT_NE(r.out.find("runner-up"), std::string::npos) << r.out;
   EXPECT_NE(r.out.find("<- chosen"), std::string::npos) << r.out;
   EXPECT_NE(r.out.find("approximation degree:"), std::string::npos) << r.out;
+  // Both factors of the score, per degree.
+  EXPECT_NE(r.out.find("esp_total    x readout    = score"), std::string::npos) << r.out;
 }
 
 }  // namespace

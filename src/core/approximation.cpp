@@ -360,7 +360,8 @@ InputAverages input_averages_transfer(int bits, int degree) {
   if (bits <= 0) return out;
   const double inv_pow = std::ldexp(1.0, -degree);
   const auto [r, lr] = transfer_average(bits, [&](double u) { return std::complex<double>(readout_factor(u, inv_pow)); });
-  out.log_readout = std::isinf(lr) || r.real() <= 0 ? -INFINITY : std::log(r.real()) + lr;
+  // Rounding can lift a value of 1 - 1e-13 just above 1: a probability stays at most 1.
+  out.log_readout = std::isinf(lr) || r.real() <= 0 ? -INFINITY : std::min(0.0, std::log(r.real()) + lr);
   out.readout = std::exp(out.log_readout);
   const auto [o, lo] = transfer_average(bits, [&](double u) { return overlap_factor(u, inv_pow); });
   out.overlap = std::isinf(lo) ? std::complex<double>(0) : o * std::exp(lo);
@@ -403,14 +404,17 @@ const char* readout_method_name(ReadoutMethod m) {
   return "?";
 }
 
-ApproxFigures approx_figures(int n, std::optional<int> degree) {
+ApproxFigures approx_figures(int n, std::optional<int> degree, bool with_distance) {
   ApproxFigures f;
   f.degree = effective_degree(n, degree);
-  if (!f.degree) return f;
+  if (!f.degree) {
+    f.distance = 0.0;
+    return f;
+  }
   const int M = *f.degree;
   const int bits = n - M;
   f.error_bound = approx_error_bound(n, M);
-  f.distance = approx_distance(n, M, kMaxDistanceWork);
+  if (with_distance) f.distance = approx_distance(n, M, kMaxDistanceWork);
   f.method = bits <= kMaxEnumeratedBits ? ReadoutMethod::enumeration : ReadoutMethod::transfer;
   const InputAverages a = f.method == ReadoutMethod::enumeration ? input_averages_enumerated(bits, M)
                                                                  : input_averages_transfer(bits, M);

@@ -99,6 +99,7 @@ PreparedPlan prepare_auto(const Device& device, const PlanOptions& options) {
       const auto f = std::make_shared<const CircuitFigures>(count_circuit(device, *p.circuit, settings, nullptr));
       StrategyOutcome& o = outcomes[prepared[i].outcome];
       fill_figures(o, *f);
+      o.log_readout_success = plan_log_readout_success(p);
       p.counted = f;
       if (prepared[i].eligible && i != pick && better_by_objective(o, outcomes[prepared[pick].outcome], options.objective)) pick = i;
     }

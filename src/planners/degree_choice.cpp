@@ -9,11 +9,16 @@
 
 namespace qftplan {
 
-// The one scoring of a degree: ln(esp_total x readout_success), the probability that the noisy circuit
+// The one scoring of a plan (of a degree, and of a strategy under --objective esp): ln(esp_total x readout_success), the probability that the noisy circuit
 // runs without a fault and, run without fault, phase estimation reads the exact answer (the readout
 // success averages over the 2^n basis-state phases). The two are treated as independent.
-double degree_log_score(double log_esp_total, const ApproxFigures& approx) {
-  return log_esp_total + approx.log_readout_success;
+double plan_log_score(double log_esp_total, double log_readout_success) { return log_esp_total + log_readout_success; }
+
+double plan_log_readout_success(const PreparedPlan& plan) {
+  if (plan.degree_choice)
+    for (const auto& c : plan.degree_choice->considered)
+      if (c.degree == plan.spec.approx_degree) return c.approx.log_readout_success;
+  return approx_figures(plan.spec.qubits, plan.spec.approx_degree, false).log_readout_success;
 }
 
 DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCost(std::optional<int>)>& cost,
@@ -27,7 +32,7 @@ DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCo
     c.native_2q = m.native_2q;
     c.approx = approx_figures(n, degree);
     c.fidelity_bound = approx_fidelity_lower_bound(c.approx.distance.value_or(c.approx.error_bound));
-    c.log_score = degree_log_score(c.log_esp, c.approx);
+    c.log_score = plan_log_score(c.log_esp, c.approx.log_readout_success);
     c.score = std::exp(c.log_score);
     out.considered.push_back(c);
   };

@@ -21,6 +21,7 @@ void fill_chosen_outcome(PlanReport& r) {
       o.swaps = r.swaps;
       o.log_esp = r.noise.log_esp;
       o.log_esp_total = r.noise.log_esp_total;
+      o.log_readout_success = r.approx.log_readout_success;
       o.duration_ns = r.noise.duration_ns;
     }
 }

@@ -154,7 +154,9 @@ PreparedPlan start_plan(const Device& device, const PlanOptions& options, const 
 bool better_by_objective(const StrategyOutcome& a, const StrategyOutcome& b, Objective objective) {
   auto key = [objective](const StrategyOutcome& x) {
     switch (objective) {
-      case Objective::esp: return std::make_tuple(-x.log_esp_total, double(x.cx_count), double(x.cx_depth));
+      case Objective::esp:
+        return std::make_tuple(-plan_log_score(x.log_esp_total, x.log_readout_success), double(x.cx_count),
+                               double(x.cx_depth));
       case Objective::depth: return std::make_tuple(double(x.cx_depth), double(x.cx_count), -x.log_esp_total);
       case Objective::duration: return std::make_tuple(x.duration_ns, double(x.cx_count), -x.log_esp_total);
       case Objective::cx: return std::make_tuple(double(x.cx_count), double(x.cx_depth), -x.log_esp_total);

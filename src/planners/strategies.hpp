@@ -43,13 +43,16 @@ struct DegreeCost {
   long long native_2q = 0;   ///< its native two-qubit gates
 };
 
-/// The score of a degree (the one place it is computed): ln(esp_total x readout_success).
-double degree_log_score(double log_esp_total, const ApproxFigures& approx);
+/// The score of a plan (the one place it is computed; degrees, and strategies under --objective esp):
+/// ln(esp_total x readout_success).
+double plan_log_score(double log_esp_total, double log_readout_success);
+/// ln readout_success of the plan's degree (from its degree choice when it made one).
+double plan_log_readout_success(const PreparedPlan& plan);
 
 /// The one degree choice of every strategy (--approx auto). Scores degrees 1, 2, ... of an n-qubit
 /// register with `cost` until the readout success is 1 to within 1e-12 (more rotations then only add
 /// gates), then the exact transform when `score_exact` (or when nothing was scored), and keeps the
-/// best score esp_total x readout success (degree_log_score). Near-ties (within 1e-12 relative) go to
+/// best score esp_total x readout success (plan_log_score). Near-ties (within 1e-12 relative) go to
 /// the fewest native two-qubit gates, then to the larger degree (exact last): a degree that saves no
 /// gate is no reason to approximate. When `cost` runs out of time, chooses among the degrees scored so
 /// far and sets `*cut` (the exact transform when none was).

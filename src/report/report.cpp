@@ -96,6 +96,7 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
       x["swaps"] = a.swaps;
       x["esp"] = std::exp(a.log_esp);
       x["esp_total"] = std::exp(a.log_esp_total);
+      x["readout_success"] = std::exp(a.log_readout_success);
       x["duration_ns"] = a.duration_ns;
     } else {
       x["reason"] = a.reason;

@@ -56,7 +56,7 @@ const char* readout_method_name(ReadoutMethod m);
 struct ApproxFigures {
   std::optional<int> degree;       ///< effective degree: absent when exact
   double error_bound = 0;          ///< approx_error_bound
-  std::optional<double> distance;  ///< approx_distance (n <= kMaxExactDistanceQubits)
+  std::optional<double> distance;  ///< approx_distance (n <= kMaxExactDistanceQubits; 0 when exact)
   /// Probability that phase estimation with this degree returns the exact n-bit phase, averaged over
   /// the 2^n basis-state phases.
   double readout_success = 1;
@@ -67,8 +67,9 @@ struct ApproxFigures {
   ReadoutMethod method = ReadoutMethod::exact;
 };
 
-/// Every figure of degree `degree` on n qubits (the distance only for n <= kMaxExactDistanceQubits).
-ApproxFigures approx_figures(int n, std::optional<int> degree);
+/// Every figure of degree `degree` on n qubits (the distance only for n <= kMaxExactDistanceQubits, and
+/// only `with_distance`).
+ApproxFigures approx_figures(int n, std::optional<int> degree, bool with_distance = true);
 
 /// The input average of the per-input products over `bits` = n - M bits, both by one method:
 /// readout = E_x prod_b cos^2(pi delta_b(x)) and overlap = E_x prod_b (1 + e^{-2 pi i delta_b(x)})/2

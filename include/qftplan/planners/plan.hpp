@@ -116,6 +116,7 @@ struct StrategyOutcome {
   long long swaps = 0;
   double log_esp = 0;        ///< ln esp (gates)
   double log_esp_total = 0;  ///< ln esp_total (gates x idling x readout)
+  double log_readout_success = 0;  ///< ln readout_success of the strategy's degree (0 when exact)
   double duration_ns = 0;
 };
 
