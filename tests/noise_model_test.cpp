@@ -188,9 +188,10 @@ Eigen::MatrixXcd transform(int n, std::optional<int> M) {
 }
 
 TEST(Approximation, SimulatedDistanceNeverExceedsTheBound) {
-  // Bound: sum over dropped rotations of ||CR_k - I|| (Nielsen & Chuang 2000, section 4.5.3,
-  // eq. 4.63; Coppersmith, IBM RC19642, 1994). Checked against the exact operator norm (largest
-  // singular value, Eigen's JacobiSVD) and the worst state fidelity it implies.
+  // Bound: 2 sin(min(S, pi)/2), S the sum over qubits of their dropped phases (approximation.cpp; at most
+  // the sum over dropped rotations of ||CR_k - I||, Nielsen & Chuang 2000, section 4.5.3, eq. 4.63;
+  // Coppersmith, IBM RC19642, 1994). Checked against the exact operator norm (largest singular value,
+  // Eigen's JacobiSVD) and the worst state fidelity it implies.
   for (int n = 2; n <= 8; ++n) {
     const Eigen::MatrixXcd U = transform(n, std::nullopt);
     for (int M = 1; M < n; ++M) {

@@ -96,7 +96,7 @@ bool same_turn(double u, double v) {
 double dense_block_norm(const PhasePair& p) {
   const int m = static_cast<int>(p.ins.size());
   const long long dim = 1LL << m;
-  const double scale = std::ldexp(1.0, 0) / std::sqrt(static_cast<double>(dim));
+  const double scale = 1.0 / std::sqrt(static_cast<double>(dim));
   Eigen::MatrixXcd d(dim, dim);
   std::vector<double> s(static_cast<std::size_t>(m));
   for (int which = 0; which < 2; ++which) {
