@@ -1,0 +1,74 @@
+#pragma once
+/// \file peephole.hpp
+/// The peephole pass on a native gate stream: gates that meet on their qubits with nothing between
+/// them there and together do nothing are removed, streaming, with a bounded state per qubit.
+
+#include <cstdint>
+#include <span>
+#include <vector>
+
+#include "qftplan/core/gate.hpp"
+
+namespace qftplan {
+
+/// Removes from a stream of gates, as they arrive:
+///   - two equal self-inverse gates adjacent on their qubits: h h, x x, cx a,b cx a,b (same control and
+///     target), cz a,b cz a,b or cz a,b cz b,a, swap a,b swap a,b or swap b,a;
+///   - the second of two rz (or two p) adjacent on one qubit, its angle added exactly to the first;
+///   - an rz or p whose angle is zero (mod 2 pi), as it arrives or once a merge makes it so.
+/// "Adjacent on their qubits" means no gate touches any of those qubits between the two; gates on
+/// other qubits commute with both (common practice: operators on disjoint qubits commute). Removals
+/// cascade: once a pair goes, the gates before it on its qubits meet the gates that follow.
+///
+/// The rewrites keep the unitary exactly, except rz(t) rz(u) -> rz(t + u) and rz(0) -> nothing, which
+/// keep it up to a global phase because angles are reduced mod 2 pi (rz(2 pi) = -1); p merges are exact.
+///
+/// State: per qubit a stack of the last gates on it still held back (at most kDepth); when a stack
+/// overflows its oldest gate goes out, after the held gates it depends on. Gates therefore leave in
+/// an order that keeps the order of gates on every qubit (the circuit's dependency graph is that of
+/// the input less the removed gates) but not always the input's order across qubits. Measurements
+/// (q1 is the bit) pass through in order on their qubit and remove nothing. finish() sends what is
+/// held, oldest first.
+class PeepholePass final : public GateSink {
+ public:
+  /// Gates held back per qubit at most (how deep a cascade can reach).
+  static constexpr int kDepth = 8;
+  /// `qubits`: the number of physical qubits the stream may address.
+  PeepholePass(int qubits, GateSink& out);
+  void gate(const Gate& g) override { add(g); }
+  void batch(std::span<const Gate> run) override;
+  void finish() override;
+  /// Gates removed so far (a merge of two rotations removes one).
+  long long removed() const { return removed_; }
+
+ private:
+  // A held gate: its operand qubits are slots 0 (q0) and 1 (q1, two-qubit gates only); below/above
+  // link it with the held gates before and after it on the slot's qubit (-1: none).
+  struct Held {
+    Gate g;
+    std::uint64_t seq = 0;
+    std::int32_t below[2] = {-1, -1};
+    std::int32_t above[2] = {-1, -1};
+    bool live = false;
+  };
+  void add(const Gate& g);
+  bool try_cancel(const Gate& g);
+  void push(const Gate& g);
+  void drop_top(std::int32_t i);
+  void emit_through(std::int32_t i);
+  void emit_one(std::int32_t i);
+  int slots(const Held& h) const { return two_qubit_slots(h.g.kind) ? 2 : 1; }
+  static bool two_qubit_slots(GateKind k) { return is_two_qubit(k); }
+  static int slot_of(const Held& h, int q) { return h.g.q0 == q ? 0 : 1; }
+
+  std::vector<Held> pool_;
+  std::vector<std::int32_t> free_;
+  std::vector<std::int32_t> top_, bottom_;
+  std::vector<std::uint8_t> depth_;
+  std::vector<std::int32_t> work_;  // emit_through's explicit stack
+  std::uint64_t seq_ = 0;
+  long long removed_ = 0;
+  GateRun out_;
+};
+
+}  // namespace qftplan
