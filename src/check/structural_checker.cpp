@@ -188,13 +188,13 @@ bool StructuralChecker::Impl::awaits_hadamard(int q) const {
 }
 
 // Of two qubits, the one whose Hadamard is due first: a qubit awaiting its wire's Hadamard before
-// one that is not, and of two awaiting it, the earlier wire (in a QFT with any controlled phase kept
-// the wires' Hadamards come in processing order: the Hadamard of wire w follows the phase between
-// wires w-1 and w, which follows the Hadamard of wire w-1); otherwise the one whose h came first.
+// one that is not, and of two awaiting it, the wire whose Hadamard the QFT puts first (the Hadamard
+// of wire w must follow those of the wires in closing_window(w): the lower wires of the forward
+// transform, the higher ones of the inverse); otherwise the one whose h came first.
 int StructuralChecker::Impl::hadamard_due(int a, int b) const {
   const bool wa = awaits_hadamard(a), wb = awaits_hadamard(b);
   if (wa != wb) return wa ? a : b;
-  if (wa) return par[a].v[0] < par[b].v[0] ? a : b;
+  if (wa) return (par[a].v[0] < par[b].v[0]) != spec.inverse ? a : b;
   return pend_h_line[a] <= pend_h_line[b] ? a : b;
 }
 
