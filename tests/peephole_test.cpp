@@ -6,6 +6,7 @@
 
 #include <Eigen/Dense>
 #include <complex>
+#include <algorithm>
 #include <random>
 
 #include "qftplan/sinks/peephole.hpp"
@@ -215,12 +216,10 @@ void expect_no_pair_left(int n, const std::vector<Gate>& gates) {
 TEST(PeepholePass, RandomStreamsKeepTheirUnitary) {
   std::mt19937_64 rng(20261204);
   const int n = 3;
-  long long removed = 0;
+  long long removed = 0, fully_checked = 0;
   for (int trial = 0; trial < 4000; ++trial) {
-    // At most 8 gates: no qubit overflows what the pass holds back, so every pair must be found.
-    static_assert(PeepholePass::kDepth >= 8);
     std::vector<Gate> in;
-    const int len = 2 + static_cast<int>(rng() % 7);
+    const int len = 2 + static_cast<int>(rng() % 11);
     for (int i = 0; i < len; ++i) {
       const int q = static_cast<int>(rng() % n), r = (q + 1 + static_cast<int>(rng() % (n - 1))) % n;
       // A few kinds and angles, so that pairs and zero sums are frequent.
@@ -239,10 +238,20 @@ TEST(PeepholePass, RandomStreamsKeepTheirUnitary) {
     for (const Gate& g : in) kept_zero += (g.kind == GateKind::rz || g.kind == GateKind::p) && g.angle.is_zero();
     EXPECT_EQ(static_cast<long long>(in.size()) - out.removed, static_cast<long long>(out.gates.size()));
     EXPECT_LT(distance_up_to_phase(unitary(n, in), unitary(n, out.gates)), 1e-9) << "trial " << trial;
-    expect_no_pair_left(n, out.gates);
+    // Every pair must be found while no qubit has more gates than the pass holds back.
+    std::vector<int> per_qubit(n, 0);
+    for (const Gate& g : in) {
+      ++per_qubit[g.q0];
+      if (is_two_qubit(g.kind)) ++per_qubit[g.q1];
+    }
+    if (*std::max_element(per_qubit.begin(), per_qubit.end()) <= PeepholePass::kDepth) {
+      expect_no_pair_left(n, out.gates);
+      ++fully_checked;
+    }
     removed += out.removed - kept_zero;
   }
-  EXPECT_GT(removed, 1000);  // the streams do exercise the rewrites
+  EXPECT_GT(removed, 1000);        // the streams do exercise the rewrites
+  EXPECT_GT(fully_checked, 1000);  // and the search for pairs left
 }
 
 }  // namespace

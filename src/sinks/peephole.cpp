@@ -5,8 +5,7 @@
 
 namespace qftplan {
 
-PeepholePass::PeepholePass(int qubits, GateSink& out)
-    : top_(qubits, -1), bottom_(qubits, -1), depth_(qubits, 0), out_(out) {}
+PeepholePass::PeepholePass(int qubits, GateSink& out) : stacks_(qubits), out_(out) {}
 
 void PeepholePass::batch(std::span<const Gate> run) {
   for (const Gate& g : run) add(g);
@@ -22,13 +21,15 @@ void PeepholePass::add(const Gate& g) {
 }
 
 bool PeepholePass::try_cancel(const Gate& g) {
-  const std::int32_t t = top_[g.q0];
-  if (t < 0) return false;
-  const bool two = is_two_qubit(g.kind);
-  // Both operands must have the same last gate: nothing on either qubit in between.
-  if (two && top_[g.q1] != t) return false;
-  Held& p = pool_[t];
+  Stack& s0 = stacks_[g.q0];
+  if (s0.size == 0) return false;
+  Slot& p = s0.top();
   if (p.g.kind != g.kind) return false;
+  if (is_two_qubit(g.kind)) {
+    // Both operands must have the same last gate: nothing on either qubit in between.
+    const Stack& s1 = stacks_[g.q1];
+    if (s1.size == 0 || stacks_[g.q1].slot[(s1.head + s1.size - 1) % kDepth].seq != p.seq) return false;
+  }
   switch (g.kind) {
     case GateKind::h:
     case GateKind::x:
@@ -49,100 +50,84 @@ bool PeepholePass::try_cancel(const Gate& g) {
       p.g.angle = sum;
       ++removed_;
       if (sum.is_zero()) {
-        drop_top(t);
+        s0.pop_top();
         ++removed_;
       }
       return true;
     }
     default: return false;
   }
-  drop_top(t);
+  drop_top(p.g);
   removed_ += 2;
   return true;
 }
 
+void PeepholePass::drop_top(const Gate& held) {
+  const bool two = is_two_qubit(held.kind);
+  const int q1 = held.q1;
+  stacks_[held.q0].pop_top();  // `held` is not read after this
+  if (two) stacks_[q1].pop_top();
+}
+
 void PeepholePass::push(const Gate& g) {
-  std::int32_t i = 0;
-  if (!free_.empty()) {
-    i = free_.back();
-    free_.pop_back();
-  } else {
-    i = static_cast<std::int32_t>(pool_.size());
-    pool_.emplace_back();
-  }
-  Held& h = pool_[i];
-  h = Held{g, seq_++, {-1, -1}, {-1, -1}, true};
-  const int n = slots(h);
-  for (int s = 0; s < n; ++s) {
-    const int q = s == 0 ? g.q0 : g.q1;
-    const std::int32_t b = top_[q];
-    h.below[s] = b;
-    if (b >= 0) pool_[b].above[slot_of(pool_[b], q)] = i;
-    else bottom_[q] = i;
-    top_[q] = i;
-    ++depth_[q];
-  }
-  for (int s = 0; s < n; ++s) {
-    const int q = s == 0 ? g.q0 : g.q1;
-    while (depth_[q] > kDepth) emit_through(bottom_[q]);
-  }
+  const bool two = is_two_qubit(g.kind);
+  // Room on each stack first: a full one sends out its oldest gate.
+  while (stacks_[g.q0].size == kDepth) emit_bottom(g.q0);
+  if (two)
+    while (stacks_[g.q1].size == kDepth) emit_bottom(g.q1);
+  const Slot s{g, seq_++};
+  stacks_[g.q0].push(s);
+  if (two) stacks_[g.q1].push(s);
 }
 
-void PeepholePass::drop_top(std::int32_t i) {
-  Held& h = pool_[i];
-  for (int s = 0; s < slots(h); ++s) {
-    const int q = s == 0 ? h.g.q0 : h.g.q1;
-    const std::int32_t b = h.below[s];
-    top_[q] = b;
-    if (b >= 0) pool_[b].above[slot_of(pool_[b], q)] = -1;
-    else bottom_[q] = -1;
-    --depth_[q];
-  }
-  h.live = false;
-  free_.push_back(i);
-}
-
-void PeepholePass::emit_through(std::int32_t i) {
-  // The held gates below i on its qubits go first, and theirs before them (an explicit stack: the
-  // chain can run through many qubits). Entries are distinct: each is earlier than the one above it.
-  work_.assign(1, i);
-  while (!work_.empty()) {
-    const Held& h = pool_[work_.back()];
-    const std::int32_t first = h.below[0] >= 0 ? h.below[0] : (slots(h) == 2 ? h.below[1] : -1);
-    if (first >= 0) {
-      work_.push_back(first);
-      continue;
+void PeepholePass::emit_bottom(int q) {
+  // The oldest gate of q goes out; a two-qubit one after the older gates held on its other qubit
+  // (and theirs before them: an explicit stack, the chain can run through many qubits).
+  {
+    // Most often the oldest gate is ready at once (a one-qubit gate, or the oldest on both qubits).
+    const Slot& b = stacks_[q].bottom();
+    const bool two = is_two_qubit(b.g.kind);
+    const int other = two ? (b.g.q0 == q ? b.g.q1 : b.g.q0) : q;
+    if (!two || stacks_[other].bottom().seq == b.seq) {
+      out_.put(b.g);
+      out_.flush_if_full();
+      if (two) stacks_[other].pop_bottom();
+      stacks_[q].pop_bottom();
+      return;
     }
-    const std::int32_t x = work_.back();
+  }
+  work_.assign(1, q);
+  while (!work_.empty()) {
+    const int x = work_.back();
+    const Slot& b = stacks_[x].bottom();
+    if (is_two_qubit(b.g.kind)) {
+      const int other = b.g.q0 == x ? b.g.q1 : b.g.q0;
+      if (stacks_[other].bottom().seq != b.seq) {
+        work_.push_back(other);
+        continue;
+      }
+      stacks_[other].pop_bottom();
+    }
+    out_.put(b.g);
+    out_.flush_if_full();
+    stacks_[x].pop_bottom();
     work_.pop_back();
-    emit_one(x);
   }
-}
-
-void PeepholePass::emit_one(std::int32_t i) {
-  Held& h = pool_[i];
-  out_.put(h.g);
-  out_.flush_if_full();
-  for (int s = 0; s < slots(h); ++s) {
-    const int q = s == 0 ? h.g.q0 : h.g.q1;
-    const std::int32_t a = h.above[s];
-    bottom_[q] = a;
-    if (a >= 0) pool_[a].below[slot_of(pool_[a], q)] = -1;
-    else top_[q] = -1;
-    --depth_[q];
-  }
-  h.live = false;
-  free_.push_back(i);
 }
 
 void PeepholePass::finish() {
   // What is held goes out oldest first (each gate after those it depends on, as in the input).
-  std::vector<std::int32_t> held;
-  for (std::int32_t i = 0; i < static_cast<std::int32_t>(pool_.size()); ++i)
-    if (pool_[i].live) held.push_back(i);
-  std::sort(held.begin(), held.end(), [this](std::int32_t a, std::int32_t b) { return pool_[a].seq < pool_[b].seq; });
-  for (std::int32_t i : held)
-    if (pool_[i].live) emit_through(i);
+  std::vector<std::pair<std::uint64_t, int>> held;
+  for (int q = 0; q < static_cast<int>(stacks_.size()); ++q) {
+    const Stack& s = stacks_[q];
+    for (int i = 0; i < s.size; ++i) {
+      const Slot& slot = s.slot[(s.head + i) % kDepth];
+      if (slot.g.q0 == q) held.emplace_back(slot.seq, q);
+    }
+  }
+  std::sort(held.begin(), held.end());
+  for (const auto& [seq, q] : held)
+    while (stacks_[q].size > 0 && stacks_[q].bottom().seq <= seq) emit_bottom(q);
   out_.flush();
   out_.out().finish();
 }

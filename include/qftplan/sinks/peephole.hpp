@@ -32,7 +32,7 @@ namespace qftplan {
 class PeepholePass final : public GateSink {
  public:
   /// Gates held back per qubit at most (how deep a cascade can reach).
-  static constexpr int kDepth = 8;
+  static constexpr int kDepth = 4;
   /// `qubits`: the number of physical qubits the stream may address.
   PeepholePass(int qubits, GateSink& out);
   void gate(const Gate& g) override { add(g); }
@@ -42,30 +42,35 @@ class PeepholePass final : public GateSink {
   long long removed() const { return removed_; }
 
  private:
-  // A held gate: its operand qubits are slots 0 (q0) and 1 (q1, two-qubit gates only); below/above
-  // link it with the held gates before and after it on the slot's qubit (-1: none).
-  struct Held {
+  // A held gate and its place in the input (a two-qubit gate is held on both its qubits' stacks,
+  // as one gate: the same seq).
+  struct Slot {
     Gate g;
     std::uint64_t seq = 0;
-    std::int32_t below[2] = {-1, -1};
-    std::int32_t above[2] = {-1, -1};
-    bool live = false;
+  };
+  // The gates held on one qubit, oldest first, in a small ring (stored inline: a gate touches only
+  // the stacks of its own qubits).
+  struct Stack {
+    Slot slot[kDepth];
+    std::uint8_t head = 0;  // index of the oldest
+    std::uint8_t size = 0;
+    Slot& top() { return slot[(head + size - 1) % kDepth]; }
+    Slot& bottom() { return slot[head]; }
+    void push(const Slot& s) { slot[(head + size++) % kDepth] = s; }
+    void pop_top() { --size; }
+    void pop_bottom() {
+      head = static_cast<std::uint8_t>((head + 1) % kDepth);
+      --size;
+    }
   };
   void add(const Gate& g);
   bool try_cancel(const Gate& g);
   void push(const Gate& g);
-  void drop_top(std::int32_t i);
-  void emit_through(std::int32_t i);
-  void emit_one(std::int32_t i);
-  int slots(const Held& h) const { return two_qubit_slots(h.g.kind) ? 2 : 1; }
-  static bool two_qubit_slots(GateKind k) { return is_two_qubit(k); }
-  static int slot_of(const Held& h, int q) { return h.g.q0 == q ? 0 : 1; }
+  void drop_top(const Gate& held);
+  void emit_bottom(int q);
 
-  std::vector<Held> pool_;
-  std::vector<std::int32_t> free_;
-  std::vector<std::int32_t> top_, bottom_;
-  std::vector<std::uint8_t> depth_;
-  std::vector<std::int32_t> work_;  // emit_through's explicit stack
+  std::vector<Stack> stacks_;
+  std::vector<int> work_;  // emit_bottom's explicit stack of qubits
   std::uint64_t seq_ = 0;
   long long removed_ = 0;
   GateRun out_;
