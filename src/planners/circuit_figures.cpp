@@ -21,10 +21,12 @@ CircuitFigures count_circuit(const Device& device, const PlannedCircuit& circuit
   // Sinks: the fused stream feeds the logical counters (which also count the depth the blocks
   // would have unfused) and the native counters and the noise model. Without the peephole pass the
   // native gates are replayed as per-kind programs (the native gates themselves are made only for a
-  // writer of them); with it they are made, go through the pass, and the counters see what is left,
-  // gate by gate. The emitted circuit is the native one when the gate set is native, so then those
-  // counters (and that pass) serve both; otherwise a second path rewrites the stream into the emitted
-  // gate set (and through a pass of its own).
+  // writer of them); with it, NativePeephole holds logical gates whole where the pass cannot touch
+  // them (replayed as programs when they leave) and opens them into native gates where it can, and
+  // the counters see what is left; a writer of the native gates is fed by it, so that the counts are
+  // those of the file. The emitted circuit is the native one when the gate set is native, so then
+  // those counters (and that pass) serve both; otherwise a second path rewrites the stream into the
+  // emitted gate set (through a gate-level PeepholePass of its own).
   MetricsSink logical(D, /*unfused_depth=*/true), native(D);
   std::optional<MetricsSink> emitted_counter;
   if (!emitted_is_native) emitted_counter.emplace(D);
@@ -33,14 +35,14 @@ CircuitFigures count_circuit(const Device& device, const PlannedCircuit& circuit
   if (emitted_counter) emitted_targets.push_back(&*emitted_counter);
   if (output) emitted_targets.push_back(output);
   TeeSink emitted_tee(emitted_targets);
-  std::vector<GateSink*> native_targets{&native, &noise};
-  if (emitted_is_native && output) native_targets.push_back(output);
-  TeeSink native_tee(native_targets);
 
-  std::unique_ptr<GateSink> to_native, native_pass, emit_path, emitted_pass, written_form;
+  std::unique_ptr<GateSink> to_native, emit_path, written_form;
+  std::unique_ptr<PeepholePass> emitted_pass;
+  NativePeephole* native_pass = nullptr;
   if (peephole) {
-    native_pass = std::make_unique<PeepholePass>(D, native_tee);
-    to_native = std::make_unique<NativeDecomposer>(native_gate, *native_pass);
+    auto p = std::make_unique<NativePeephole>(native_gate, D, native, noise, emitted_is_native ? output : nullptr);
+    native_pass = p.get();
+    to_native = std::move(p);
   } else {
     to_native = std::make_unique<NativeReplay>(native_gate, native, noise);
   }
@@ -86,8 +88,8 @@ CircuitFigures count_circuit(const Device& device, const PlannedCircuit& circuit
   rename_as_written(settings.format, f.gate_counts);
   f.noise = noise.figures();
   // The pass of the written circuit: the native one when the emitted gate set is native.
-  if (const auto* pass = static_cast<const PeepholePass*>(emitted_pass ? emitted_pass.get() : native_pass.get()))
-    f.peephole_removed = pass->removed();
+  if (emitted_pass) f.peephole_removed = emitted_pass->removed();
+  else if (native_pass) f.peephole_removed = native_pass->removed();
   return f;
 }
 

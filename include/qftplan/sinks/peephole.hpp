@@ -4,10 +4,15 @@
 /// them there and together do nothing are removed, streaming, with a bounded state per qubit.
 
 #include <cstdint>
+#include <optional>
 #include <span>
 #include <vector>
 
 #include "qftplan/core/gate.hpp"
+#include "qftplan/core/gate_program.hpp"
+#include "qftplan/device/device.hpp"
+#include "qftplan/sinks/native_gates.hpp"
+#include "qftplan/sinks/noise_model.hpp"
 
 namespace qftplan {
 
@@ -74,6 +79,87 @@ class PeepholePass final : public GateSink {
   std::uint64_t seq_ = 0;
   long long removed_ = 0;
   GateRun out_;
+};
+
+class MetricsSink;
+
+/// The native decomposition of a logical stream followed by PeepholePass's rewrites, fed to the
+/// native counters and the noise model and, when given, a writer of the native gates. Where the
+/// first native gate a logical gate puts on a qubit cannot pair with the last one held there, the
+/// logical gate is held whole and counted, when it leaves, by replaying its kind's native program
+/// (NativeReplay's fast path: one step per logical gate); otherwise both are opened into native
+/// gates and the rewrites run on those. Gates that leave are counted in the order they leave, and
+/// the writer receives the same gates, so the figures are those of the written circuit.
+class NativePeephole final : public GateSink {
+ public:
+  static constexpr int kDepth = 3;
+  NativePeephole(TwoQubitGate target, int qubits, MetricsSink& metrics, NoiseSink& noise, GateSink* writer);
+  void gate(const Gate& g) override { add(g); }
+  void batch(std::span<const Gate> run) override;
+  void finish() override;
+  /// Native gates removed so far.
+  long long removed() const { return removed_; }
+
+ private:
+  struct Slot {
+    Gate g;
+    std::uint64_t seq = 0;
+    bool block = false;  // a logical gate held whole
+  };
+  struct Stack {
+    Slot slot[kDepth];
+    std::uint8_t head = 0;
+    std::uint8_t size = 0;
+    Slot& top() { return slot[(head + size - 1) % kDepth]; }
+    Slot& bottom() { return slot[head]; }
+    void push(const Slot& s) { slot[(head + size++) % kDepth] = s; }
+    void pop_top() { --size; }
+    void pop_bottom() {
+      head = static_cast<std::uint8_t>((head + 1) % kDepth);
+      --size;
+    }
+  };
+  // A kind's native program and where each slot's first and last step are (-1: slot unused).
+  // The first or last step of a program on one slot.
+  struct End {
+    int index = -1;  // -1: the slot is unused
+    GateKind kind = GateKind::h;
+    std::uint8_t a = 0, b = 0;  // its slots
+  };
+  struct Program {
+    GateProgram steps;
+    NoiseSink::ProgramCost cost;
+    End head[2];
+    End tail[2];
+  };
+  static bool slots2(const Slot& s) { return is_two_qubit(s.g.kind); }
+  const Program& program_of(const Gate& g) const {
+    return programs_[g.angle.is_zero() ? 1 : 0][static_cast<int>(g.kind)];
+  }
+  void add(const Gate& g);
+  bool pairs_with_top(const Gate& g, int slot);
+  void open(int q);
+  void add_native(const Gate& g);
+  bool try_cancel(const Gate& g);
+  void push(const Slot& s);
+  void release_covered(int q);
+  void emit_bottom(int q);
+  void emit(const Slot& s);
+  void send(const Gate& native);
+  const std::vector<Gate>& decompose(const Gate& g);  // valid until the next call
+
+  TwoQubitGate target_;
+  Program programs_[2][kGateKindCount];
+  MetricsSink& metrics_;
+  NoiseSink& noise_;
+  GateSink* writer_;
+  std::optional<GateRun> written_;
+  std::vector<Stack> stacks_;
+  std::vector<int> work_;
+  std::uint64_t seq_ = 0;
+  long long removed_ = 0;
+  VectorSink scratch_;
+  NativeDecomposer scratch_dec_;
 };
 
 }  // namespace qftplan
