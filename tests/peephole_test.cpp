@@ -9,6 +9,8 @@
 #include <algorithm>
 #include <random>
 
+#include "qftplan/sinks/circuit_metrics.hpp"
+#include "qftplan/sinks/native_gates.hpp"
 #include "qftplan/sinks/peephole.hpp"
 
 namespace qftplan {
@@ -252,6 +254,69 @@ TEST(PeepholePass, RandomStreamsKeepTheirUnitary) {
   }
   EXPECT_GT(removed, 1000);        // the streams do exercise the rewrites
   EXPECT_GT(fully_checked, 1000);  // and the search for pairs left
+}
+
+// NativePeephole (logical gates held whole where nothing can pair, opened where something can) on random
+// logical streams: the native circuit it writes has the unitary of the plain decomposition, no pair left
+// that the pass removes, and the counters it feeds equal a recount of what it wrote.
+TEST(NativePeephole, RandomLogicalStreamsKeepTheirUnitaryAndCounts) {
+  const int n = 3;
+  std::mt19937_64 rng(18);
+  long long removed = 0, fully_checked = 0;
+  for (TwoQubitGate target : {TwoQubitGate::cx, TwoQubitGate::cz}) {
+    DeviceDescription d;
+    d.name = "triangle";
+    d.qubits = n;
+    d.couplers = {{0, 1, {}, {}}, {1, 2, {}, {}}, {0, 2, {}, {}}};
+    d.native_2q = target;
+    const Device dev(d);
+    for (int trial = 0; trial < 1500; ++trial) {
+      std::vector<Gate> logical;
+      const int len = 1 + static_cast<int>(rng() % 6);
+      for (int i = 0; i < len; ++i) {
+        const int q = static_cast<int>(rng() % n), r = (q + 1 + static_cast<int>(rng() % (n - 1))) % n;
+        const Angle a(static_cast<std::int64_t>(rng() % 5) - 2, 2);
+        static constexpr GateKind kinds[] = {GateKind::h,  GateKind::p,       GateKind::cx,          GateKind::cz,
+                                             GateKind::cp, GateKind::cp_swap, GateKind::parity_step, GateKind::swap};
+        const GateKind k = kinds[rng() % 8];
+        logical.push_back(make_gate(k, q, is_two_qubit(k) ? r : -1, has_angle(k) ? a : Angle{}));
+      }
+      VectorSink plain, written;
+      NativeDecomposer dec(target, plain);
+      dec.batch(logical);
+      dec.finish();
+      MetricsSink counts(n);
+      NoiseSink noise(dev, {0, 1, 2});
+      NativePeephole pass(target, n, counts, noise, &written);
+      for (const Gate& g : logical) pass.gate(g);
+      pass.finish();
+      ASSERT_LT(distance_up_to_phase(unitary(n, plain.gates), unitary(n, written.gates)), 1e-9) << "trial " << trial;
+      EXPECT_EQ(static_cast<long long>(plain.gates.size()) - pass.removed(), static_cast<long long>(written.gates.size()));
+      // Every pair must be found while no qubit has more native gates than the pass holds back.
+      std::vector<int> per_qubit(n, 0);
+      for (const Gate& g : plain.gates) {
+        ++per_qubit[g.q0];
+        if (is_two_qubit(g.kind)) ++per_qubit[g.q1];
+      }
+      if (*std::max_element(per_qubit.begin(), per_qubit.end()) <= NativePeephole::kDepth) {
+        expect_no_pair_left(n, written.gates);
+        ++fully_checked;
+      }
+      MetricsSink recount(n);
+      NoiseSink renoise(dev, {0, 1, 2});
+      for (const Gate& g : written.gates) {
+        recount.gate(g);
+        renoise.gate(g);
+      }
+      EXPECT_EQ(recount.counts_by_name(), counts.counts_by_name());
+      EXPECT_EQ(recount.depth(), counts.depth());
+      EXPECT_EQ(recount.depth_2q(), counts.depth_2q());
+      EXPECT_NEAR(renoise.figures().duration_ns, noise.figures().duration_ns, 1e-9);
+      removed += pass.removed();
+    }
+  }
+  EXPECT_GT(removed, 500);
+  EXPECT_GT(fully_checked, 300);
 }
 
 }  // namespace

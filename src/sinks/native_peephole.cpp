@@ -95,12 +95,22 @@ void NativePeephole::add(const Gate& g) {
   for (const Gate& n : natives) add_native(n);
 }
 
-// The logical gate on top of q's stack becomes native gates: those before its last gate on q go out
-// (after everything held before it), the rest is held as native gates, where the rewrites reach them.
+// The logical gate on top of q's stack becomes native gates. On top of its other qubit too, they all
+// take its place; otherwise those before its last gate on q go out (after everything held before it)
+// and that last gate is held, where the rewrites reach it.
 void NativePeephole::open(int q) {
   const Slot t = stacks_[q].top();
   const bool two = slots2(t);
   const int a = t.g.q0, b = two ? t.g.q1 : a;
+  if (!two || stacks_[a == q ? b : a].top().seq == t.seq) {
+    // On top of both its qubits: its native gates take its place, and what is held below stays
+    // within reach of a cascade.
+    const std::vector<Gate> natives = decompose(t.g);
+    stacks_[a].pop_top();
+    if (two) stacks_[b].pop_top();
+    for (const Gate& n : natives) push(Slot{n, seq_++, false});
+    return;
+  }
   while (stacks_[a].bottom().seq != t.seq) emit_bottom(a);
   if (two)
     while (stacks_[b].bottom().seq != t.seq) emit_bottom(b);
@@ -178,30 +188,6 @@ void NativePeephole::push(const Slot& s) {
     while (stacks_[s.g.q1].size == kDepth) emit_bottom(s.g.q1);
   stacks_[s.g.q0].push(s);
   if (two) stacks_[s.g.q1].push(s);
-  // A logical gate held whole that is now under another gate on each of its qubits can no longer
-  // pair with anything (only the top of a stack is opened): it leaves at once when nothing older is
-  // held on its qubits. So logical gates leave nearly in their order, and the stacks stay short.
-  release_covered(s.g.q0);
-  if (two) release_covered(s.g.q1);
-}
-
-void NativePeephole::release_covered(int q) {
-  Stack& st = stacks_[q];
-  if (st.size < 2) return;
-  const Slot& b = st.bottom();
-  if (!b.block) return;
-  if (slots2(b)) {
-    const int other = b.g.q0 == q ? b.g.q1 : b.g.q0;
-    Stack& so = stacks_[other];
-    if (so.size < 2 || so.bottom().seq != b.seq) return;
-    const Slot out = b;
-    so.pop_bottom();
-    st.pop_bottom();
-    return emit(out);
-  }
-  const Slot out = b;
-  st.pop_bottom();
-  emit(out);
 }
 
 void NativePeephole::emit_bottom(int q) {

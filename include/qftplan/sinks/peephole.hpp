@@ -142,7 +142,6 @@ class NativePeephole final : public GateSink {
   void add_native(const Gate& g);
   bool try_cancel(const Gate& g);
   void push(const Slot& s);
-  void release_covered(int q);
   void emit_bottom(int q);
   void emit(const Slot& s);
   void send(const Gate& native);
