@@ -111,23 +111,19 @@ void NativePeephole::open(int q) {
     for (const Gate& n : natives) push(Slot{n, seq_++, false});
     return;
   }
+  // Under another gate on its other qubit: the gates held below it go out first, then its native
+  // gates but its last one on q, which is held (those after it act on the other qubit alone, before
+  // what is held there). A last gate on q that acts on both qubits cannot pair with anything here.
   while (stacks_[a].bottom().seq != t.seq) emit_bottom(a);
-  if (two)
-    while (stacks_[b].bottom().seq != t.seq) emit_bottom(b);
-  const int r = a == q ? b : a;
-  const bool top_on_r = !two || stacks_[r].top().seq == t.seq;
+  while (stacks_[b].bottom().seq != t.seq) emit_bottom(b);
   const std::vector<Gate> natives = decompose(t.g);
   const int k = program_of(t.g).tail[t.g.q0 == q ? 0 : 1].index;
   stacks_[a].pop_bottom();
-  if (two) stacks_[b].pop_bottom();
-  // Held: from the last gate on q to the end when nothing follows on the other qubit; else only
-  // that gate (the ones after it act on the other qubit alone, before what is held there).
-  const bool hold_k = top_on_r || !is_two_qubit(natives[k].kind);
+  stacks_[b].pop_bottom();
+  const bool hold_k = !is_two_qubit(natives[k].kind);
   for (int i = 0; i < static_cast<int>(natives.size()); ++i)
-    if (i < k || (i > k && !top_on_r) || (i == k && !hold_k)) send(natives[i]);
-  if (!hold_k) return;
-  for (int i = k; i < static_cast<int>(natives.size()); ++i)
-    if (i == k || top_on_r) push(Slot{natives[i], seq_++, false});
+    if (i != k || !hold_k) send(natives[i]);
+  if (hold_k) push(Slot{natives[k], seq_++, false});
 }
 
 void NativePeephole::add_native(const Gate& g) {
