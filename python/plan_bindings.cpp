@@ -48,7 +48,7 @@ struct Plan {
 Plan make_plan(const py::object& device, int qubits, const py::object& approx, bool inverse, const py::object& gates,
                const py::object& placement, std::uint64_t seed, bool measure, const std::string& end_order,
                const std::string& strategy, const std::string& objective, const py::object& format, bool circuit,
-               std::optional<double> time_limit, const std::string& network) {
+               std::optional<double> time_limit, const std::string& network, bool peephole) {
   const auto t0 = std::chrono::steady_clock::now();
   Plan p;
   p.device = device_arg(device);
@@ -65,6 +65,7 @@ Plan make_plan(const py::object& device, int qubits, const py::object& approx, b
   settings.network = network;
   settings.end_order = end_order;
   settings.measure = measure;
+  settings.peephole = peephole;
   p.version = version_arg(format);
   settings.format = p.version;
   p.options = plan_options(settings);
@@ -168,7 +169,7 @@ void bind_plan(py::module_& m) {
         py::arg("inverse") = false, py::arg("gates") = py::none(), py::arg("placement") = py::none(),
         py::arg("seed") = 1, py::arg("measure") = false, py::arg("end_order") = "free", py::arg("strategy") = "auto",
         py::arg("objective") = "esp", py::arg("format") = "qasm3", py::arg("circuit") = true,
-        py::arg("time_limit") = py::none(), py::arg("network") = "auto",
+        py::arg("time_limit") = py::none(), py::arg("network") = "auto", py::arg("peephole") = true,
         "Plans a QFT of `qubits` qubits on `device` (a Device, a spec such as 'grid:4x4' or a YAML path),\n"
         "like `qftplan plan`:\n"
         "  approx      'none' (exact), an int degree M, or 'auto'\n"
@@ -185,6 +186,7 @@ void bind_plan(py::module_& m) {
         "  format      'qasm3' or 'qasm2' (or 3, 2) for the text\n"
         "  circuit     False: report only, no text kept (for very large registers)\n"
         "  time_limit  seconds; when it runs out the best plan so far is returned with a RuntimeWarning\n"
+        "  peephole    False: the native gates as decomposed, without the peephole pass\n"
         "Returns a Plan. Raises InputError for bad arguments, PlanningError when it cannot be planned.");
 }
 

@@ -48,6 +48,7 @@ struct Case {
   bool inverse;
   GateSet gates;
   NetworkChoice network = NetworkChoice::automatic;
+  std::string strategy;  ///< empty: auto (or chain for a named network)
 };
 
 class PlanAgainstFftw : public ::testing::TestWithParam<Case> {};
@@ -61,6 +62,7 @@ TEST_P(PlanAgainstFftw, UnitaryMatchesTheReference) {
   opt.network = c.network;
   // A named network is the chain strategy's: plan with it, so that the network itself is tested.
   if (c.network != NetworkChoice::automatic) opt.strategy = "chain";
+  if (!c.strategy.empty()) opt.strategy = c.strategy;
   const auto plan = prepare_plan(dev, opt);
   // Parity and reversal are built as named at every degree (they end in order); the others give way
   // to the hadamard-only and adjacent networks at degrees 1 and 2.
@@ -101,6 +103,17 @@ std::vector<Case> cases() {
     v.push_back({"line:8", 8, std::nullopt, inv, GateSet::cx, NetworkChoice::anchored});
     v.push_back({"line:8", 8, 3, inv, GateSet::logical, NetworkChoice::anchored});
   }
+  // Native output goes through the peephole pass by default (issue 18): every chain network and the
+  // routed and cover strategies in both native gate sets, so that what the pass leaves is simulated
+  // (the spine strategy: peephole_plan_test.cpp).
+  for (GateSet g : {GateSet::cx, GateSet::cz})
+    for (bool inv : {false, true}) {
+      for (NetworkChoice net : {NetworkChoice::anchored, NetworkChoice::parity, NetworkChoice::reversal})
+        for (int n : {3, 6}) v.push_back({"grid:3x3", n, std::nullopt, inv, g, net});
+      for (int M : {2, 3}) v.push_back({"line:7", 7, M, inv, g, NetworkChoice::leapfrog});
+      for (const char* s : {"routed", "cover"})
+        for (int n : {4, 7}) v.push_back({"heavy-hex:1x1", n, std::nullopt, inv, g, NetworkChoice::automatic, s});
+    }
   return v;
 }
 

@@ -1,5 +1,5 @@
 // The structural proof's set-up, its streaming front end (qubit ranges, couplers, measurements,
-// h-cz-h sandwiches) and its end-of-circuit checks; the public StructuralChecker forwards here.
+// the Hadamard frame) and its end-of-circuit checks; the public StructuralChecker forwards here.
 // The method is described in structural_state.hpp.
 
 #include <cstdlib>
@@ -20,8 +20,6 @@ StructuralChecker::Impl::Impl(const Device& dev, const QftSpec& s, std::vector<i
   measured.assign(nq, 0);
   pend_h.assign(nq, 0);
   pend_h_line.assign(nq, 0);
-  cz_partner.assign(nq, -1);
-  cz_line.assign(nq, 0);
   if (n < 1) {
     fail("the QFT needs at least one qubit", 0);
     return;
@@ -106,7 +104,7 @@ std::string StructuralChecker::Impl::describe(const Parity& p) const {
 }
 
 // ---------------------------------------------------------------------------------------------
-// Streaming front end: ranges, couplers, measurements, sandwiches.
+// Streaming front end: ranges, couplers, measurements, the Hadamard frame.
 
 bool StructuralChecker::Impl::check_qubit(int q, int line) {
   if (q < 0 || q >= nq) {
@@ -159,28 +157,25 @@ void StructuralChecker::Impl::feed(const Gate& g, int line) {
   }
   if (!check_gate_qubits(g, line)) return;
   if (g.kind == GateKind::h) {
-    feed_h(g.q0, line);
+    pend_h[g.q0] ^= 1;  // h h is the identity
+    pend_h_line[g.q0] = line;
     return;
   }
   if (acts_trivially(g)) return;
-  // A phase on the quiet side of a held cz (no H held there) commutes with everything held: apply
-  // it now rather than break up a possible h-cz-h sandwich.
-  if ((g.kind == GateKind::p || g.kind == GateKind::rz) && cz_partner[g.q0] >= 0 && !pend_h[g.q0]) {
-    apply(g, line);
+  if (g.kind == GateKind::cz) {
+    feed_cz(g.q0, g.q1, line);
     return;
   }
-  if (g.kind == GateKind::cz && hold_cz(g, line)) return;
   release(g.q0);
   if (is_two_qubit(g.kind)) release(g.q1);
   apply(g, line);
 }
 
 // A gate that leaves every state it can meet here unchanged: a controlled phase or a cx whose
-// control holds |0> with nothing held on it, or a zero rotation. Dropping it keeps a rewritten
-// circuit in the shapes the front end recognises (a cz on |0> between a Hadamard and the next
-// gate would otherwise look like the middle of a sandwich).
+// control holds |0> with no Hadamard in its frame, or a zero rotation. Dropping it keeps a
+// rewritten circuit in the shapes the front end recognises.
 bool StructuralChecker::Impl::acts_trivially(const Gate& g) const {
-  auto quiet_zero = [&](int q) { return par[q].size == 0 && par[q].c == 0 && !pend_h[q] && cz_partner[q] < 0; };
+  auto quiet_zero = [&](int q) { return par[q].size == 0 && par[q].c == 0 && !pend_h[q]; };
   switch (g.kind) {
     case GateKind::rz:
     case GateKind::p: return g.angle.is_zero();
@@ -193,78 +188,49 @@ bool StructuralChecker::Impl::acts_trivially(const Gate& g) const {
   }
 }
 
-// An h either closes a held h-cz sandwich on its qubit or is held itself.
-void StructuralChecker::Impl::feed_h(int q, int line) {
-  const int c = cz_partner[q];
-  if (c >= 0 && pend_h[q]) {
-    // h q; cz c,q; h q  ==  cx c,q. A held H on c came before the cz: apply it first.
-    const int line_cz = cz_line[q];
-    cz_partner[q] = cz_partner[c] = -1;
-    pend_h[q] = 0;
-    if (pend_h[c]) {
-      pend_h[c] = 0;
-      apply(Gate{GateKind::h, c, -1, Angle{}}, pend_h_line[c]);
-    }
-    apply(Gate{GateKind::cx, c, q, Angle{}}, line_cz);
-    return;
-  }
-  // A second H on the qubit is held too (h h is the identity); a third cancels one of them.
-  if (c < 0 && pend_h[q]) {
-    pend_h[q] = pend_h[q] == 1 ? 2 : 1;
-    return;
-  }
-  release(q);
-  pend_h[q] = 1;
-  pend_h_line[q] = line;
+// The qubit holds the input of a wire alone and that wire has not had its Hadamard: the one place
+// where the QFT's Hadamard of the wire can act.
+bool StructuralChecker::Impl::awaits_hadamard(int q) const {
+  return par[q].size == 1 && par[q].v[0] < n && !h_done[par[q].v[0]];
 }
 
-// Holds a cz that meets a held H (it may be the middle of a sandwich); false when it is to be
-// applied right away.
-bool StructuralChecker::Impl::hold_cz(const Gate& g, int line) {
-  // An earlier held cz on either qubit is resolved first (its H's came before it, so they
-  // cannot open a sandwich around this cz).
-  flush_pair(g.q0);
-  flush_pair(g.q1);
-  // h h before a cz: when the other qubit holds an H, that one may open the sandwich and the pair
-  // is the identity (an inserted h h); otherwise the first is a Hadamard of its own and the second
-  // may open a sandwich.
-  for (int x : {g.q0, g.q1}) {
-    const int other = x == g.q0 ? g.q1 : g.q0;
-    if (pend_h[x] != 2) continue;
-    if (pend_h[other] == 1) {
-      pend_h[x] = 0;
-      continue;
-    }
-    pend_h[x] = 1;
-    apply(Gate{GateKind::h, x, -1, Angle{}}, pend_h_line[x]);
-  }
-  if (pend_h[g.q0] || pend_h[g.q1]) {
-    cz_partner[g.q0] = g.q1;
-    cz_partner[g.q1] = g.q0;
-    cz_line[g.q0] = cz_line[g.q1] = line;
-    return true;
-  }
-  return false;
+// Of two qubits, the one whose Hadamard is due first: a qubit awaiting its wire's Hadamard before
+// one that is not, and of two awaiting it, the wire whose Hadamard the QFT puts first (the Hadamard
+// of wire w must follow those of the wires in closing_window(w): the lower wires of the forward
+// transform, the higher ones of the inverse); otherwise the one whose h came first.
+int StructuralChecker::Impl::hadamard_due(int a, int b) const {
+  const bool wa = awaits_hadamard(a), wb = awaits_hadamard(b);
+  if (wa != wb) return wa ? a : b;
+  if (wa) return (par[a].v[0] < par[b].v[0]) != spec.inverse ? a : b;
+  return pend_h_line[a] <= pend_h_line[b] ? a : b;
 }
 
-// Applies whatever is held on qubit q (and the other half of a held cz).
+// A cz seen through the Hadamard frame. With an H in the frame of exactly one qubit t it is
+// cx c,t (h t; cz c,t; h t == cx c,t: the frame's H and the one still to come on t, or removed by
+// an optimiser together with a Hadamard that meets it). With H in both frames, the one due first
+// (hadamard_due) is applied, and the other qubit is the target. With none, and a qubit t awaiting
+// its wire's Hadamard, it is that Hadamard followed by cx c,t with an H left in t's frame
+// (cz c,t == h t; (h t; cz c,t; h t); h t: the form left where the wire's Hadamard and the
+// sandwich's first h cancelled); otherwise it is a phase.
+void StructuralChecker::Impl::feed_cz(int a, int b, int line) {
+  if (pend_h[a] && pend_h[b]) release(hadamard_due(a, b));
+  if (pend_h[b]) return apply(Gate{GateKind::cx, a, b, Angle{}}, line);
+  if (pend_h[a]) return apply(Gate{GateKind::cx, b, a, Angle{}}, line);
+  if (awaits_hadamard(a) || awaits_hadamard(b)) {
+    const int t = hadamard_due(a, b), c = t == a ? b : a;
+    apply(Gate{GateKind::h, t, -1, Angle{}}, line);
+    if (failed) return;
+    pend_h[t] = 1;
+    pend_h_line[t] = line;
+    return apply(Gate{GateKind::cx, c, t, Angle{}}, line);
+  }
+  apply(Gate{GateKind::cz, a, b, Angle{}}, line);
+}
+
+// Applies the Hadamard in q's frame, if any.
 void StructuralChecker::Impl::release(int q) {
-  flush_pair(q);
-  if (pend_h[q] == 1) apply(Gate{GateKind::h, q, -1, Angle{}}, pend_h_line[q]);
-  pend_h[q] = 0;  // two held H's cancel
-}
-
-// Applies a held cz on q with the held H's that precede it.
-void StructuralChecker::Impl::flush_pair(int q) {
-  const int c = cz_partner[q];
-  if (c < 0) return;
-  cz_partner[q] = cz_partner[c] = -1;
-  for (int x : {q, c})
-    if (pend_h[x]) {
-      pend_h[x] = 0;
-      apply(Gate{GateKind::h, x, -1, Angle{}}, pend_h_line[x]);
-    }
-  apply(Gate{GateKind::cz, q, c, Angle{}}, cz_line[q]);
+  if (pend_h[q]) apply(Gate{GateKind::h, q, -1, Angle{}}, pend_h_line[q]);
+  pend_h[q] = 0;
 }
 
 void StructuralChecker::Impl::flush_all() {

@@ -2,7 +2,7 @@
 // Private to the checker: the state of the structural proof (StructuralChecker::Impl), shared by
 // its three parts:
 //   structural_checker.cpp  set-up, the streaming front end (ranges, couplers, measurements,
-//                           h-cz-h sandwiches), the end-of-circuit checks;
+//                           the Hadamard frame), the end-of-circuit checks;
 //   phase_polynomial.cpp    the path-sum state: parities per qubit and the phase polynomial;
 //   structural_hadamard.cpp the Hadamard rule, where the QFT's controlled phases are compared.
 //
@@ -105,16 +105,14 @@ struct StructuralChecker::Impl {
   std::vector<int> h_line;        // per wire
   std::vector<char> measured;     // per physical qubit
 
-  // h-cz-h sandwiches (h t; cz c,t; h t == cx c,t). An H is held back until the next gate on its
-  // qubit; a cz meeting a held H is held too (on both its qubits, since either may turn out to be
-  // the target), and the next gate on either qubit decides: an h on a qubit with a held H closes
-  // the sandwich, anything else releases the held gates unchanged. Two H's held on one qubit (h h)
-  // are the identity unless a cz follows: then the first is a Hadamard of its own and the second
-  // opens a sandwich.
-  std::vector<char> pend_h;       // H's held on the qubit: 0, 1 or 2
-  std::vector<int> pend_h_line;   // line of the first
-  std::vector<int> cz_partner;    // the other qubit of a held cz, or -1 (kept on both qubits)
-  std::vector<int> cz_line;
+  // The Hadamard frame: an h is not applied at once but noted on its qubit (pend_h), so that the
+  // true state is the tracked one with H applied on every qubit whose pend_h is set; a second h
+  // clears it. A cz meeting an H in the frame of one of its qubits t is cx c,t in the frame
+  // (h t; cz c,t; h t == cx c,t); any other gate on a qubit applies its frame's H first (feed_cz in
+  // structural_checker.cpp has the whole rule). So h-cz-h sandwiches are followed however an
+  // optimiser has cancelled the Hadamards between them.
+  std::vector<char> pend_h;       // H in the qubit's frame: 0 or 1
+  std::vector<int> pend_h_line;   // line of the h that set it
 
   // The peephole window (structural_peephole.cpp): gates held back, and per qubit the index (from
   // the start of the stream) of its last held gate, or below window_start when none.
@@ -168,11 +166,11 @@ struct StructuralChecker::Impl {
   bool check_qubit(int q, int line);
   bool check_gate_qubits(const Gate& g, int line);
   void feed(const Gate& g, int line);
-  void feed_h(int q, int line);
   bool acts_trivially(const Gate& g) const;
-  bool hold_cz(const Gate& g, int line);
+  bool awaits_hadamard(int q) const;
+  int hadamard_due(int a, int b) const;
+  void feed_cz(int a, int b, int line);
   void release(int q);
-  void flush_pair(int q);
   void flush_all();
 
   CheckResult finish(const std::vector<int>& final_placement);

@@ -38,6 +38,9 @@ CLI::App* add_plan_command(CLI::App& app, PlanArgs& a) {
   plan->add_option("--report", a.report, "write the JSON report to FILE ('-' for standard output)");
   add_seed_option(plan, a.seed);
   plan->add_flag("--measure", a.measure, "end with a measurement of every register qubit");
+  plan->add_flag("--no-peephole", a.no_peephole,
+                 "write the native gates as decomposed, without the peephole pass (which removes adjacent h h, x x, "
+                 "cx cx and cz cz pairs, merges adjacent rz and drops zero rotations)");
   plan->add_flag("--explain", a.explain, "print the chains considered and the degrees scored");
   plan->add_flag("--quiet,-q", a.quiet, "print no summary (it goes to standard output, or to standard error when a file does)");
   plan->add_option("--time-limit", a.time_limit,
@@ -89,6 +92,7 @@ int run_plan(const PlanArgs& a) {
   settings.end_order = a.end_order;
   settings.network = a.network;
   settings.measure = a.measure;
+  settings.peephole = !a.no_peephole;
   const QasmVersion version = parse_qasm_version(a.format);
   settings.format = version;
   PlanOptions opt = plan_options(settings);

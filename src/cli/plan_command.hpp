@@ -24,6 +24,7 @@ struct PlanArgs {
   std::string report;
   std::uint64_t seed = 1;
   bool measure = false;
+  bool no_peephole = false;
   bool explain = false;
   bool quiet = false;
   std::string time_limit;

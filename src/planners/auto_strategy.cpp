@@ -95,7 +95,7 @@ PreparedPlan prepare_auto(const Device& device, const PlanOptions& options) {
   if (prepared.size() > 1) {
     for (std::size_t i = 0; i < prepared.size(); ++i) {
       PreparedPlan& p = prepared[i].plan;
-      const CountSettings settings{p.gates, options.measure, options.format, options.budget};
+      const CountSettings settings = count_settings(options, p.gates);
       const auto f = std::make_shared<const CircuitFigures>(count_circuit(device, *p.circuit, settings, nullptr));
       StrategyOutcome& o = outcomes[prepared[i].outcome];
       fill_figures(o, *f);

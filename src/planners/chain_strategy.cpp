@@ -58,7 +58,7 @@ long long blocks_of(int n) { return static_cast<long long>(n) * (n - 1) / 2; }
 double counted_log_esp_total(const Device& device, const QftSpec& spec, const PlanOptions& options,
                              const std::vector<int>& chain) {
   const auto circuit = make_line_circuit(spec, choose_network(spec, options.end_order, options.network), chain);
-  const CountSettings settings{gate_set_of(device.native_2q()), options.measure, options.format, options.budget};
+  const CountSettings settings = count_settings(options, gate_set_of(device.native_2q()));
   return count_circuit(device, *circuit, settings, nullptr).noise.log_esp_total;
 }
 
@@ -158,7 +158,7 @@ NetworkChoice network_by_objective(const Device& device, const QftSpec& spec, co
   if (options.network != NetworkChoice::automatic || options.placement || blocks_of(spec.qubits) > kMaxCountedBlocks ||
       spec.qubits < 3)
     return options.network;
-  const CountSettings settings{gate_set_of(device.native_2q()), options.measure, options.format, options.budget};
+  const CountSettings settings = count_settings(options, gate_set_of(device.native_2q()));
   NetworkChoice best = NetworkChoice::automatic;
   StrategyOutcome best_figures;
   for (NetworkChoice c : {NetworkChoice::automatic, NetworkChoice::parity, NetworkChoice::anchored, NetworkChoice::leapfrog}) {

@@ -6,6 +6,7 @@
 
 #include "qftplan/core/run_budget.hpp"
 #include "qftplan/sinks/circuit_metrics.hpp"
+#include "qftplan/sinks/peephole.hpp"
 
 namespace qftplan {
 
@@ -14,34 +15,54 @@ CircuitFigures count_circuit(const Device& device, const PlannedCircuit& circuit
   const int D = device.qubit_count();
   const TwoQubitGate native_gate = device.native_2q();
   const bool emitted_is_native = settings.gates == gate_set_of(native_gate);
+  // The peephole pass rewrites native streams only (the logical gate set is written as planned).
+  const bool peephole = settings.peephole && settings.gates != GateSet::logical;
 
   // Sinks: the fused stream feeds the logical counters (which also count the depth the blocks
-  // would have unfused) and, replayed as native programs, the native counters and the noise model
-  // (the native gates themselves are made only for a writer of them). The emitted circuit is the
-  // native one when the gate set is native, so then those counters serve both; otherwise a second
-  // path rewrites the stream into the emitted gate set.
+  // would have unfused) and the native counters and the noise model. Without the peephole pass the
+  // native gates are replayed as per-kind programs (the native gates themselves are made only for a
+  // writer of them); with it, NativePeephole holds logical gates whole where the pass cannot touch
+  // them (replayed as programs when they leave) and opens them into native gates where it can, and
+  // the counters see what is left; a writer of the native gates is fed by it, so that the counts are
+  // those of the file. The emitted circuit is the native one when the gate set is native, so then
+  // those counters (and that pass) serve both; otherwise a second path rewrites the stream into the
+  // emitted gate set (through a gate-level PeepholePass of its own).
   MetricsSink logical(D, /*unfused_depth=*/true), native(D);
   std::optional<MetricsSink> emitted_counter;
   if (!emitted_is_native) emitted_counter.emplace(D);
   NoiseSink noise(device, circuit.maps().placement);
-  NativeReplay to_native(native_gate, native, noise);
   std::vector<GateSink*> emitted_targets;
   if (emitted_counter) emitted_targets.push_back(&*emitted_counter);
   if (output) emitted_targets.push_back(output);
-  std::unique_ptr<GateSink> emit_path, written_form;
   TeeSink emitted_tee(emitted_targets);
+
+  std::unique_ptr<GateSink> to_native, emit_path, written_form;
+  std::unique_ptr<PeepholePass> emitted_pass;
+  NativePeephole* native_pass = nullptr;
+  if (peephole) {
+    auto p = std::make_unique<NativePeephole>(native_gate, D, native, noise, emitted_is_native ? output : nullptr);
+    native_pass = p.get();
+    to_native = std::move(p);
+  } else {
+    to_native = std::make_unique<NativeReplay>(native_gate, native, noise);
+  }
   if (emitted_is_native) {
-    if (output) emit_path = std::make_unique<NativeDecomposer>(native_gate, emitted_tee);
+    if (output && !peephole) emit_path = std::make_unique<NativeDecomposer>(native_gate, emitted_tee);
   } else if (settings.gates == GateSet::logical) {
     // The file's own spelling of the logical gates decides what is counted (OpenQASM 2: swap as cx).
     written_form = as_written(settings.format, emitted_tee);
     emit_path = std::make_unique<FusedBlockSplitter>(written_form ? *written_form : emitted_tee);
   } else {
-    emit_path = std::make_unique<NativeDecomposer>(
-        settings.gates == GateSet::cz ? TwoQubitGate::cz : TwoQubitGate::cx, emitted_tee);
+    GateSink* into = &emitted_tee;
+    if (peephole) {
+      emitted_pass = std::make_unique<PeepholePass>(D, emitted_tee);
+      into = emitted_pass.get();
+    }
+    emit_path = std::make_unique<NativeDecomposer>(settings.gates == GateSet::cz ? TwoQubitGate::cz : TwoQubitGate::cx,
+                                                   *into);
   }
   MetricsSink& emitted = emitted_counter ? *emitted_counter : native;
-  std::vector<GateSink*> top{&logical, &to_native};
+  std::vector<GateSink*> top{&logical, to_native.get()};
   if (emit_path) top.push_back(emit_path.get());
   // Ctrl-C stops a long stream (every 4096 gates; the deadline is not checked: this is no search).
   InterruptCheckSink interrupt(settings.budget, nullptr);
@@ -66,6 +87,9 @@ CircuitFigures count_circuit(const Device& device, const PlannedCircuit& circuit
   f.gate_counts = emitted.counts_by_name();
   rename_as_written(settings.format, f.gate_counts);
   f.noise = noise.figures();
+  // The pass of the written circuit: the native one when the emitted gate set is native.
+  if (emitted_pass) f.peephole_removed = emitted_pass->removed();
+  else if (native_pass) f.peephole_removed = native_pass->removed();
   return f;
 }
 

@@ -40,7 +40,9 @@ PreparedPlan prepare_cover(const Device& device, const PlanOptions& options) {
   const CoverRegion region = cover_region(device, plan.spec.qubits, options.search.seed, options.budget);
   if (options.auto_approx) {
     // Each degree is scored on the circuit it gives (the walks do not depend on the degree).
-    choose_degree_by_counting(device, plan, false, [&](const QftSpec& s) {
+    CountSettings count = count_settings(options, gate_set_of(device.native_2q()));
+    count.measure = false;
+    choose_degree_by_counting(device, plan, count, [&](const QftSpec& s) {
       return make_gate_list_circuit(s, cheapest_cascade(device, s, region, options), "cover");
     });
   }

@@ -57,12 +57,12 @@ DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCo
   return out;
 }
 
-void choose_degree_by_counting(const Device& device, PreparedPlan& plan, bool measure,
+void choose_degree_by_counting(const Device& device, PreparedPlan& plan, const CountSettings& settings,
                                const std::function<std::shared_ptr<const PlannedCircuit>(const QftSpec&)>& make) {
   const auto cost = [&](std::optional<int> degree) {
     QftSpec s = plan.spec;
     s.approx_degree = degree;
-    const CircuitFigures f = count_circuit(device, *make(s), {gate_set_of(device.native_2q()), measure}, nullptr);
+    const CircuitFigures f = count_circuit(device, *make(s), settings, nullptr);
     return DegreeCost{f.noise.log_esp_total, f.cx_count};
   };
   bool cut = false;

@@ -49,6 +49,7 @@ PlanReport assemble_report(const Device& device, const PlanOptions& options, con
   r.cx_count = f.cx_count;
   r.cx_depth = f.cx_depth;
   r.gate_counts = f.gate_counts;
+  r.peephole_removed = f.peephole_removed;
   r.noise = f.noise;
   r.calibrated = device.has_calibration();
   r.measured = options.measure;
@@ -83,8 +84,7 @@ PlanReport execute_plan(const Device& device, const PlanOptions& options, const 
   // --strategy auto already streamed this plan through the counters while choosing it.
   const CircuitFigures f = !output && plan.counted
                                ? *plan.counted
-                               : count_circuit(device, *plan.circuit,
-                                               {plan.gates, options.measure, options.format, options.budget}, output);
+                               : count_circuit(device, *plan.circuit, count_settings(options, plan.gates), output);
   PlanReport r = assemble_report(device, options, plan, f);
   r.elapsed_ms = std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - t0).count();
   return r;

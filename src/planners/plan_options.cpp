@@ -86,6 +86,7 @@ PlanOptions plan_options(const PlanSettings& s) {
   opt.network = parse_network_choice(s.network);
   opt.measure = s.measure;
   opt.format = s.format;
+  opt.peephole = s.peephole;
   return opt;
 }
 
@@ -149,6 +150,16 @@ PreparedPlan start_plan(const Device& device, const PlanOptions& options, const 
   plan.strategy = strategy;
   plan.gates = options.gates.value_or(gate_set_of(device.native_2q()));
   return plan;
+}
+
+CountSettings count_settings(const PlanOptions& options, GateSet gates) {
+  CountSettings c;
+  c.gates = gates;
+  c.measure = options.measure;
+  c.format = options.format;
+  c.budget = options.budget;
+  c.peephole = options.peephole;
+  return c;
 }
 
 bool better_by_objective(const StrategyOutcome& a, const StrategyOutcome& b, Objective objective) {

@@ -15,7 +15,9 @@ PreparedPlan prepare_routed(const Device& device, const PlanOptions& options) {
   if (!ro.budget) ro.budget = options.budget;
   if (options.auto_approx) {
     // Each degree is scored by routing it and streaming the gate list through the counters.
-    choose_degree_by_counting(device, plan, false,
+    CountSettings count = count_settings(options, gate_set_of(device.native_2q()));
+    count.measure = false;
+    choose_degree_by_counting(device, plan, count,
                               [&](const QftSpec& s) { return make_gate_list_circuit(s, route_qft(device, s, ro)); });
   }
   RoutedCircuit routed = route_qft(device, plan.spec, ro);

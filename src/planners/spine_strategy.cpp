@@ -44,7 +44,7 @@ PreparedPlan prepare_spine(const Device& device, const PlanOptions& options) {
   // Each degree is scored by streaming its spine plan through the counters.
   PreparedPlan scored;
   scored.spec = spec;
-  choose_degree_by_counting(device, scored, options.measure,
+  choose_degree_by_counting(device, scored, count_settings(options, gate_set_of(device.native_2q())),
                             [&](const QftSpec& s) { return spine_plan(device, options, layout, s).circuit; });
   PreparedPlan plan = spine_plan(device, options, layout, scored.spec);
   plan.degree_choice = scored.degree_choice;

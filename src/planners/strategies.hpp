@@ -26,6 +26,10 @@ bool uniform_errors(const Device& device);
 /// --approx auto, validated) and the emitted gate set.
 PreparedPlan start_plan(const Device& device, const PlanOptions& options, const char* strategy);
 
+/// The settings of a count of a circuit planned with `options`, emitted in `gates` (every count made while
+/// planning and reporting is built here, so that all of them see the same measurement, format and pass).
+CountSettings count_settings(const PlanOptions& options, GateSet gates);
+
 /// Whether figures `a` beat `b` by `objective`: the one comparison of every choice made by the objective
 /// (strategies, chain networks). Lexicographic: esp_total (higher), native two-qubit depth, schedule
 /// duration or native two-qubit gates (lower) first, ties broken by the other figures.
@@ -60,9 +64,9 @@ DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCo
                            bool* cut);
 
 /// choose_degree for a strategy that builds its whole circuit per degree: `make(spec)` gives the circuit,
-/// scored by streaming it through the counters (with the final measurement when `measure`). Sets
+/// scored by streaming it through the counters with `settings` (its gate set: the device's native one). Sets
 /// plan.degree_choice and plan.spec's degree, and notes a cut.
-void choose_degree_by_counting(const Device& device, PreparedPlan& plan, bool measure,
+void choose_degree_by_counting(const Device& device, PreparedPlan& plan, const CountSettings& settings,
                                const std::function<std::shared_ptr<const PlannedCircuit>(const QftSpec&)>& make);
 
 }  // namespace qftplan

@@ -45,6 +45,7 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
   j["cx_bound"] = r.cx_bound ? nlohmann::ordered_json(*r.cx_bound) : nlohmann::ordered_json(nullptr);
   j["cx_bound_ratio"] = r.cx_bound_ratio ? nlohmann::ordered_json(*r.cx_bound_ratio) : nlohmann::ordered_json(nullptr);
   j["gate_counts"] = r.gate_counts;
+  j["peephole_removed"] = r.peephole_removed ? nlohmann::ordered_json(*r.peephole_removed) : nlohmann::ordered_json(nullptr);
   j["esp"] = r.noise.esp;
   j["log_esp"] = r.noise.log_esp;
   j["esp_idle"] = r.noise.esp_idle;

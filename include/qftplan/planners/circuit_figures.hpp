@@ -5,6 +5,7 @@
 /// and to score candidates while planning.
 
 #include <map>
+#include <optional>
 #include <string>
 
 #include "qftplan/device/device.hpp"
@@ -23,6 +24,7 @@ struct CountSettings {
   bool measure = false;                    ///< end with a measurement of every register qubit
   QasmVersion format = QasmVersion::v3;    ///< counts and depth of the emitted gates as this format spells them
   const RunBudget* budget = nullptr;       ///< Ctrl-C stops the stream (the deadline is not checked)
+  bool peephole = true;                    ///< native gate sets: the peephole pass (sinks/peephole.hpp) on the stream
 };
 
 /// The figures of one streamed circuit (PlanReport documents each).
@@ -36,6 +38,7 @@ struct CircuitFigures {
   long long cx_count = 0;                    ///< native two-qubit gates
   long long cx_depth = 0;
   std::map<std::string, long long> gate_counts;  ///< of the emitted gates, by their names in the file
+  std::optional<long long> peephole_removed;  ///< gates the peephole pass took out of the emitted circuit; absent: no pass
   NoiseFigures noise;
 };
 

@@ -56,6 +56,7 @@ struct PlanOptions {
   RoutingOptions routing;                        ///< settings of the routed strategy
   EndOrder end_order = EndOrder::free;           ///< same: SWAPs at the end make final_placement == placement
   NetworkChoice network = NetworkChoice::automatic;  ///< chain network of the chain and spine strategies
+  bool peephole = true;                          ///< the peephole pass on native output (sinks/peephole.hpp)
 };
 
 /// The settings of one plan as the front ends (command line, Python, surveys, fuzzers, benchmarks) take
@@ -75,6 +76,7 @@ struct PlanSettings {
   std::string end_order = "free";
   std::string network = "auto";
   QasmVersion format = QasmVersion::v3;
+  bool peephole = true;                          ///< the peephole pass on native output (off: the gates as decomposed)
 };
 
 /// PlanOptions for `settings`; InputError naming the setting for a value out of range or unknown.
@@ -165,6 +167,7 @@ struct PlanReport {
   long long cx_count = 0;
   long long cx_depth = 0;
   std::map<std::string, long long> gate_counts;
+  std::optional<long long> peephole_removed;  ///< gates the peephole pass removed from the written circuit; absent: no pass
   long long output_bytes = 0;
   double elapsed_ms = 0;
   NoiseFigures noise;
