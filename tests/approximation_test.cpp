@@ -239,3 +239,34 @@ TEST(ApproxFigures, DegreeThatDropsNothingIsExact) {
 
 }  // namespace
 }  // namespace qftplan
+
+namespace qftplan {
+namespace {
+
+// Issue 19's target: on line:64 with error_2q 0.01, the automatic degree's score (esp_total x
+// readout_success, the quantity --approx auto maximises) within 1% of the best over every pinned degree
+// (each planned as the default request would, --strategy auto).
+TEST(ApproxAuto, AutomaticDegreeWithinOnePercentOfEveryPinnedDegree) {
+  DeviceDescription d = make_line(64).description();
+  d.name = "line-64-noisy";
+  d.calibration.error_2q = 0.01;
+  const Device dev(d);
+  const auto score = [&](const PlanReport& r) { return r.noise.log_esp_total + r.approx.log_readout_success; };
+  PlanOptions opt;
+  opt.spec.qubits = 64;
+  opt.auto_approx = true;
+  const PlanReport chosen = plan_qft(dev, opt);
+  double best = -INFINITY;
+  int best_degree = 0;
+  for (int m = 1; m <= 64; ++m) {
+    PlanOptions pinned;
+    pinned.spec.qubits = 64;
+    pinned.spec.approx_degree = m;  // 64: exact
+    const double s = score(plan_qft(dev, pinned));
+    if (s > best) best = s, best_degree = m;
+  }
+  EXPECT_GE(score(chosen), best + std::log(0.99)) << "best pinned degree " << best_degree;
+}
+
+}  // namespace
+}  // namespace qftplan
