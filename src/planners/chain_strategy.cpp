@@ -52,6 +52,9 @@ constexpr long long kMaxScoredBlocks = 4'000'000;
 // search's (gates exact, idling by its lower bound).
 constexpr long long kMaxCountedBlocks = 500'000;
 
+// Largest network (in blocks) on which --network auto counts every chain network (per degree too).
+constexpr long long kMaxNetworkScoredBlocks = 50'000;
+
 long long blocks_of(int n) { return static_cast<long long>(n) * (n - 1) / 2; }
 
 // ln esp_total of the plan on `chain`, counted exactly by the noise model.
@@ -62,9 +65,38 @@ double counted_log_esp_total(const Device& device, const QftSpec& spec, const Pl
   return count_circuit(device, *circuit, settings, nullptr).noise.log_esp_total;
 }
 
-// The degree choice on a chain: esp_total counted exactly on small registers; above that, uniform
-// errors give the ESP from the numbers of gates (no dry run of the whole network), and otherwise the
-// network's loads on the chain score it.
+// --network auto: of the chain networks that apply, the best on `chain` by the objective, each counted
+// exactly (small registers only; above, and with a pinned placement, whose chain depends on the
+// network, the fewest native two-qubit gates as choose_network() decides).
+NetworkChoice network_by_objective(const Device& device, const QftSpec& spec, const PlanOptions& options,
+                                   const std::vector<int>& chain) {
+  if (options.network != NetworkChoice::automatic || options.placement || blocks_of(spec.qubits) > kMaxNetworkScoredBlocks ||
+      spec.qubits < 3)
+    return options.network;
+  const CountSettings settings = count_settings(options, gate_set_of(device.native_2q()));
+  NetworkChoice best = NetworkChoice::automatic;
+  StrategyOutcome best_figures;
+  for (NetworkChoice c : {NetworkChoice::automatic, NetworkChoice::parity, NetworkChoice::anchored, NetworkChoice::leapfrog}) {
+    std::shared_ptr<const QftNetwork> net;
+    try {
+      net = choose_network(spec, options.end_order, c);
+    } catch (const InputError&) {
+      continue;  // a network that does not apply to this spec (leapfrog for the exact QFT)
+    }
+    StrategyOutcome o;
+    fill_figures(o, count_circuit(device, *make_line_circuit(spec, std::move(net), chain), settings, nullptr));
+    // The automatic choice comes first and keeps ties.
+    if (c == NetworkChoice::automatic || better_by_objective(o, best_figures, options.objective)) {
+      best = c;
+      best_figures = o;
+    }
+  }
+  return best;
+}
+
+// The degree choice on a chain: esp_total counted exactly on small registers, each degree with the network
+// --network auto would choose for it; above that, uniform errors give the ESP from the numbers of gates (no
+// dry run of the whole network), and otherwise the network's loads on the chain score it.
 DegreeChoice choose_chain_degree(const Device& device, const QftSpec& base, const std::vector<int>& chain,
                                  const PlanOptions& options, bool* cut) {
   const bool uniform = uniform_errors(device);
@@ -72,10 +104,12 @@ DegreeChoice choose_chain_degree(const Device& device, const QftSpec& base, cons
   const auto cost = [&](std::optional<int> degree) {
     QftSpec spec = base;
     spec.approx_degree = degree;
-    const auto net = choose_network(spec, options.end_order, options.network);
+    PlanOptions chosen = options;
+    chosen.network = network_by_objective(device, spec, options, chain);
+    const auto net = choose_network(spec, options.end_order, chosen.network);
     DegreeCost c;
     if (blocks_of(n) <= kMaxCountedBlocks)
-      c.log_esp = counted_log_esp_total(device, spec, options, chain);
+      c.log_esp = counted_log_esp_total(device, spec, chosen, chain);
     else
       c.log_esp = uniform ? uniform_log_esp(device, *net, device.native_2q())
                           : chain_log_esp(device, chain_loads_with_idling(device, spec, *net, options.measure, options.budget),
@@ -148,35 +182,6 @@ bool choose_chain(const Device& device, const PlanOptions& options, PreparedPlan
   changed = !plan.placement.best.empty() && plan.placement.best.front().chain != chain;
   if (!plan.placement.best.empty()) chain = plan.placement.best.front().chain;
   return true;
-}
-
-// --network auto: of the chain networks that apply, the best on `chain` by the objective, each counted
-// exactly (small registers only; above, and with a pinned placement, whose chain depends on the
-// network, the fewest native two-qubit gates as choose_network() decides).
-NetworkChoice network_by_objective(const Device& device, const QftSpec& spec, const PlanOptions& options,
-                                   const std::vector<int>& chain) {
-  if (options.network != NetworkChoice::automatic || options.placement || blocks_of(spec.qubits) > kMaxCountedBlocks ||
-      spec.qubits < 3)
-    return options.network;
-  const CountSettings settings = count_settings(options, gate_set_of(device.native_2q()));
-  NetworkChoice best = NetworkChoice::automatic;
-  StrategyOutcome best_figures;
-  for (NetworkChoice c : {NetworkChoice::automatic, NetworkChoice::parity, NetworkChoice::anchored, NetworkChoice::leapfrog}) {
-    std::shared_ptr<const QftNetwork> net;
-    try {
-      net = choose_network(spec, options.end_order, c);
-    } catch (const InputError&) {
-      continue;  // a network that does not apply to this spec (leapfrog for the exact QFT)
-    }
-    StrategyOutcome o;
-    fill_figures(o, count_circuit(device, *make_line_circuit(spec, std::move(net), chain), settings, nullptr));
-    // The automatic choice comes first and keeps ties.
-    if (c == NetworkChoice::automatic || better_by_objective(o, best_figures, options.objective)) {
-      best = c;
-      best_figures = o;
-    }
-  }
-  return best;
 }
 
 }  // namespace
