@@ -27,7 +27,7 @@ bool same_group(const SurveyRow& a, const SurveyRow& b) {
 std::string format_survey_table(const std::vector<SurveyRow>& rows, SurveyTiming timing) {
   std::vector<Column> cols = {{"n"},        {"device", false}, {"plan", false}, {"degree"},   {"swaps"},
                               {"blocks"},   {"/bound"},        {"depth_2q"},    {"/bound"},   {"cx"},
-                              {"cx_depth"}, {"esp"}};
+                              {"cx_depth"}, {"esp_total"}};
   if (timing == SurveyTiming::include) cols.push_back({"ms"});
   const std::size_t failed_from = 2;  // a failed run's reason starts in the "plan" column
 
@@ -49,7 +49,7 @@ std::string format_survey_table(const std::vector<SurveyRow>& rows, SurveyTiming
     c.push_back(r.depth_2q_ratio ? fmt::format("x{:.2f}", *r.depth_2q_ratio) : std::string("-"));
     c.push_back(std::to_string(r.cx_count));
     c.push_back(std::to_string(r.cx_depth));
-    c.push_back(r.esp ? fmt::format("{:.3g}", *r.esp) : std::string("-"));
+    c.push_back(r.esp_total ? fmt::format("{:.3g}", *r.esp_total) : std::string("-"));
     if (timing == SurveyTiming::include) c.push_back(r.elapsed_ms ? fmt::format("{:.1f}", *r.elapsed_ms) : std::string("-"));
     cells.push_back(std::move(c));
   }
