@@ -23,7 +23,7 @@ CircuitFigures count_circuit(const Device& device, const PlannedCircuit& circuit
   MetricsSink logical(D, /*unfused_depth=*/true), native(D);
   std::optional<MetricsSink> emitted_counter;
   if (!emitted_is_native) emitted_counter.emplace(D);
-  NoiseSink noise(device, circuit.maps().placement);
+  NoiseSink noise(device, circuit.maps().placement, circuit.measures_itself());
   NativeReplay to_native(native_gate, native, noise);
   std::vector<GateSink*> emitted_targets;
   if (emitted_counter) emitted_targets.push_back(&*emitted_counter);
@@ -49,7 +49,7 @@ CircuitFigures count_circuit(const Device& device, const PlannedCircuit& circuit
   TeeSink all(top);
 
   circuit.emit(all);
-  if (settings.measure)
+  if (settings.measure && !circuit.measures_itself())
     for (int k = 0; k < circuit.spec().qubits; ++k)
       all.gate(make_gate(GateKind::measure, circuit.maps().final_placement[k], k));
   all.finish();
