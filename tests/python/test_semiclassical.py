@@ -119,3 +119,60 @@ def test_surveys_take_the_same_setting(qftplan, tmp_path):
     status, out, _ = run_cli("survey", chip, "--qubits", "3", "--inverse", "--measure", "--readout", "semiclassical",
                              "--csv", "-", "--no-timing")
     assert status == 0 and "semiclassical" in out
+
+
+@pytest.mark.parametrize("chip", ["harbor-line-12", "dyn"])
+@pytest.mark.parametrize("n", [2, 5, 8])
+def test_esp_figures_recounted_from_the_file(qftplan, tmp_path, chip, n):
+    # noise_sim schedules the file itself from README "What the numbers mean" (dynamic circuits) and the
+    # YAML read by PyYAML; the report's figures must be its products.
+    import noise_sim
+    from conftest import TOPOLOGIES
+    path = str(TOPOLOGIES / "harbor-line-12.yaml") if chip == "harbor-line-12" else dynamic_chip(tmp_path)
+    plan = qftplan.plan(path, n, inverse=True, measure=True, readout="semiclassical")
+    ops, _ = parse_dynamic(plan.qasm)
+    cal = noise_sim.Calibration(path)
+    events, end, measured = noise_sim.schedule_dynamic(ops, cal, plan.placement)
+    gates, idle, readout = noise_sim.no_error_probability(events, cal, measured)
+    r = plan.report
+    assert gates == pytest.approx(r["esp"], rel=1e-9)
+    assert idle == pytest.approx(r["esp_idle"], rel=1e-9)
+    assert readout == pytest.approx(r["esp_readout"], rel=1e-9)
+    assert gates * idle * readout == pytest.approx(r["esp_total"], rel=1e-9)
+    assert end == pytest.approx(r["duration_ns"], rel=1e-12)
+    assert sum(e[2] for e in events if e[0] == "idle") == pytest.approx(r["idle_ns"], rel=1e-12)
+
+
+@pytest.mark.parametrize("n", [2, 3, 4])
+def test_noisy_simulation_stays_within_esp_total(qftplan, n):
+    # The noisy simulation of noise_sim (Pauli channels after gates, the twirled T1/T2 channel on the idle
+    # intervals, readout flips that the later phases also read) of the semi-classical plan on
+    # harbor-line-12: the noise model is a mixture "no error with probability esp_total, else anything",
+    # so the outcome distribution is within total variation 1 - esp_total of the ideal one, and phase
+    # estimation of an exact phase succeeds with probability at least esp_total.
+    import noise_sim
+    from conftest import TOPOLOGIES
+    path = str(TOPOLOGIES / "harbor-line-12.yaml")
+    plan = qftplan.plan(path, n, inverse=True, measure=True, readout="semiclassical")
+    ops, _ = parse_dynamic(plan.qasm)
+    cal = noise_sim.Calibration(path)
+    events, _, _ = noise_sim.schedule_dynamic(ops, cal, plan.placement)
+    esp_total = plan.report["esp_total"]
+    dim = 2 ** n
+    for j in (1, dim - 1):
+        state = phase_state(n, j / dim)
+        noisy = noise_sim.simulate_dynamic(events, cal, plan.placement, state)
+        ideal = np.abs(np.fft.fft(state) / math.sqrt(dim)) ** 2
+        assert noisy.sum() == pytest.approx(1, abs=1e-9)
+        assert 0.5 * np.abs(noisy - ideal).sum() <= 1 - esp_total + 1e-12
+        assert noisy[j] >= esp_total - 1e-12
+        # And not vacuous: the errors do change the outcome.
+        assert noisy[j] < 1 - 1e-4
+    # With every error off the same simulation is the ideal distribution.
+    clean = noise_sim.Calibration(path)
+    clean.default = dict(clean.default, error_1q=0.0, error_readout=0.0, t1_us=math.inf, t2_us=math.inf)
+    clean.qubit = {}
+    events, _, _ = noise_sim.schedule_dynamic(ops, clean, plan.placement)
+    state = phase_state(n, 0.3141)
+    assert np.allclose(noise_sim.simulate_dynamic(events, clean, plan.placement, state),
+                       np.abs(np.fft.fft(state) / math.sqrt(dim)) ** 2, atol=1e-9)
