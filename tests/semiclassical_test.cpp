@@ -296,9 +296,9 @@ std::string move_line(const std::string& text, const std::string& what, const st
 }
 
 TEST(Semiclassical, CheckerRejectsMutatedFiles) {
-  const Device dev = parse_device_yaml(line_yaml(14, 300), "dyn.yaml");
-  // n = 5 (simulated too) and n = 14 (beyond the branch simulation: the structural proof alone).
-  for (int n : {5, 14}) {
+  const Device dev = parse_device_yaml(line_yaml(20, 300), "dyn.yaml");
+  // n = 5 (simulated too) and n = 20 (beyond any simulation: the structural proof alone).
+  for (int n : {5, 20}) {
     const Written w = write(dev, measured(n, true, "semiclassical"));
     const QftSpec spec = w.plan.spec;
     ASSERT_TRUE(check_text(dev, w.text, spec).ok);
@@ -329,6 +329,22 @@ TEST(Semiclassical, CheckerRejectsMutatedFiles) {
   const CheckResult r = check_text(dev, mutate(w.text, "c[1] = measure", "x " + q + ";\nc[1] = measure"), w.plan.spec);
   EXPECT_EQ(r.outcome, CheckOutcome::wrong) << r.message;
   EXPECT_NE(r.message.find("outcome"), std::string::npos) << r.message;
+}
+
+TEST(Semiclassical, LargerRegistersAreSimulatedWithTheMeasurementsDeferred) {
+  // 13 qubits: beyond the branch walk, within the checker's simulation limit (16): one state vector with
+  // each conditioned phase as the controlled phase with the measured qubit (Nielsen and Chuang, section
+  // 4.4, the principle of deferred measurement).
+  const Device dev = parse_device_yaml(line_yaml(13, 300), "dyn.yaml");
+  const Written w = write(dev, measured(13, true, "semiclassical", 4));
+  const CheckResult r = check_text(dev, w.text, w.plan.spec);
+  EXPECT_TRUE(r.ok && r.simulated) << r.message;
+  EXPECT_NE(r.message.find("simulated with the measurements deferred"), std::string::npos) << r.message;
+  // An x before a measurement: the structural proof loses track, the deferred simulation refutes.
+  const auto at = w.text.find("c[5] = measure ") + 15;
+  const std::string q = w.text.substr(at, w.text.find(';', at) - at);
+  const CheckResult bad = check_text(dev, mutate(w.text, "c[5] = measure", "x " + q + ";\nc[5] = measure"), w.plan.spec);
+  EXPECT_EQ(bad.outcome, CheckOutcome::wrong) << bad.message;
 }
 
 TEST(Semiclassical, TwoQubitGatesInASemiclassicalFileAreSimulated) {

@@ -17,8 +17,9 @@ bool is_semiclassical(const QasmProgram& program);
 /// The structural proof (any n): proved, wrong (a certain difference, with its line) or cannot_prove.
 CheckResult prove(const Device& device, const QasmProgram& program, const CheckRequest& request);
 
-/// Every measurement branch simulated (n <= kBranchLimit) on basis and random inputs; the outcome
-/// distribution compared with |reference_qft|^2.
+/// The outcome distribution simulated on basis and random inputs and compared with |reference_qft|^2:
+/// every measurement branch walked (n <= kBranchLimit), or beyond that (n <= request.statevector_limit)
+/// one state vector with the measurements deferred.
 statevector_check::SimOutcome simulate(const Device& device, const QasmProgram& program, const CheckRequest& request);
 
 /// Both, merged as check_qft_circuit merges its checks.
