@@ -11,6 +11,7 @@
 #include "qftplan/check/qft_checker.hpp"
 #include "qftplan/core/atomic_file.hpp"
 #include "qftplan/core/input_error.hpp"
+#include "qftplan/device/calibration_profile.hpp"
 #include "qftplan/device/device_yaml.hpp"
 #include "qftplan/device/lattices.hpp"
 #include "qftplan/planners/plan.hpp"
@@ -92,6 +93,17 @@ TEST(Semiclassical, DeviceKeysDeviceWideAndPerQubitRoundTrip) {
   } catch (const InputError& e) {
     EXPECT_NE(std::string(e.what()).find("'feed_forward_ns' must be a positive number of ns"), std::string::npos) << e.what();
   }
+}
+
+TEST(Semiclassical, CalibrationProfileGivesALatticeFeedForward) {
+  // A built-in lattice has no calibration; a profile with the two keys makes it offer feed-forward.
+  const Device plain = make_lattice("line:4");
+  const Device dyn = with_calibration_profile(
+      plain, parse_calibration_profile("feed_forward_ns: 250\nduration_readout_ns: 600\n", "p.yaml"));
+  EXPECT_EQ(dyn.qubit_calibration(2).feed_forward_ns, 250);
+  EXPECT_EQ(dyn.qubit_calibration(2).duration_readout_ns, 600);
+  EXPECT_THROW(prepare_plan(plain, measured(3, true, "semiclassical")), PlanningError);
+  EXPECT_EQ(prepare_plan(dyn, measured(3, true, "semiclassical")).strategy, "semiclassical");
 }
 
 // ----- the recipe -----
