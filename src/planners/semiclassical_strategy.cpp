@@ -133,7 +133,7 @@ PreparedPlan prepare_measured(const Device& device, const PlanOptions& options,
     return p;
   }
   // auto: the unitary plan, and the semi-classical one where the device offers feed-forward; the
-  // higher esp_total wins (ties to the unitary form, which needs no feed-forward).
+  // higher score wins (ties to the unitary form, which needs no feed-forward).
   const std::string missing = feed_forward_missing(device, options.spec.qubits, options.placement);
   std::optional<PreparedPlan> u;
   try {
@@ -153,7 +153,10 @@ PreparedPlan prepare_measured(const Device& device, const PlanOptions& options,
   choice.semiclassical_log_esp_total = counted_log_esp_total(device, options, s);
   if (u) choice.unitary_log_esp_total = counted_log_esp_total(device, options, *u);
   throw_if_interrupted(options.budget);
-  const bool semi = !u || *choice.semiclassical_log_esp_total > *choice.unitary_log_esp_total;
+  // The one score of every choice (plan_log_score): esp_total, times the readout success of the plan's
+  // degree, which differs only when --approx auto chose different degrees for the two forms.
+  const bool semi = !u || plan_log_score(*choice.semiclassical_log_esp_total, plan_log_readout_success(s)) >
+                              plan_log_score(*choice.unitary_log_esp_total, plan_log_readout_success(*u));
   choice.chosen = semi ? "semiclassical" : "unitary";
   choice.reason = !u ? "the unitary form cannot be planned" : "the higher esp_total";
   PreparedPlan& chosen = semi ? s : *u;
