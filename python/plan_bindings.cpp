@@ -48,7 +48,8 @@ struct Plan {
 Plan make_plan(const py::object& device, int qubits, const py::object& approx, bool inverse, const py::object& gates,
                const py::object& placement, std::uint64_t seed, bool measure, const std::string& end_order,
                const std::string& strategy, const std::string& objective, const py::object& format, bool circuit,
-               std::optional<double> time_limit, const std::string& network, bool peephole) {
+               std::optional<double> time_limit, const std::string& network, bool peephole,
+               const std::string& readout) {
   const auto t0 = std::chrono::steady_clock::now();
   Plan p;
   p.device = device_arg(device);
@@ -66,6 +67,7 @@ Plan make_plan(const py::object& device, int qubits, const py::object& approx, b
   settings.end_order = end_order;
   settings.measure = measure;
   settings.peephole = peephole;
+  settings.readout = readout;
   p.version = version_arg(format);
   settings.format = p.version;
   p.options = plan_options(settings);
@@ -102,6 +104,8 @@ py::object gate_tuple(const Gate& g) {
   py::tuple qubits = is_two_qubit(g.kind) ? py::make_tuple(g.q0, g.q1) : py::make_tuple(g.q0);
   py::object param = py::none();
   if (g.kind == GateKind::measure) param = py::int_(g.q1);
+  // A conditioned phase: (angle, bit) (name 'p_if').
+  else if (g.kind == GateKind::p_if) param = py::make_tuple(g.angle.radians(), g.q1);
   else if (has_angle(g.kind)) param = py::float_(g.angle.radians());
   return py::make_tuple(std::string(gate_name(g.kind)), qubits, param);
 }
@@ -154,7 +158,8 @@ void bind_plan(py::module_& m) {
           },
           "The emitted circuit as (name, qubits, parameter) tuples in the chosen gate set, the gates the\n"
           "OpenQASM text holds: name as in OpenQASM ('h', 'cp', 'swap', 'cx', 'rz', ...), qubits a tuple of\n"
-          "physical qubits, parameter the angle in radians (rz, p, cp), the bit (measure) or None. The text\n"
+          "physical qubits, parameter the angle in radians (rz, p, cp), the bit (measure), (angle, bit) for\n"
+          "a phase conditioned on a bit ('p_if') or None. The text\n"
           "keeps angles exact; these floats are rounded.")
       .def("summary", [](const Plan& p) { return format_plan_summary(p.report); },
            "The summary `qftplan plan` prints when it writes no file.")
@@ -170,6 +175,7 @@ void bind_plan(py::module_& m) {
         py::arg("seed") = 1, py::arg("measure") = false, py::arg("end_order") = "free", py::arg("strategy") = "auto",
         py::arg("objective") = "esp", py::arg("format") = "qasm3", py::arg("circuit") = true,
         py::arg("time_limit") = py::none(), py::arg("network") = "auto", py::arg("peephole") = true,
+        py::arg("readout") = "auto",
         "Plans a QFT of `qubits` qubits on `device` (a Device, a spec such as 'grid:4x4' or a YAML path),\n"
         "like `qftplan plan`:\n"
         "  approx      'none' (exact), an int degree M, or 'auto'\n"
@@ -178,6 +184,8 @@ void bind_plan(py::module_& m) {
         "  placement   physical qubit of each input bit: a list of ints or 'a,b,c'\n"
         "  seed        seed of every randomised search\n"
         "  measure     end with a measurement of every register qubit\n"
+        "  readout     with measure: 'unitary', 'semiclassical' (mid-circuit measurements, conditioned\n"
+        "              phases) or 'auto' (the higher esp_total where the device offers feed-forward)\n"
         "  end_order   'free' or 'same' (output bit k ends on the qubit that held input bit k)\n"
         "  strategy    a planning strategy name ('auto', 'chain', ...)\n"
         "  objective   what strategy 'auto' optimises: 'esp' (esp_total), 'depth' (native two-qubit depth),\n"

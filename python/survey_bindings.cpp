@@ -63,7 +63,7 @@ std::vector<bool> directions_arg(const py::object& inverse) {
 
 std::vector<SurveyRow> run(const py::object& devices, const py::object& qubits, const py::object& approx,
                            const py::object& inverse, const py::object& strategy, std::uint64_t seed, std::optional<int> jobs_arg,
-                           const py::object& calibration) {
+                           const py::object& calibration, bool measure, const std::string& readout) {
   SurveyRequest req;
   if (!calibration.is_none())
     req.calibration = load_calibration_profile(py::str(py::module_::import("os").attr("fspath")(calibration)));
@@ -80,6 +80,8 @@ std::vector<SurveyRow> run(const py::object& devices, const py::object& qubits, 
   // The same check and message as `qftplan survey`.
   check_strategy_names(req.strategies);
   req.seed = seed;
+  req.measure = measure;
+  req.readout = readout;
   // Like the command line: every core unless told otherwise.
   const int jobs = jobs_arg.value_or(default_survey_jobs());
   if (jobs < 1) throw InputError(fmt::format("jobs must be at least 1, got {}", jobs));
@@ -103,6 +105,7 @@ void bind_survey(py::module_& m) {
       "  seed      seed of every randomised search; jobs: worker threads (None: every core)\n"
       "  timing    include the wall-time column elapsed_ms (off: reproducible output)\n"
       "  calibration  a calibration profile file applied to every device (as --calibration)\n"
+      "  measure   every run ends in a measurement; readout: 'unitary', 'semiclassical' or 'auto' (as plan)\n"
       "Cases run in the command line's order (device, strategy, approx, direction, size); a case that\n"
       "cannot be planned is a row with status 'failed' and its reason.";
   static const std::string survey_doc = std::string("Runs a survey and returns its rows as dicts (the JSON-lines fields).\n") + args_doc;
@@ -111,26 +114,26 @@ void bind_survey(py::module_& m) {
       "survey",
       [](const py::object& devices, const py::object& qubits, const py::object& approx, const py::object& inverse,
          const py::object& strategy, std::uint64_t seed, std::optional<int> jobs, bool timing,
-         const py::object& calibration) {
-        const auto rows = run(devices, qubits, approx, inverse, strategy, seed, jobs, calibration);
+         const py::object& calibration, bool measure, const std::string& readout) {
+        const auto rows = run(devices, qubits, approx, inverse, strategy, seed, jobs, calibration, measure, readout);
         py::list out;
         for (const auto& r : rows) out.append(to_python(survey_row_to_json(r, timing_arg(timing))));
         return out;
       },
       py::arg("devices"), py::arg("qubits"), py::kw_only(), py::arg("approx") = "none", py::arg("inverse") = false,
       py::arg("strategy") = "auto", py::arg("seed") = 1, py::arg("jobs") = py::none(), py::arg("timing") = false,
-      py::arg("calibration") = py::none(), survey_doc.c_str());
+      py::arg("calibration") = py::none(), py::arg("measure") = false, py::arg("readout") = "auto", survey_doc.c_str());
   m.def(
       "survey_csv",
       [](const py::object& devices, const py::object& qubits, const py::object& approx, const py::object& inverse,
          const py::object& strategy, std::uint64_t seed, std::optional<int> jobs, bool timing,
-         const py::object& calibration) {
-        const auto rows = run(devices, qubits, approx, inverse, strategy, seed, jobs, calibration);
+         const py::object& calibration, bool measure, const std::string& readout) {
+        const auto rows = run(devices, qubits, approx, inverse, strategy, seed, jobs, calibration, measure, readout);
         return survey_csv(rows, timing_arg(timing));
       },
       py::arg("devices"), py::arg("qubits"), py::kw_only(), py::arg("approx") = "none", py::arg("inverse") = false,
       py::arg("strategy") = "auto", py::arg("seed") = 1, py::arg("jobs") = py::none(), py::arg("timing") = false,
-      py::arg("calibration") = py::none(), csv_doc.c_str());
+      py::arg("calibration") = py::none(), py::arg("measure") = false, py::arg("readout") = "auto", csv_doc.c_str());
 }
 
 }  // namespace qftplan::python

@@ -56,7 +56,7 @@ TEST(CalibrationProfile, ErrorsNameFileLineAndColumn) {
             "found a sequence");
   EXPECT_EQ(message_of("{}\n"),
             "p.yaml:1:1: the calibration profile sets nothing; give at least one of error_1q, error_2q, error_readout, "
-            "duration_1q_ns, duration_2q_ns, t1_us, t2_us");
+            "duration_1q_ns, duration_2q_ns, t1_us, t2_us, duration_readout_ns, feed_forward_ns");
   EXPECT_EQ(message_of(""), "p.yaml: the file is empty; expected a calibration profile such as {error_2q: 0.008}");
   EXPECT_EQ(message_of("error_2q: [0.01\n"), message_of("error_2q: [0.01\n"));  // stable
   EXPECT_NE(message_of("error_2q: [0.01\n").find("p.yaml:"), std::string::npos);

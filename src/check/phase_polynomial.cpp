@@ -36,6 +36,11 @@ void StructuralChecker::Impl::apply(const Gate& g, int line) {
       xor_into(g.q1, g.q0, line);
       return;
     case GateKind::measure: return;
+    case GateKind::p_if:
+      // A file read whole goes to the semi-classical proof (semiclassical_check.cpp); a streamed one
+      // (256 MiB and more) cannot be followed here.
+      cannot_prove("a phase conditioned on a measured bit is proved only in files read whole (below 256 MiB)", line);
+      return;
   }
 }
 

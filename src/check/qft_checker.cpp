@@ -14,6 +14,7 @@
 #include "qftplan/core/run_budget.hpp"
 #include "qftplan/qasm/qasm_program.hpp"
 #include "qftplan/qasm/qasm_writer.hpp"
+#include "semiclassical_check.hpp"
 #include "statevector_check.hpp"
 
 namespace qftplan {
@@ -214,6 +215,13 @@ CheckResult check_qft_circuit(const Device& device, const QasmProgram& program, 
 
   // a. Qubit ranges, couplers, and measurements only at the end of their qubit.
   if (auto f = coupler_failure(device, program)) return *f;
+
+  // Phases conditioned on measured bits: the semi-classical readout, proved by its own rules.
+  if (semiclassical_check::is_semiclassical(program)) {
+    if (program.inexact_angle)
+      return cannot_prove("cannot prove: " + program.inexact_angle->message, program.inexact_angle->line);
+    return semiclassical_check::check(device, program, request);
+  }
 
   // A rotation angle that is no multiple of pi/2^k: the QFT uses none, and neither check can follow
   // it exactly.

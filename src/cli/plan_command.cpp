@@ -64,6 +64,11 @@ CLI::App* add_plan_command(CLI::App& app, PlanArgs& a) {
                    "chain network: auto (of anchored, parity and leapfrog, the fewest native two-qubit gates), "
                    "reversal, anchored, leapfrog, or parity (n^2-1 CX for the exact QFT)")
       ->capture_default_str();
+  plan->add_option("--readout", a.readout,
+                   "with --measure: unitary (the transform, then a measurement), semiclassical (measure each qubit "
+                   "in turn, later phases conditioned on the outcomes: no two-qubit gate; needs feed_forward_ns) "
+                   "or auto (the higher esp_total where the device offers feed-forward)")
+      ->capture_default_str();
   // An empty --placement still counts as given, so presence is asked of the parser rather than read
   // from the text; the callback runs only when plan itself was parsed.
   plan->final_callback([plan, &a] { a.placement_given = plan->count("--placement") > 0; });
@@ -93,6 +98,7 @@ int run_plan(const PlanArgs& a) {
   settings.network = a.network;
   settings.measure = a.measure;
   settings.peephole = !a.no_peephole;
+  settings.readout = a.readout;
   const QasmVersion version = parse_qasm_version(a.format);
   settings.format = version;
   PlanOptions opt = plan_options(settings);

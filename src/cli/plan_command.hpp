@@ -33,6 +33,7 @@ struct PlanArgs {
   std::string objective = "esp";
   std::string end_order = "free";
   std::string network = "auto";
+  std::string readout = "auto";
   bool placement_given = false;  // --placement was on the command line (even empty)
 };
 

@@ -62,6 +62,9 @@ CLI::App* add_survey_command(CLI::App& app, SurveyArgs& a) {
   survey->add_option("--direction", a.direction, "forward, inverse or both (default: forward)");
   survey->add_option("--strategy", a.strategy, "planning strategies, comma-separated (see qftplan help plan)")
       ->capture_default_str();
+  survey->add_flag("--measure", a.measure, "every run ends with a measurement of every register qubit (as plan --measure)");
+  survey->add_option("--readout", a.readout, "with --measure: unitary, semiclassical or auto (as plan --readout)")
+      ->capture_default_str();
   survey->add_option("--jobs,-j", a.jobs, "threads (default: every core)");
   add_seed_option(survey, a.seed);
   survey->add_option("--shard", a.shard, "run only slice K of M (K/M, 1 <= K <= M): runs K-1, K-1+M, K-1+2M, ...");
@@ -87,6 +90,8 @@ int run_survey_command(const SurveyArgs& a) {
   req.strategies = parse_name_list(a.strategy, "--strategy");
   check_strategy_names(req.strategies);
   req.seed = a.seed;
+  req.measure = a.measure;
+  req.readout = a.readout;
   req.time_limit = parse_time_limit(a.time_limit);
   req.clock = BudgetClock::from_environment();
   req.interrupt = &g_interrupted;

@@ -30,6 +30,8 @@ struct SurveyArgs {
   std::string direction;
   bool inverse = false;
   std::string strategy = "auto";
+  bool measure = false;
+  std::string readout = "auto";
   int jobs = 0;
   std::uint64_t seed = 1;
   std::string shard;

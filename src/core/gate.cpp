@@ -16,6 +16,7 @@ std::string_view gate_name(GateKind k) {
     case GateKind::cp_swap: return "cp_swap";
     case GateKind::measure: return "measure";
     case GateKind::parity_step: return "parity_step";
+    case GateKind::p_if: return "p_if";
   }
   return "?";
 }

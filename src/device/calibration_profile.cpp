@@ -24,6 +24,8 @@ Device with_calibration_profile(const Device& device, const CalibrationProfile& 
   set(d.calibration.duration_2q_ns, p.duration_2q_ns);
   set(d.calibration.t1_us, p.t1_us);
   set(d.calibration.t2_us, p.t2_us);
+  set(d.calibration.duration_readout_ns, p.duration_readout_ns);
+  set(d.calibration.feed_forward_ns, p.feed_forward_ns);
   // The profile's value holds on every part: drop the per-part values of the quantities it sets.
   auto clear = [](std::optional<double>& part, const std::optional<double>& value) {
     if (value) part.reset();
@@ -34,10 +36,13 @@ Device with_calibration_profile(const Device& device, const CalibrationProfile& 
     clear(o.duration_1q_ns, p.duration_1q_ns);
     clear(o.t1_us, p.t1_us);
     clear(o.t2_us, p.t2_us);
+    clear(o.duration_readout_ns, p.duration_readout_ns);
+    clear(o.feed_forward_ns, p.feed_forward_ns);
   }
   // An entry left with nothing to say goes; one that disables its qubit stays.
   std::erase_if(d.qubit_calibration, [](const QubitOverride& o) {
-    return !o.disabled && !o.error_1q && !o.error_readout && !o.duration_1q_ns && !o.t1_us && !o.t2_us;
+    return !o.disabled && !o.error_1q && !o.error_readout && !o.duration_1q_ns && !o.t1_us && !o.t2_us &&
+           !o.duration_readout_ns && !o.feed_forward_ns;
   });
   for (auto& c : d.couplers) {
     clear(c.error, p.error_2q);

@@ -16,7 +16,8 @@ namespace qftplan {
 const char* two_qubit_gate_name(TwoQubitGate g) { return g == TwoQubitGate::cz ? "cz" : "cx"; }
 
 bool CalibrationValues::empty() const {
-  return !error_1q && !error_2q && !error_readout && !duration_1q_ns && !duration_2q_ns && !t1_us && !t2_us;
+  return !error_1q && !error_2q && !error_readout && !duration_1q_ns && !duration_2q_ns && !t1_us && !t2_us &&
+         !duration_readout_ns && !feed_forward_ns;
 }
 
 namespace {
@@ -57,6 +58,8 @@ Device::Device(DeviceDescription description) : d_(std::move(description)) {
   check_duration(d_.calibration.duration_2q_ns, "calibration.duration_2q_ns");
   check_lifetime(d_.calibration.t1_us, "calibration.t1_us");
   check_lifetime(d_.calibration.t2_us, "calibration.t2_us");
+  check_duration(d_.calibration.duration_readout_ns, "calibration.duration_readout_ns");
+  check_duration(d_.calibration.feed_forward_ns, "calibration.feed_forward_ns");
 
   std::vector<int> deg(n, 0);
   for (auto& c : d_.couplers) {
@@ -108,6 +111,8 @@ Device::Device(DeviceDescription description) : d_(std::move(description)) {
     check_duration(o.duration_1q_ns, what + ": duration_1q_ns");
     check_lifetime(o.t1_us, what + ": t1_us");
     check_lifetime(o.t2_us, what + ": t2_us");
+    check_duration(o.duration_readout_ns, what + ": duration_readout_ns");
+    check_duration(o.feed_forward_ns, what + ": feed_forward_ns");
   }
   // T2 <= 2 T1 for every qubit as applied: the overrides are indexed, so this is one pass.
   {
@@ -239,7 +244,8 @@ QubitCalibration Device::qubit_calibration(int q) const {
   const auto inf = std::numeric_limits<double>::infinity();
   const auto& c = d_.calibration;
   QubitCalibration out{c.error_1q.value_or(0.0), c.error_readout.value_or(0.0),
-                       c.duration_1q_ns.value_or(kDefaultDuration1qNs), c.t1_us.value_or(inf), c.t2_us.value_or(inf)};
+                       c.duration_1q_ns.value_or(kDefaultDuration1qNs), c.t1_us.value_or(inf), c.t2_us.value_or(inf),
+                       c.duration_readout_ns.value_or(kDefaultDurationReadoutNs), c.feed_forward_ns};
   if (const int i = override_of_[q]; i >= 0) {
     const auto& o = d_.qubit_calibration[i];
     if (o.error_1q) out.error_1q = *o.error_1q;
@@ -247,6 +253,8 @@ QubitCalibration Device::qubit_calibration(int q) const {
     if (o.duration_1q_ns) out.duration_1q_ns = *o.duration_1q_ns;
     if (o.t1_us) out.t1_us = *o.t1_us;
     if (o.t2_us) out.t2_us = *o.t2_us;
+    if (o.duration_readout_ns) out.duration_readout_ns = *o.duration_readout_ns;
+    if (o.feed_forward_ns) out.feed_forward_ns = o.feed_forward_ns;
   }
   return out;
 }

@@ -46,9 +46,11 @@ constexpr std::uintmax_t kMaxDeviceFileMiB = 128;
 const std::vector<std::string> kTopKeys = {"name",      "qubits",   "couplers", "calibration", "qubit_calibration",
                                            "positions", "native_2q"};
 const std::vector<std::string> kCalibrationKeys = {"error_1q",       "error_2q", "error_readout", "duration_1q_ns",
-                                                   "duration_2q_ns", "t1_us",    "t2_us"};
-const std::vector<std::string> kOverrideKeys = {"id",    "error_1q", "error_readout", "duration_1q_ns",
-                                               "t1_us", "t2_us",    "disabled"};
+                                                   "duration_2q_ns", "t1_us",    "t2_us",
+                                                   "duration_readout_ns", "feed_forward_ns"};
+const std::vector<std::string> kOverrideKeys = {"id",    "error_1q", "error_readout",       "duration_1q_ns",
+                                                "t1_us", "t2_us",    "duration_readout_ns", "feed_forward_ns",
+                                                "disabled"};
 const std::vector<std::string> kCouplerKeys = {"pair", "error", "duration_ns", "disabled"};
 const std::vector<std::string> kPositionKeys = {"id", "at"};
 
@@ -60,6 +62,8 @@ std::optional<double> CalibrationValues::*calibration_field(const std::string& k
   if (key == "duration_1q_ns") return &CalibrationValues::duration_1q_ns;
   if (key == "duration_2q_ns") return &CalibrationValues::duration_2q_ns;
   if (key == "t1_us") return &CalibrationValues::t1_us;
+  if (key == "duration_readout_ns") return &CalibrationValues::duration_readout_ns;
+  if (key == "feed_forward_ns") return &CalibrationValues::feed_forward_ns;
   return &CalibrationValues::t2_us;
 }
 
@@ -69,6 +73,8 @@ std::optional<double> QubitOverride::*override_field(const std::string& key) {
   if (key == "error_readout") return &QubitOverride::error_readout;
   if (key == "duration_1q_ns") return &QubitOverride::duration_1q_ns;
   if (key == "t1_us") return &QubitOverride::t1_us;
+  if (key == "duration_readout_ns") return &QubitOverride::duration_readout_ns;
+  if (key == "feed_forward_ns") return &QubitOverride::feed_forward_ns;
   return &QubitOverride::t2_us;
 }
 
@@ -227,10 +233,11 @@ class Reader {
     fail(p, fmt::format("'{}' must be true or false, got {}", e.key, describe(e.value)));
   }
 
-  /// A calibration value: error rates are probabilities, durations gate times, t1/t2 lifetimes.
+  /// A calibration value: error rates are probabilities, durations (and the feed-forward latency)
+  /// times in ns, t1/t2 lifetimes.
   double read_value(const Entry& e) {
     if (e.key.starts_with("error")) return read_rate(e);
-    if (e.key.starts_with("duration")) return read_duration(e);
+    if (e.key.starts_with("duration") || e.key == "feed_forward_ns") return read_duration(e);
     return read_lifetime(e);
   }
 

@@ -82,7 +82,9 @@ std::string device_to_yaml(const Device& device) {
                                                                            {"duration_1q_ns", &c.duration_1q_ns},
                                                                            {"duration_2q_ns", &c.duration_2q_ns},
                                                                            {"t1_us", &c.t1_us},
-                                                                           {"t2_us", &c.t2_us}};
+                                                                           {"t2_us", &c.t2_us},
+                                                                           {"duration_readout_ns", &c.duration_readout_ns},
+                                                                           {"feed_forward_ns", &c.feed_forward_ns}};
     for (const auto& [key, value] : fields)
       if (*value) out += fmt::format("  {}: {}\n", key, num(**value));
   }
@@ -95,7 +97,9 @@ std::string device_to_yaml(const Device& device) {
                                                                              {"error_readout", &o.error_readout},
                                                                              {"duration_1q_ns", &o.duration_1q_ns},
                                                                              {"t1_us", &o.t1_us},
-                                                                             {"t2_us", &o.t2_us}};
+                                                                             {"t2_us", &o.t2_us},
+                                                                             {"duration_readout_ns", &o.duration_readout_ns},
+                                                                             {"feed_forward_ns", &o.feed_forward_ns}};
       for (const auto& [key, value] : fields)
         if (*value) out += fmt::format(", {}: {}", key, num(**value));
       if (o.disabled) out += ", disabled: true";

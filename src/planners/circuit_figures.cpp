@@ -15,8 +15,10 @@ CircuitFigures count_circuit(const Device& device, const PlannedCircuit& circuit
   const int D = device.qubit_count();
   const TwoQubitGate native_gate = device.native_2q();
   const bool emitted_is_native = settings.gates == gate_set_of(native_gate);
-  // The peephole pass rewrites native streams only (the logical gate set is written as planned).
-  const bool peephole = settings.peephole && settings.gates != GateSet::logical;
+  // The peephole pass rewrites native streams only (the logical gate set is written as planned), and not
+  // circuits that measure as they go: it may move a gate past others on other qubits, and a conditioned
+  // phase must stay after the measurement of its bit (such circuits have no two-qubit gate to gain on).
+  const bool peephole = settings.peephole && settings.gates != GateSet::logical && !circuit.measures_itself();
 
   // Sinks: the fused stream feeds the logical counters (which also count the depth the blocks
   // would have unfused) and the native counters and the noise model. Without the peephole pass the
@@ -30,7 +32,7 @@ CircuitFigures count_circuit(const Device& device, const PlannedCircuit& circuit
   MetricsSink logical(D, /*unfused_depth=*/true), native(D);
   std::optional<MetricsSink> emitted_counter;
   if (!emitted_is_native) emitted_counter.emplace(D);
-  NoiseSink noise(device, circuit.maps().placement);
+  NoiseSink noise(device, circuit.maps().placement, circuit.measures_itself());
   std::vector<GateSink*> emitted_targets;
   if (emitted_counter) emitted_targets.push_back(&*emitted_counter);
   if (output) emitted_targets.push_back(output);
@@ -70,7 +72,7 @@ CircuitFigures count_circuit(const Device& device, const PlannedCircuit& circuit
   TeeSink all(top);
 
   circuit.emit(all);
-  if (settings.measure)
+  if (settings.measure && !circuit.measures_itself())
     for (int k = 0; k < circuit.spec().qubits; ++k)
       all.gate(make_gate(GateKind::measure, circuit.maps().final_placement[k], k));
   all.finish();

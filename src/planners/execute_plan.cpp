@@ -67,12 +67,16 @@ PlanReport assemble_report(const Device& device, const PlanOptions& options, con
   // form a chain of n-1 two-qubit gates that must run one after another (when d >= 1).
   r.lower_bound_blocks = plan.spec.kept_rotations();
   r.lower_bound_depth_2q = plan.spec.qubits >= 2 && plan.spec.max_distance() >= 1 ? plan.spec.qubits - 1 : 0;
+  // The semi-classical readout turns every rotation into a phase conditioned on a measured bit: it needs
+  // no two-qubit gate, and the bounds of the unitary transform do not apply.
+  if (plan.circuit->measures_itself()) r.lower_bound_blocks = r.lower_bound_depth_2q = 0;
   r.alternatives = plan.alternatives;
   fill_chosen_outcome(r);
   r.end_order = end_order_name(options.end_order);
   r.end_swaps = plan.end_swaps;
   r.seed = options.search.seed;
   r.cx_bound = plan.cx_bound;
+  r.readout = plan.readout;
   if (plan.cx_bound && *plan.cx_bound > 0) r.cx_bound_ratio = double(r.cx_count) / double(*plan.cx_bound);
   return r;
 }

@@ -44,7 +44,7 @@ class LoadSink final : public GateSink {
  public:
   LoadSink(TwoQubitGate native, ChainLoads& loads, const RunBudget* budget) : loads_(loads), budget_(budget) {
     for (int k = 0; k < kGateKindCount; ++k)
-      if (static_cast<GateKind>(k) != GateKind::measure) per_kind_[k] = kind_load(native, static_cast<GateKind>(k));
+      if (!uses_bit(static_cast<GateKind>(k))) per_kind_[k] = kind_load(native, static_cast<GateKind>(k));
   }
   void gate(const Gate& g) override { batch({&g, 1}); }
   void batch(std::span<const Gate> run) override {
@@ -55,7 +55,7 @@ class LoadSink final : public GateSink {
       throw_if_exhausted(budget_, "the ESP scoring of a network");
     }
     for (const Gate& g : run) {
-      if (g.kind == GateKind::measure) continue;
+      if (uses_bit(g.kind)) continue;
       const StepLoad& l = per_kind_[static_cast<int>(g.kind)];
       loads_.pos_1q[g.q0] += l.one_q[0];
       if (!is_two_qubit(g.kind)) continue;

@@ -65,6 +65,22 @@ const char* objective_name(Objective o) {
   return "?";
 }
 
+Readout parse_readout(const std::string& text) {
+  if (text == "unitary") return Readout::unitary;
+  if (text == "semiclassical") return Readout::semiclassical;
+  if (text == "auto") return Readout::automatic;
+  throw SettingError("readout", " expects unitary, semiclassical or auto, got '" + text + "'");
+}
+
+const char* readout_name(Readout r) {
+  switch (r) {
+    case Readout::unitary: return "unitary";
+    case Readout::semiclassical: return "semiclassical";
+    case Readout::automatic: return "auto";
+  }
+  return "?";
+}
+
 PlanOptions plan_options(const PlanSettings& s) {
   PlanOptions opt;
   opt.spec.qubits = s.qubits;
@@ -87,6 +103,11 @@ PlanOptions plan_options(const PlanSettings& s) {
   opt.measure = s.measure;
   opt.format = s.format;
   opt.peephole = s.peephole;
+  opt.readout = parse_readout(s.readout);
+  // The semi-classical form measures as it goes: without a measurement it is not the transform.
+  if (opt.readout == Readout::semiclassical && !opt.measure)
+    throw SettingError("readout", " semiclassical needs a measured plan (--measure): the semi-classical transform "
+                                  "measures every qubit as it goes and leaves no state behind");
   return opt;
 }
 

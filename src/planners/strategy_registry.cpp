@@ -16,6 +16,10 @@ PreparedPlan prepare_chain(const Device& device, const PlanOptions& options);
 PreparedPlan prepare_spine(const Device& device, const PlanOptions& options);
 PreparedPlan prepare_cover(const Device& device, const PlanOptions& options);
 PreparedPlan prepare_routed(const Device& device, const PlanOptions& options);
+// A measured plan's readout form (semiclassical_strategy.cpp): the unitary plan of `unitary`, the
+// semi-classical one, or the better of the two (--readout).
+PreparedPlan prepare_measured(const Device& device, const PlanOptions& options,
+                              PreparedPlan (*unitary)(const Device&, const PlanOptions&));
 
 const std::vector<StrategyInfo>& plan_strategies() {
   static const std::vector<StrategyInfo> table{
@@ -71,7 +75,7 @@ PreparedPlan prepare_plan(const Device& device, const PlanOptions& options) {
                                               "with a strategy that runs chain networks or leave the network to auto",
                                               network_choice_name(options.network), s.name));
   if (options.placement) refuse_pins_out_of_service(device, *options.placement);
-  PreparedPlan p = s.prepare(device, options);
+  PreparedPlan p = options.measure ? prepare_measured(device, options, s.prepare) : s.prepare(device, options);
   assert_in_service(device, p);
   throw_if_interrupted(options.budget);
   // A search that stopped at the deadline without saying so (it kept its best so far) still means

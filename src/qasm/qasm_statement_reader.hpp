@@ -85,6 +85,8 @@ class StatementReader : protected ExpressionReader {
   void measure(const Pos& at);
   void measure_assignment(const Register& r, std::string_view name, const Pos& at);
   void emit_measures(const Operand& q, const Operand* b, const Pos& at);
+  // if (c[j]) p(t) q;  if (c[j] == 1) ...;  if(cj==1) u1(t) q;  (a phase conditioned on one bit)
+  void if_statement(const Pos& at);
 
   // ----- gate definitions and calls (qasm_gate_calls.cpp) -----
   // gate name(params) a, b { body }
@@ -108,7 +110,15 @@ class StatementReader : protected ExpressionReader {
   }
 
   // Appends one gate (inline: once per gate of the file).
-  void emit(const Gate& g, int line) {
+  void emit(const Gate& g0, int line) {
+    Gate g = g0;
+    // Inside `if (bit)`: only a phase can be conditioned (the semi-classical readout's gate).
+    if (condition_bit_ >= 0) {
+      if (g.kind != GateKind::p)
+        throw InputError(source_, line, 0,
+                         "only a phase gate (p, u1) can be conditioned on a bit, not " + std::string(gate_name(g.kind)));
+      g = Gate{GateKind::p_if, g.q0, condition_bit_, g.angle};
+    }
     if (emitted_ >= limit_) throw InputError(source_, line, 0, "more than " + std::to_string(limit_) + " gates");
     // Ctrl-C while reading a big file (every 65536 gates: an atomic load is cheap, not free).
     if (interrupt_ && (emitted_ & 0xffff) == 0 && interrupt_->load(std::memory_order_relaxed)) throw Interrupted();
@@ -134,6 +144,7 @@ class StatementReader : protected ExpressionReader {
   bool seen_statement_ = false;
   int qubit_total_ = 0;
   int bit_total_ = 0;
+  int condition_bit_ = -1;  // inside `if (bit)`: the bit every emitted gate is conditioned on
   int max_physical_ = -1;
   bool physical_used_ = false;
   std::unordered_map<std::string, Register, NameHash, NameEq> registers_;

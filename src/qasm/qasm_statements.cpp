@@ -16,7 +16,7 @@ void StatementReader::statement() {
   const std::uint64_t key = pack(w);
   if (key != pack("OPENQASM") && key != pack("include") && key != pack("qreg") && key != pack("creg") &&
       key != pack("qubit") && key != pack("bit") && key != pack("gate") && key != pack("barrier") &&
-      key != pack("measure") && seen_statement_ && !peek('[') && !peek('=')) {
+      key != pack("measure") && key != pack("if") && seen_statement_ && !peek('[') && !peek('=')) {
     gate_call(w, at, Scope{});
     return;
   }
@@ -46,6 +46,10 @@ void StatementReader::statement() {
   }
   if (w == "measure") {
     measure(at);
+    return;
+  }
+  if (w == "if") {
+    if_statement(at);
     return;
   }
   // `c[i] = measure q;` starts with a bit register name followed by '[' or '='; no gate call is.
@@ -248,6 +252,49 @@ void StatementReader::measure_assignment(const Register& r, std::string_view nam
   const Operand q = operand(true);
   expect(';');
   emit_measures(q, &b, at);
+}
+
+// OpenQASM 3: `if (c[j]) statement` or `if (c[j] == 1) statement` (the specification's branching
+// statement with a bit as its condition); OpenQASM 2: `if (creg == 1) qop;` on a one-bit register
+// (Cross et al., arXiv:1707.03429, section 3, which compares a whole register). The statement must be a
+// phase gate on one qubit: the conditioned phase of the semi-classical readout.
+void StatementReader::if_statement(const Pos& at) {
+  expect('(');
+  skip_ws();
+  const Pos name_at = here();
+  const auto name = expect_ident("a bit register");
+  const Register* r = find_register(name);
+  if (!r) fail(name_at, "unknown register '" + std::string(name) + "'");
+  if (r->quantum) fail(name_at, "'" + std::string(name) + "' is a qubit register; a condition tests a bit");
+  int bit = r->offset;
+  if (accept('[')) {
+    bit = register_index(*r, name);
+  } else if (r->size != 1) {
+    fail(name_at, "this reader conditions on one bit: register '" + std::string(name) + "' has " +
+                      std::to_string(r->size) + " bits (name one, c[j], or use one-bit registers)");
+  }
+  skip_ws();
+  if (accept('=')) {
+    expect('=');
+    skip_ws();
+    const Pos v_at = here();
+    if (expect_uint("the value 1") != 1) fail(v_at, "this reader conditions only on a bit being 1");
+  }
+  expect(')');
+  skip_ws();
+  const Pos gate_at = here();
+  const auto gate = ident();
+  if (gate.empty() || gate == "if" || gate == "measure" || gate == "{")
+    fail(gate_at, "expected a phase gate after the condition but found " + found());
+  condition_bit_ = bit;
+  try {
+    gate_call(gate, gate_at, Scope{});
+  } catch (...) {
+    condition_bit_ = -1;
+    throw;
+  }
+  condition_bit_ = -1;
+  (void)at;
 }
 
 void StatementReader::emit_measures(const Operand& q, const Operand* b, const Pos& at) {

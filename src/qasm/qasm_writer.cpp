@@ -125,10 +125,18 @@ QasmWriter::QasmWriter(QasmVersion version, const CircuitHeader& h, TextOutput& 
   append("// placement: " + join(h.placement) + "\n");
   append("// final_placement: " + join(h.final_placement) + "\n");
   append("// placement[k] holds input bit k (weight 2^k) at the start; final_placement[k] holds output bit k at the end\n");
+  if (h.conditioned)
+    append(std::string("// readout: semiclassical; final_placement[k] is measured into ") +
+           (version_ == QasmVersion::v3 ? "c[k]" : "register ck") +
+           " (output bit k, weight 2^k) as soon as its corrections are done\n");
   if (version_ == QasmVersion::v2) append(fmt::format("qreg q[{}];\n", h.device_qubits));
+  bit_registers_ = h.conditioned && version_ == QasmVersion::v2;
   if (h.measured_bits > 0) {
     if (version_ == QasmVersion::v3) append(fmt::format("bit[{}] c;\n", h.measured_bits));
-    else append(fmt::format("creg c[{}];\n", h.measured_bits));
+    else if (!bit_registers_) append(fmt::format("creg c[{}];\n", h.measured_bits));
+    // OpenQASM 2's `if (creg == int)` tests a whole register (Cross et al., arXiv:1707.03429, section
+    // 3): a phase conditioned on one bit needs that bit alone in a register.
+    else for (int b = 0; b < h.measured_bits; ++b) append(fmt::format("creg c{}[1];\n", b));
   }
 }
 
@@ -250,6 +258,21 @@ void QasmWriter::gate(const Gate& g) {
       }
       two("cx ", g.q0, g.q1);
       break;
+    case GateKind::p_if:
+      // OpenQASM 3: `if (bit) statement` (the specification's branching statement); OpenQASM 2:
+      // `if (creg == 1) u1(t) q;` on the one-bit register of that bit.
+      if (v3) {
+        p = put(p, "if (c[");
+        p = std::to_chars(p, p + 11, g.q1).ptr;
+        p = put(p, "]) p");
+      } else {
+        p = put(p, "if(c");
+        p = std::to_chars(p, p + 11, g.q1).ptr;
+        p = put(p, "==1) u1");
+      }
+      p = angle(p, g.angle);
+      one("", g.q0);
+      break;
     case GateKind::measure:
       if (v3) {
         p = put(p, "c[");
@@ -260,9 +283,9 @@ void QasmWriter::gate(const Gate& g) {
       } else {
         p = put(p, "measure ");
         p = qubit(p, g.q0);
-        p = put(p, " -> c[");
+        p = put(p, bit_registers_ ? " -> c" : " -> c[");
         p = std::to_chars(p, p + 11, g.q1).ptr;
-        p = put(p, "];\n");
+        p = put(p, bit_registers_ ? "[0];\n" : "];\n");
       }
       break;
   }

@@ -14,6 +14,7 @@ CircuitHeader circuit_header(const Device& device, const PlanOptions& options, c
   h.placement = plan.maps.placement;
   h.final_placement = plan.maps.final_placement;
   h.measured_bits = options.measure ? plan.spec.qubits : 0;
+  h.conditioned = plan.circuit->measures_itself();
   return h;
 }
 

@@ -104,6 +104,22 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
     }
     alts.push_back(x);
   }
+  if (r.readout) {
+    // Both readout forms of a measured plan as compared (--readout); null where one was not planned.
+    const auto esp = [](const std::optional<double>& l) {
+      return l ? nlohmann::ordered_json(std::exp(*l)) : nlohmann::ordered_json(nullptr);
+    };
+    nlohmann::ordered_json ro;
+    ro["chosen"] = r.readout->chosen;
+    ro["reason"] = r.readout->reason;
+    ro["unitary_esp_total"] = esp(r.readout->unitary_log_esp_total);
+    ro["semiclassical_esp_total"] = esp(r.readout->semiclassical_log_esp_total);
+    ro["unitary_note"] = r.readout->unitary_note;
+    ro["semiclassical_note"] = r.readout->semiclassical_note;
+    j["readout"] = ro;
+  } else {
+    j["readout"] = nullptr;
+  }
   j["elapsed_ms"] = r.elapsed_ms;
   return j;
 }
@@ -120,6 +136,15 @@ std::string count_of(long long n, std::string_view noun) {
 std::string ratio_text(long long a, long long ref) {
   if (ref == 0) return a == 0 ? "same" : "more";
   return fmt::format("x{:.2f}", static_cast<double>(a) / static_cast<double>(ref));
+}
+
+// "unitary esp_total 0.41, semiclassical esp_total 0.52": both readout forms, or why one is absent.
+std::string readout_figures(const ReadoutChoice& c) {
+  const auto one = [](const char* name, const std::optional<double>& l, const std::string& note) {
+    return l ? fmt::format("{} esp_total {:.4g}", name, std::exp(*l)) : fmt::format("{}: {}", name, note);
+  };
+  return one("unitary", c.unitary_log_esp_total, c.unitary_note) + ", " +
+         one("semiclassical", c.semiclassical_log_esp_total, c.semiclassical_note);
 }
 
 std::string short_list(const std::vector<int>& v) {
@@ -147,6 +172,7 @@ std::string format_plan_summary(const PlanReport& r) {
     if (r.measured) s += fmt::format(" x {:.4g} readout", r.noise.esp_readout);
     s += fmt::format("\n  duration        {:.0f} ns ({:.0f} ns of idle qubit time)\n", r.noise.duration_ns, r.noise.idle_ns);
   }
+  if (r.readout) s += fmt::format("  readout         {} ({})\n", r.readout->chosen, readout_figures(*r.readout));
   if (r.end_order == "same")
     s += fmt::format("  end order       same as the start ({} SWAP{} added)\n", r.end_swaps, r.end_swaps == 1 ? "" : "s");
   if (r.approx_degree) {
@@ -173,6 +199,16 @@ std::string format_plan_summary(const PlanReport& r) {
 
 std::string format_plan_explanation(const PlanReport& r) {
   std::string s;
+  if (r.readout) {
+    const auto& c = *r.readout;
+    s += fmt::format("readout: {} chosen ({})\n", c.chosen, c.reason);
+    const auto row = [&](const char* name, const std::optional<double>& l, const std::string& note) {
+      s += l ? fmt::format("  {:<13}  esp_total {:<10.4g}{}\n", name, std::exp(*l), c.chosen == name ? "  <- chosen" : "")
+             : fmt::format("  {:<13}  {}\n", name, note);
+    };
+    row("unitary", c.unitary_log_esp_total, c.unitary_note);
+    row("semiclassical", c.semiclassical_log_esp_total, c.semiclassical_note);
+  }
   const auto& pc = r.placement_choice;
   s += fmt::format("placement: {} ({} chain{} scored)\n", pc.method, pc.chains_scored, pc.chains_scored == 1 ? "" : "s");
   for (std::size_t i = 0; i < pc.best.size(); ++i) {

@@ -107,7 +107,7 @@ NativeReplay::NativeReplay(TwoQubitGate target, MetricsSink& metrics, NoiseSink&
     : metrics_(metrics), noise_(noise) {
   for (int z = 0; z < 2; ++z)
     for (int k = 0; k < kGateKindCount; ++k)
-      if (static_cast<GateKind>(k) != GateKind::measure) {
+      if (!uses_bit(static_cast<GateKind>(k))) {
         programs_[z][k] = native_program(target, static_cast<GateKind>(k), z == 1);
         costs_[z][k] = NoiseSink::cost_of(programs_[z][k]);
       }
@@ -115,7 +115,7 @@ NativeReplay::NativeReplay(TwoQubitGate target, MetricsSink& metrics, NoiseSink&
 
 void NativeReplay::batch(std::span<const Gate> run) {
   for (const Gate& g : run) {
-    if (g.kind == GateKind::measure) {
+    if (uses_bit(g.kind)) {
       metrics_.gate(g);
       noise_.gate(g);
       continue;

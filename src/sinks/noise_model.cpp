@@ -11,8 +11,9 @@ double log_idle_fidelity(double t_ns, double t1_us, double t2_us) {
   return std::log1p(-loss);
 }
 
-NoiseSink::NoiseSink(const Device& device, std::vector<int> register_qubits)
-    : dev_(device), register_(std::move(register_qubits)), ready_(device.qubit_count(), 0.0),
+NoiseSink::NoiseSink(const Device& device, std::vector<int> register_qubits, bool mid_circuit)
+    : mid_circuit_(mid_circuit), measured_q_(device.qubit_count(), 0), not_before_(device.qubit_count(), 0.0), dev_(device),
+      register_(std::move(register_qubits)), ready_(device.qubit_count(), 0.0),
       first_use_(device.qubit_count(), -1.0), in_register_(device.qubit_count(), 0) {
   const int D = device.qubit_count();
   log_keep_1q_.resize(D);
@@ -90,15 +91,58 @@ inline void NoiseSink::step(GateKind k, int qa, int qb, int ci) {
   if (first_use_[qa] < 0) first_use_[qa] = ra;  // the qubit is in use from here on
   if (k == GateKind::rz || k == GateKind::p) return;  // virtual Z: no error, no time
   // h, x, sx
+  if (mid_circuit_) start_timed(qa);
   log_gates_ += log_keep_1q_[qa];
   ra += dur_1q_[qa];
 }
 
+void NoiseSink::measure_now(const Gate& g) {
+  const int q = g.q0;
+  const QubitCalibration c = dev_.qubit_calibration(q);
+  if (first_use_[q] < 0) first_use_[q] = ready_[q];
+  start_timed(q);
+  // The qubit is being measured from ready_[q]: its readout error covers that time; afterwards it
+  // holds no information. A gate conditioned on the outcome waits for the end plus the latency.
+  measured_q_[q] = 1;
+  if (g.q1 < 0) return;
+  const auto b = static_cast<std::size_t>(g.q1);
+  if (bit_ready_.size() <= b) bit_ready_.resize(b + 1, 0.0);
+  // No feed-forward from this qubit: a gate conditioned on it can never run (the planner does not
+  // plan one; a read file may): +infinity makes it certain failure below.
+  bit_ready_[b] = ready_[q] + c.duration_readout_ns + c.feed_forward_ns.value_or(INFINITY);
+}
+
+void NoiseSink::conditioned(const Gate& g) {
+  const int q = g.q0;
+  const auto b = static_cast<std::size_t>(g.q1);
+  const double at = b < bit_ready_.size() ? bit_ready_[b] : 0.0;
+  if (first_use_[q] < 0) first_use_[q] = ready_[q];
+  if (!std::isfinite(at)) {
+    log_gates_ = -INFINITY;
+    return;
+  }
+  // Like p, a frame change taking no time: it does not split the qubit's wait, it only holds back the
+  // qubit's next timed gate (start_timed) until the outcome is known.
+  not_before_[q] = std::max(not_before_[q], at);
+}
+
+void NoiseSink::start_timed(int q) {
+  if (not_before_[q] > ready_[q]) {
+    idle(q, not_before_[q] - ready_[q]);
+    ready_[q] = not_before_[q];
+  }
+}
+
 void NoiseSink::add(const Gate& g) {
   const int a = g.q0;
+  if (g.kind == GateKind::p_if) {
+    conditioned(g);
+    return;
+  }
   if (g.kind == GateKind::measure) {
     log_readout_ += std::log1p(-dev_.qubit_calibration(a).error_readout);
     measured_ = true;
+    if (mid_circuit_) measure_now(g);
     return;
   }
   if (is_two_qubit(g.kind))

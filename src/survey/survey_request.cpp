@@ -162,6 +162,14 @@ std::string fitted_family_spec(const std::string& family, int qubits) {
 }
 
 std::vector<SurveyCase> expand_survey(const SurveyRequest& request) {
+  // The readout settings are refused once for the survey, by the one options builder, not per run.
+  {
+    PlanSettings probe;
+    probe.qubits = 1;
+    probe.measure = request.measure;
+    probe.readout = request.readout;
+    plan_options(probe);
+  }
   const long long total = static_cast<long long>(request.devices.size()) * request.strategies.size() *
                           request.approx.size() * request.directions.size() * request.sizes.size();
   if (total > kMaxCases)

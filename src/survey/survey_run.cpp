@@ -46,6 +46,8 @@ SurveyRow run_survey_case(const SurveyRequest& request, const SurveyCase& c) {
     settings.approx = c.approx.text();
     settings.seed = request.seed;
     settings.strategy = c.strategy;
+    settings.measure = request.measure;
+    settings.readout = request.readout;
     PlanOptions opt = plan_options(settings);
     // Each run has its own deadline; all share the interruption flag.
     std::optional<RunBudget> budget;

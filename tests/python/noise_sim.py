@@ -31,6 +31,7 @@ from qasm_sim import parse
 
 DEFAULT_1Q_NS = 35.0   # README "Device files": the gate times used when a file gives none
 DEFAULT_2Q_NS = 300.0
+DEFAULT_READOUT_NS = 1000.0
 TIMED_1Q = {"h", "x", "sx"}
 FREE_1Q = {"rz", "p", "u1", "phase"}
 
@@ -46,7 +47,11 @@ class Calibration:
         self.default = {
             "error_1q": cal.get("error_1q", 0.0), "error_readout": cal.get("error_readout", 0.0),
             "duration_1q_ns": cal.get("duration_1q_ns", DEFAULT_1Q_NS),
-            "t1_us": cal.get("t1_us", math.inf), "t2_us": cal.get("t2_us", math.inf)}
+            "t1_us": cal.get("t1_us", math.inf), "t2_us": cal.get("t2_us", math.inf),
+            # Dynamic circuits (README "Phase-estimation readout"): a mid-circuit measurement's length
+            # (default 1000 ns) and the feed-forward latency (absent: none offered).
+            "duration_readout_ns": cal.get("duration_readout_ns", DEFAULT_READOUT_NS),
+            "feed_forward_ns": cal.get("feed_forward_ns")}
         self.qubit = {}
         for o in d.get("qubit_calibration") or []:
             q = dict(self.default)
@@ -106,6 +111,56 @@ def schedule(gates, cal, register):
     return events, end
 
 
+def schedule_dynamic(ops, cal, register):
+    """The schedule of a semi-classical file (qasm_sim.parse_dynamic ops) as README "What the numbers mean"
+    defines it for dynamic circuits: a measurement starts when its qubit is free, takes the qubit's
+    duration_readout_ns, and ends the qubit's idling; a phase conditioned on a bit takes no time, but the
+    qubit's next timed gate (or measurement) waits until feed_forward_ns (of the measured qubit) after that
+    bit's measurement ended, one idle interval; the last measurement's own length is not scheduled.
+    Returns (events, end, measured qubits) like schedule(), the events also holding ("measure", qubit, bit)
+    and the conditioned phases ("if", bit, name, qubits, angle) in order."""
+    ready, not_before, bit_ready, holds, events, measured = {}, {}, {}, set(register), [], []
+
+    def wait(q, gap):
+        if gap > 0 and q in holds:
+            events.append(("idle", q, gap))
+
+    def start(q):
+        t = not_before.get(q, 0.0)
+        if t > ready.get(q, 0.0):
+            wait(q, t - ready.get(q, 0.0))
+            ready[q] = t
+
+    for op in ops:
+        if op[0] == "measure":
+            q, b = op[1], op[2]
+            start(q)
+            c = cal.of(q)
+            bit_ready[b] = ready.get(q, 0.0) + c["duration_readout_ns"] + c["feed_forward_ns"]
+            holds.discard(q)
+            measured.append(q)
+            events.append(("measure", q, b))
+        elif op[0] == "if":
+            q = op[3][0]
+            not_before[q] = max(not_before.get(q, 0.0), bit_ready[op[1]])
+            events.append(op)
+        else:
+            name, qs, angle = op[1], op[2], op[3]
+            assert len(qs) == 1, "a semi-classical file has no two-qubit gate"
+            q = qs[0]
+            if name in TIMED_1Q:
+                start(q)
+                c = cal.of(q)
+                ready[q] = ready.get(q, 0.0) + c["duration_1q_ns"]
+                events.append(("gate", name, qs, angle, c["error_1q"]))
+            else:
+                events.append(("gate", name, qs, angle, 0.0))
+    end = max(ready.values(), default=0.0)
+    for q in sorted(holds):
+        wait(q, end - ready.get(q, 0.0))
+    return events, end, measured
+
+
 def twirled_keep(t_ns, t1_us, t2_us):
     """(1 + e^(-t/T1) + 2 e^(-t/T2)) / 4: the no-error probability of the twirled channel."""
     return (1 + math.exp(-t_ns / (t1_us * 1000)) + 2 * math.exp(-t_ns / (t2_us * 1000))) / 4
@@ -117,7 +172,7 @@ def no_error_probability(events, cal, measured):
     for e in events:
         if e[0] == "gate":
             gates *= 1 - e[4]
-        else:
+        elif e[0] == "idle":
             c = cal.of(e[1])
             idle *= twirled_keep(e[2], c["t1_us"], c["t2_us"])
     for q in measured:
@@ -285,3 +340,57 @@ def simulate(text, device_path, register, twirled=False, samples=0, seed=1):
     f_avg, se_avg = float(np.mean(values)), float(np.std(values, ddof=1) / math.sqrt(samples))
     out.update(process_fidelity=((d + 1) * f_avg - 1) / d, process_fidelity_se=(d + 1) / d * se_avg)
     return out
+
+
+def simulate_dynamic(events, cal, register, state, twirled=True):
+    """The outcome distribution (bits 0 .. n-1, bit k of weight 2^k) of a semi-classical schedule
+    (schedule_dynamic) run on the register state `state` (index bit k = qubit register[k]) under the
+    channels above: one density matrix per record of measured bits; a measurement projects, and its
+    readout error records the other value with that probability (the wrong bit is also what the
+    conditioned phases after it read)."""
+    n = len(register)
+    local = {q: k for k, q in enumerate(register)}
+    # Axis k of the tensor is qubit k of the register: index bit k is axis n-1-k in numpy's C order.
+    psi = np.asarray(state, dtype=complex).reshape((2,) * n)
+    psi = np.transpose(psi, list(reversed(range(n))))
+    bits = max([e[2] + 1 for e in events if e[0] == "measure"] + [n])
+    branches = {(0,) * bits: DensityMatrix(np.tensordot(psi, psi.conj(), axes=0), n)}
+    for e in events:
+        if e[0] == "gate":
+            _, name, qs, angle, error = e
+            for dm in branches.values():
+                dm.unitary(gate_matrix(name, angle), [local[q] for q in qs])
+                dm.pauli_channel([local[q] for q in qs], error)
+        elif e[0] == "idle":
+            c = cal.of(e[1])
+            for dm in branches.values():
+                dm.damp(local[e[1]], e[2], c["t1_us"], c["t2_us"], twirled)
+        elif e[0] == "if":
+            _, b, name, qs, angle = e
+            for record, dm in branches.items():
+                if record[b]:
+                    dm.unitary(gate_matrix(name, angle), [local[q] for q in qs])
+        else:
+            _, q, b = e
+            a, flip = local[q], cal.of(q)["error_readout"]
+            after = {}
+            for record, dm in branches.items():
+                for outcome in (0, 1):
+                    proj = dm.rho.copy()
+                    index = [slice(None)] * (2 * n)
+                    for axis in (a, a + n):
+                        index[axis] = 1 - outcome
+                        proj[tuple(index)] = 0
+                        index[axis] = slice(None)
+                    for value, weight in ((outcome, 1 - flip), (1 - outcome, flip)):
+                        key = record[:b] + (value,) + record[b + 1:]
+                        if key in after:
+                            after[key].rho = after[key].rho + weight * proj
+                        else:
+                            after[key] = DensityMatrix(weight * proj, n)
+            branches = after
+    dist = np.zeros(2 ** n)
+    for record, dm in branches.items():
+        m = dm.rho.reshape(2 ** n, 2 ** n)
+        dist[sum(record[k] << k for k in range(n))] += float(np.real(np.trace(m)))
+    return dist

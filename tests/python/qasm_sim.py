@@ -155,3 +155,116 @@ def equal_up_to_phase(u, v, tol=1e-9):
         return bool(np.allclose(u, v, atol=tol))
     phase = u[k] / v[k]
     return abs(abs(phase) - 1) < tol and bool(np.allclose(u, phase * v, atol=tol))
+
+
+# ----- dynamic circuits: mid-circuit measurement and phases conditioned on one bit -----
+# OpenQASM 3 specification ("Classical control flow", the branching statement `if (condition)
+# statement`, and measurement `c[k] = measure q;`); OpenQASM 2 (Cross et al., arXiv:1707.03429,
+# section 3: `measure q -> c;` and `if(creg==int) qop;` on a whole register).
+
+_IF = re.compile(r"^if\s*\(\s*([A-Za-z_][A-Za-z0-9_]*)\s*(?:\[(\d+)\])?\s*(?:==\s*(\d+))?\s*\)\s*(.+)$")
+_MEASURE3 = re.compile(r"^([A-Za-z_][A-Za-z0-9_]*)\[(\d+)\]\s*=\s*measure\s+(\S+)$")
+_MEASURE2 = re.compile(r"^measure\s+(\S+)\s*->\s*([A-Za-z_][A-Za-z0-9_]*)\[(\d+)\]$")
+_CREG = re.compile(r"^creg\s+([A-Za-z_][A-Za-z0-9_]*)\[(\d+)\]$")
+_BITS3 = re.compile(r"^bit\[(\d+)\]\s+([A-Za-z_][A-Za-z0-9_]*)$")
+
+
+def _qubit(text):
+    om = _OPERAND.match(text.strip())
+    if not om:
+        raise ValueError(f"cannot read operand {text!r}")
+    return int(om.group(1) or om.group(2))
+
+
+def parse_dynamic(text):
+    """The operations of a program with mid-circuit measurements, in order: ("gate", name, qubits,
+    angle), ("measure", qubit, bit) and ("if", bit, name, qubits, angle), where a bit is a global
+    index: the bit registers laid end to end in declaration order."""
+    body = re.sub(r"//[^\n]*", "", text)
+    offsets, total, ops = {}, 0, []
+
+    def bit(name, index):
+        return offsets[name] + int(index or 0)
+
+    for stmt in body.split(";"):
+        stmt = " ".join(stmt.split())
+        if not stmt:
+            continue
+        head = stmt.split(" ", 1)[0]
+        if head in ("OPENQASM", "include", "qreg", "barrier"):
+            continue
+        m = _CREG.match(stmt) or None
+        if m:
+            offsets[m.group(1)] = total
+            total += int(m.group(2))
+            continue
+        m = _BITS3.match(stmt)
+        if m:
+            offsets[m.group(2)] = total
+            total += int(m.group(1))
+            continue
+        m = _MEASURE3.match(stmt)
+        if m:
+            ops.append(("measure", _qubit(m.group(3)), bit(m.group(1), m.group(2))))
+            continue
+        m = _MEASURE2.match(stmt)
+        if m:
+            ops.append(("measure", _qubit(m.group(1)), bit(m.group(2), m.group(3))))
+            continue
+        m = _IF.match(stmt)
+        if m:
+            if m.group(3) not in (None, "1"):
+                raise ValueError(f"only conditions on 1 are simulated: {stmt!r}")
+            (name, qubits, angle), = parse(m.group(4))
+            ops.append(("if", bit(m.group(1), m.group(2)), name, qubits, angle))
+            continue
+        (name, qubits, angle), = parse(stmt)
+        ops.append(("gate", name, qubits, angle))
+    return ops, total
+
+
+def outcome_distribution(ops, bits, placement, state):
+    """The probability of every value of the bits 0 .. n-1 (bit k of weight 2^k) when the register
+    holds `state` (a vector of 2^n amplitudes, index bit k = the qubit placement[k]) and the program
+    runs; every measurement branch is followed (projected and renormalised), depth first."""
+    n = len(placement)
+    used = sorted(set(placement) | {op[2][0] if op[0] == "gate" else (op[1] if op[0] == "measure" else op[3][0])
+                                     for op in ops})
+    local = {q: i for i, q in enumerate(used)}
+    width = len(used)
+    psi = np.zeros((2,) * width, dtype=complex)
+    for j in range(2 ** n):
+        index = [0] * width
+        for k in range(n):
+            index[local[placement[k]]] = (j >> k) & 1
+        psi[tuple(index)] = state[j]
+    dist = np.zeros(2 ** n)
+
+    def run(start, psi, values, weight):
+        sim = Simulator(width, 1)
+        sim.psi = psi[..., None].copy()
+        for i in range(start, len(ops)):
+            op = ops[i]
+            if op[0] == "gate":
+                sim.apply(op[1], tuple(local[q] for q in op[2]), op[3])
+            elif op[0] == "if":
+                if values[op[1]]:
+                    sim.apply(op[2], tuple(local[q] for q in op[3]), op[4])
+            else:
+                axis = local[op[1]]
+                for outcome in (0, 1):
+                    branch = sim.psi[..., 0].copy()
+                    index = [slice(None)] * width
+                    index[axis] = 1 - outcome
+                    branch[tuple(index)] = 0
+                    p = float(np.sum(np.abs(branch) ** 2))
+                    if p < 1e-15:
+                        continue
+                    v = list(values)
+                    v[op[2]] = outcome
+                    run(i + 1, branch / math.sqrt(p), v, weight * p)
+                return
+        dist[sum(values[k] << k for k in range(n))] += weight
+
+    run(0, psi, [0] * max(bits, n), 1.0)
+    return dist

@@ -20,6 +20,20 @@ for dev in line:6 grid:3x3 heavy-hex:1x1 "$here/../../topologies/harbor-noisy-20
     done
   done
 done
+# The semi-classical readout (issue 20): mid-circuit measurements and phases conditioned on bits.
+# qasm-ts 2.1.4 cannot read a hardware qubit as the operand of a measurement (its measureStatement
+# reads operands as expressions, which have no `$`), although the OpenQASM 3 grammar allows it
+# (measureExpression: MEASURE gateOperand; gateOperand: indexedIdentifier | HardwareQubit). So these
+# files are parsed with their hardware qubits $k renamed to a declared register q[k]: that checks every
+# other construct they use (bit[n] c; c[k] = measure ...; if (c[j]) p(...) ...;).
+for extra in "" "--inverse" "--inverse --approx 2"; do
+  i=$((i + 1))
+  # shellcheck disable=SC2086
+  "$bin" plan --device "$here/../../topologies/harbor-line-12.yaml" --qubits 5 --measure --readout semiclassical \
+    $extra --output "$work/sc$i.raw"
+  grep -q "^if (c\\[[0-9]*\\]) p(" "$work/sc$i.raw"  # conditioned phases are there
+  sed -E -e 's/\$([0-9]+)/q[\1]/g' -e 's/^(include "stdgates.inc";)$/\1\nqubit[12] q;/' "$work/sc$i.raw" > "$work/sc$i.qasm"
+done
 # A deliberately broken file: the parser must reject it.
 printf 'OPENQASM 3.0;\ninclude "stdgates.inc";\nh $0\ncp(pi/2) $0 $1;\n' > "$work/broken.bad.qasm"
 cd "$here"

@@ -27,9 +27,12 @@ enum class GateKind : std::uint8_t {
   /// parity block (ours, the parity network): cx q1,q0; rz(t) q0; cx q0,q1. With values (A, B) on
   /// (q0, q1) it leaves (A xor B, A) and the phase t on A xor B (one two-qubit block, 2 CX).
   parity_step,
+  /// phase diag(1, e^{i t}) on q0 applied only when classical bit q1 reads 1 (ours: a classically
+  /// conditioned phase of a dynamic circuit; written `if (c[j]) p(t) $q;`)
+  p_if,
 };
 
-inline constexpr int kGateKindCount = 12;
+inline constexpr int kGateKindCount = 13;
 
 /// OpenQASM-style lower-case name ("cp_swap" and "parity_step" for the blocks, which writers expand).
 std::string_view gate_name(GateKind k);
@@ -38,13 +41,15 @@ constexpr bool is_two_qubit(GateKind k) {
   return k == GateKind::cx || k == GateKind::cz || k == GateKind::cp || k == GateKind::swap || k == GateKind::cp_swap ||
          k == GateKind::parity_step;
 }
-/// True for gates with an angle parameter (rz, p, cp, cp_swap, parity_step).
+/// True for gates with an angle parameter (rz, p, cp, cp_swap, parity_step, p_if).
 constexpr bool has_angle(GateKind k) {
   return k == GateKind::rz || k == GateKind::p || k == GateKind::cp || k == GateKind::cp_swap ||
-         k == GateKind::parity_step;
+         k == GateKind::parity_step || k == GateKind::p_if;
 }
+/// True for the gates that read or write a classical bit (q1 is the bit index): measure and p_if.
+constexpr bool uses_bit(GateKind k) { return k == GateKind::measure || k == GateKind::p_if; }
 
-/// One gate on physical qubits. For one-qubit gates q1 is unused; for measure, q1 is the bit index.
+/// One gate on physical qubits. For one-qubit gates q1 is unused; for measure and p_if, q1 is the bit index.
 struct Gate {
   GateKind kind = GateKind::h;
   std::int32_t q0 = 0;

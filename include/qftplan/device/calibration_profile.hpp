@@ -17,7 +17,7 @@ struct CalibrationProfile {
 };
 
 /// Parses profile text: one mapping of error_1q, error_2q, error_readout, duration_1q_ns, duration_2q_ns,
-/// t1_us, t2_us (the device file's rules for each), at least one of them. InputError with file, line and
+/// t1_us, t2_us, duration_readout_ns, feed_forward_ns (the device file's rules for each), at least one of them. InputError with file, line and
 /// column otherwise.
 CalibrationProfile parse_calibration_profile(const std::string& text, const std::string& source);
 

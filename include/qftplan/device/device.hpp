@@ -26,6 +26,8 @@ struct CalibrationValues {
   std::optional<double> duration_2q_ns;  ///< two-qubit gate time, ns
   std::optional<double> t1_us;           ///< energy relaxation time, microseconds
   std::optional<double> t2_us;           ///< dephasing time, microseconds
+  std::optional<double> duration_readout_ns;  ///< a mid-circuit measurement, ns
+  std::optional<double> feed_forward_ns;      ///< from a measurement's end to a gate conditioned on it, ns
   bool operator==(const CalibrationValues&) const = default;
   bool empty() const;
 };
@@ -34,6 +36,7 @@ struct CalibrationValues {
 struct QubitOverride {
   int id = 0;
   std::optional<double> error_1q, error_readout, duration_1q_ns, t1_us, t2_us;
+  std::optional<double> duration_readout_ns, feed_forward_ns;  ///< dynamic circuits (see CalibrationValues)
   bool disabled = false;  ///< `disabled: true`: out of service, kept in the file, never planned on
   bool operator==(const QubitOverride&) const = default;
 };
@@ -62,6 +65,10 @@ struct QubitCalibration {
   double duration_1q_ns = 0;
   double t1_us = 0;  ///< +infinity when unknown
   double t2_us = 0;  ///< +infinity when unknown
+  double duration_readout_ns = 0;  ///< a mid-circuit measurement of this qubit, ns
+  /// Latency from the end of a measurement of this qubit to the start of a gate conditioned on its
+  /// outcome, ns; absent: the device offers no feed-forward from this qubit.
+  std::optional<double> feed_forward_ns;
 };
 
 /// Filled-in calibration of one coupler (defaults applied).
@@ -74,6 +81,9 @@ struct CouplerCalibration {
 /// superconducting chips; an ideal chip has no errors and no decoherence).
 inline constexpr double kDefaultDuration1qNs = 35.0;
 inline constexpr double kDefaultDuration2qNs = 300.0;
+/// A measurement's length when a device gives none (common practice: superconducting readout takes
+/// about a microsecond; a value from memory, not from a source).
+inline constexpr double kDefaultDurationReadoutNs = 1000.0;
 
 /// Largest device accepted anywhere (files and built-in lattices).
 inline constexpr int kMaxDeviceQubits = 1'000'000;

@@ -39,6 +39,14 @@ enum class Objective { esp, depth, duration, cx };
 Objective parse_objective(const std::string& text);
 const char* objective_name(Objective o);
 
+/// How a measured plan reads its register out: the unitary transform then measurement, the
+/// semi-classical transform (mid-circuit measurements and phases conditioned on their outcomes,
+/// Griffiths and Niu 1996), or the one of higher esp_total where the device offers feed-forward.
+enum class Readout { unitary, semiclassical, automatic };
+/// Parses "unitary", "semiclassical", "auto"; SettingError naming `readout` otherwise.
+Readout parse_readout(const std::string& text);
+const char* readout_name(Readout r);
+
 /// What the user asked for.
 struct PlanOptions {
   QftSpec spec;
@@ -57,6 +65,7 @@ struct PlanOptions {
   EndOrder end_order = EndOrder::free;           ///< same: SWAPs at the end make final_placement == placement
   NetworkChoice network = NetworkChoice::automatic;  ///< chain network of the chain and spine strategies
   bool peephole = true;                          ///< the peephole pass on native output (sinks/peephole.hpp)
+  Readout readout = Readout::automatic;          ///< with `measure`: unitary, semi-classical or the better
 };
 
 /// The settings of one plan as the front ends (command line, Python, surveys, fuzzers, benchmarks) take
@@ -77,6 +86,7 @@ struct PlanSettings {
   std::string network = "auto";
   QasmVersion format = QasmVersion::v3;
   bool peephole = true;                          ///< the peephole pass on native output (off: the gates as decomposed)
+  std::string readout = "auto";                  ///< "unitary", "semiclassical" or "auto" (measured plans)
 };
 
 /// PlanOptions for `settings`; InputError naming the setting for a value out of range or unknown.
@@ -122,6 +132,16 @@ struct StrategyOutcome {
   double duration_ns = 0;
 };
 
+/// The two readout forms of a measured plan as compared (--readout): each one's esp_total, when planned.
+struct ReadoutChoice {
+  std::string chosen;                          ///< "unitary" or "semiclassical"
+  std::string reason;                          ///< why (pinned, the higher esp_total, the other not offered)
+  std::optional<double> unitary_log_esp_total;        ///< ln esp_total of the unitary plan
+  std::optional<double> semiclassical_log_esp_total;  ///< ln esp_total of the semi-classical plan
+  std::string unitary_note;                    ///< why the unitary form was not planned (when absent)
+  std::string semiclassical_note;              ///< why the semi-classical form was not planned (when absent)
+};
+
 /// Decisions made before any gate is emitted: the strategy's circuit and how it was chosen.
 struct PreparedPlan {
   std::string strategy;                  ///< registry name of the planner ("chain")
@@ -143,6 +163,7 @@ struct PreparedPlan {
   /// The strategy's proved bound on the circuit's native two-qubit gates (cp 2, swap and cp_swap 3);
   /// absent when the strategy proves none.
   std::optional<long long> cx_bound;
+  std::optional<ReadoutChoice> readout;  ///< measured plans: the readout forms compared
 };
 
 /// Figures of a planned circuit (the JSON report; README "Report fields" documents each).
@@ -186,6 +207,7 @@ struct PlanReport {
   std::uint64_t seed = 1;              ///< --seed of the searches (re-planning with it gives this plan)
   std::optional<long long> cx_bound;   ///< the strategy's proved bound on cx_count (absent: none)
   std::optional<double> cx_bound_ratio;  ///< cx_count / cx_bound (absent with the bound or when it is 0)
+  std::optional<ReadoutChoice> readout;  ///< measured plans: the readout forms compared
 };
 
 /// A planning strategy: its name (as given to --strategy), a one-line description, and its entry.

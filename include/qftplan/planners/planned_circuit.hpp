@@ -34,6 +34,9 @@ class PlannedCircuit {
   /// Rotations kept when the stream carries them inside other gates (the parity network has no
   /// controlled phase: each kept rotation is the phase of one parity step); nullopt: count the cp gates.
   virtual std::optional<long long> rotations_inside_gates() const { return std::nullopt; }
+  /// True when emit() measures every register qubit itself (the semi-classical form, whose
+  /// measurements come mid-circuit): then no final measurement is appended.
+  virtual bool measures_itself() const { return false; }
   /// The transform the circuit carries out (its degree filled in).
   const QftSpec& spec() const { return spec_; }
   /// Where the register's bits start and end.
@@ -60,6 +63,12 @@ class PlannedCircuit {
 /// between line neighbours listed in `detours` run along their detour paths (sinks/detour_sink.hpp).
 std::shared_ptr<const PlannedCircuit> make_line_circuit(const QftSpec& spec, std::shared_ptr<const QftNetwork> network,
                                                         std::vector<int> line, std::vector<Detour> detours = {});
+
+/// The semi-classical measured QFT of `spec` (Griffiths and Niu 1996) on the register qubits
+/// `placement` (placement[k] holds input bit k): round k = 0 .. n-1 works on placement[n-1-k], applying
+/// for every earlier outcome c[m] with 0 < k - m <= spec.max_distance() the phase spec.rotation(k - m)
+/// conditioned on c[m], then h, then measures it into c[k] (output bit k, weight 2^k).
+std::shared_ptr<const PlannedCircuit> make_semiclassical_circuit(const QftSpec& spec, std::vector<int> placement);
 
 /// A gate list with its maps (the routed and cover strategies); `network` is the name the report gives.
 std::shared_ptr<const PlannedCircuit> make_gate_list_circuit(const QftSpec& spec, RoutedCircuit circuit,

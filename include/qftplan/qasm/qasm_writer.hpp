@@ -37,6 +37,9 @@ struct CircuitHeader {
   std::vector<int> placement;
   std::vector<int> final_placement;
   int measured_bits = 0;             ///< > 0: declare a bit register of this size
+  /// Mid-circuit measurements with conditioned phases (the semi-classical readout): OpenQASM 2, whose
+  /// `if` compares a whole register, then gets one one-bit register per bit, c0 .. c{n-1}.
+  bool conditioned = false;
 };
 
 /// Writes gates as OpenQASM text. Version 3 addresses physical qubits as $k with stdgates.inc
@@ -63,6 +66,7 @@ class QasmWriter final : public GateSink {
   TextOutput& out_;
   std::vector<char> buf_;
   std::size_t len_ = 0;
+  bool bit_registers_ = false;  // OpenQASM 2 with conditioned phases: one register c{k}[1] per bit
   std::string angle2_;  // an OpenQASM 2 angle (its denominator can have thousands of digits)
   // Each gate names one or two qubits and most angles are +-pi/2^k, so their texts are made once:
   // 16-byte slots holding the length then the characters ("$17", "q[17]"; "pi/2**5", "-pi/2**5").

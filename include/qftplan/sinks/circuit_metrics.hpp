@@ -51,6 +51,10 @@ class MetricsSink final : public GateSink {
   // two-qubit layer.
   void add(const Gate& g) {
     ++counts_[static_cast<int>(g.kind)];
+    if (uses_bit(g.kind) && g.q1 >= 0) {
+      classical(g);
+      return;
+    }
     const bool two = is_two_qubit(g.kind);
     const int a = g.q0, b = two ? g.q1 : g.q0;
     step(two, level_[a], level_[b], level_2q_[a], level_2q_[b]);
@@ -67,6 +71,16 @@ class MetricsSink final : public GateSink {
     const long long l2 = std::max(ma, mb) + (two ? 1 : 0);
     ma = mb = l2;
   }
+  // A measurement or a conditioned phase: the layer also follows the bit it writes or reads (a
+  // conditioned gate comes after the measurement it depends on).
+  void classical(const Gate& g) {
+    const auto b = static_cast<std::size_t>(g.q1);
+    if (bit_level_.size() <= b) bit_level_.resize(b + 1, 0);
+    const long long l = std::max(level_[g.q0], bit_level_[b]) + 1;
+    level_[g.q0] = l;
+    if (g.kind == GateKind::measure) bit_level_[b] = l;
+  }
+  std::vector<long long> bit_level_;  // layer of the measurement that last wrote each bit
   std::array<long long, kGateKindCount> counts_{};
   bool unfused_;
   std::vector<long long> level_, level_2q_, level_unfused_;  // per qubit; level_ > 0 iff used

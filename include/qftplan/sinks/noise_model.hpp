@@ -21,6 +21,14 @@
 ///                    (1 - e^(-t/T1)) / 4, p_z = (1 - e^(-t/T2)) / 2 - (1 - e^(-t/T1)) / 4).
 ///   esp_readout    = product over measured qubits of (1 - error_readout); 1 when not measured.
 ///   esp_total      = esp * esp_idle * esp_readout, the headline figure every automatic choice maximises.
+///
+/// Dynamic circuits (the semi-classical readout, `mid_circuit` set): a measurement of qubit q starts when
+/// q is free and takes its duration_readout_ns; afterwards q holds no information (it idles no more). A
+/// phase conditioned on bit b (p_if) is a frame change like p (no error, no time) that starts no earlier
+/// than feed_forward_ns (of the measured qubit) after the measurement writing b ends; the qubit waits
+/// until then, and that wait is an idle interval as above. duration_ns ends when the last measurement
+/// starts: as in the unitary plans, whose final measurements are not scheduled, the last readout itself
+/// is not counted, so the two durations (and idle times) compare.
 
 #include <span>
 #include <vector>
@@ -55,7 +63,9 @@ double log_idle_fidelity(double t_ns, double t1_us, double t2_us);
 class NoiseSink final : public GateSink {
  public:
   /// `register_qubits`: the physical qubits holding the register from the start.
-  NoiseSink(const Device& device, std::vector<int> register_qubits);
+  /// `mid_circuit`: measurements are scheduled as in a dynamic circuit (see above); otherwise they are
+  /// the final readout and only their errors count.
+  NoiseSink(const Device& device, std::vector<int> register_qubits, bool mid_circuit = false);
   void gate(const Gate& g) override { add(g); }
   void batch(std::span<const Gate> run) override;
   /// What a program costs in this model, found once per program: its timed one-qubit gates (h, x,
@@ -85,7 +95,15 @@ class NoiseSink final : public GateSink {
   void step(GateKind k, int qa, int qb, int ci);
   // `q` waits `gap_ns` before its next gate (or the end): counted when it holds information.
   void idle(int q, double gap_ns);
-  bool holds(int q) const { return first_use_[q] >= 0 || in_register_[q]; }
+  bool holds(int q) const { return (first_use_[q] >= 0 || in_register_[q]) && !measured_q_[q]; }
+  // A measurement (mid-circuit) and a phase conditioned on a bit.
+  void measure_now(const Gate& g);
+  void conditioned(const Gate& g);
+  bool mid_circuit_ = false;
+  std::vector<char> measured_q_;      // measured mid-circuit: holds no information any more
+  std::vector<double> not_before_;    // earliest start of each qubit's next timed gate (its corrections' outcomes known)
+  std::vector<double> bit_ready_;     // earliest start of a gate conditioned on each bit, ns
+  void start_timed(int q);
   int coupler_of(int a, int b);
   const Device& dev_;
   std::vector<int> register_;

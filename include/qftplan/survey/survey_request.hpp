@@ -45,6 +45,8 @@ struct SurveyRequest {
   std::vector<ApproxSetting> approx{ApproxSetting{}};  ///< --approx settings, in the order given
   std::vector<bool> directions{false};    ///< false: forward QFT, true: inverse
   std::vector<std::string> strategies{"auto"};  ///< names from plan_strategies()
+  bool measure = false;                   ///< every run ends in a measurement (plan --measure)
+  std::string readout = "auto";           ///< with measure: unitary, semiclassical or auto (plan --readout)
   std::uint64_t seed = 1;                 ///< seed of every randomised search
   std::optional<CalibrationProfile> calibration;  ///< --calibration: applied to every device of the survey
   std::optional<double> time_limit;      ///< seconds per run; a run cut short keeps its best plan
