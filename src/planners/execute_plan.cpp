@@ -12,17 +12,11 @@ namespace {
 
 // The chosen strategy's row of the comparison gets the report's own figures (the same plan), also
 // when it was the only strategy that could plan and so was never streamed for a comparison.
-void fill_chosen_outcome(PlanReport& r) {
+void fill_chosen_outcome(PlanReport& r, const CircuitFigures& f) {
   for (auto& o : r.alternatives)
     if (o.ok && o.strategy == r.strategy) {
-      o.cx_count = r.cx_count;
-      o.depth_2q = r.depth_2q;
-      o.cx_depth = r.cx_depth;
-      o.swaps = r.swaps;
-      o.log_esp = r.noise.log_esp;
-      o.log_esp_total = r.noise.log_esp_total;
+      fill_figures(o, f);
       o.log_readout_success = r.approx.log_readout_success;
-      o.duration_ns = r.noise.duration_ns;
     }
 }
 
@@ -71,7 +65,7 @@ PlanReport assemble_report(const Device& device, const PlanOptions& options, con
   // no two-qubit gate, and the bounds of the unitary transform do not apply.
   if (plan.circuit->measures_itself()) r.lower_bound_blocks = r.lower_bound_depth_2q = 0;
   r.alternatives = plan.alternatives;
-  fill_chosen_outcome(r);
+  fill_chosen_outcome(r, f);
   r.end_order = end_order_name(options.end_order);
   r.end_swaps = plan.end_swaps;
   r.seed = options.search.seed;
