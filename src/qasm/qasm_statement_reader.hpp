@@ -60,8 +60,8 @@ class StatementReader : protected ExpressionReader {
   /// Reads `size` bytes at `data` (named `source` in messages); polls `interrupt` when given.
   StatementReader(const char* data, std::size_t size, const std::string& source, const std::atomic<bool>* interrupt,
                   QasmGateStream* stream = nullptr)
-      : ExpressionReader(data, size, source), interrupt_(interrupt), stream_(stream),
-        limit_(stream ? kMaxStreamedGates : kMaxGates) {}
+      : ExpressionReader(data, size, source), stream_(stream), limit_(stream ? kMaxStreamedGates : kMaxGates),
+        interrupt_(interrupt) {}
 
   /// Reads every statement; throws InputError at the first fault.
   QasmProgram run();

@@ -12,7 +12,7 @@ namespace qftplan {
 
 NativePeephole::NativePeephole(TwoQubitGate target, int qubits, MetricsSink& metrics, NoiseSink& noise,
                                GateSink* writer)
-    : target_(target), metrics_(metrics), noise_(noise), writer_(writer), stacks_(qubits), scratch_dec_(target, scratch_) {
+    : metrics_(metrics), noise_(noise), writer_(writer), stacks_(qubits), scratch_dec_(target, scratch_) {
   if (writer_) written_.emplace(*writer_);
   for (int z = 0; z < 2; ++z)
     for (int k = 0; k < kGateKindCount; ++k) {

@@ -147,7 +147,6 @@ class NativePeephole final : public GateSink {
   void send(const Gate& native);
   const std::vector<Gate>& decompose(const Gate& g);  // valid until the next call
 
-  TwoQubitGate target_;
   Program programs_[2][kGateKindCount];
   MetricsSink& metrics_;
   NoiseSink& noise_;
