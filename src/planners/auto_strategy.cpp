@@ -29,6 +29,11 @@ std::string reason_to_skip(const StrategyInfo& s, const std::vector<Candidate>& 
       std::any_of(prepared.begin(), prepared.end(), [](const Candidate& c) { return c.plan.strategy == "chain"; });
   // The spine is for registers no chain holds: when the chain strategy planned, it is not needed.
   if (name == "spine" && chain_planned) return "not needed: a chain holds the register";
+  // The cover strategy's bound (about 3n^2 CX) is above a chain's n^2 - 1: beside a chain it is only compared on
+  // registers the router would be compared on too (it costs O(n^2) memory to plan).
+  if (name == "cover" && chain_planned && options.spec.qubits > kRoutedCompareLimit)
+    return fmt::format("not tried: registers above {} qubits use the cover strategy only when no chain exists",
+                       kRoutedCompareLimit);
   // The router costs O(n^2) SWAP decisions: as a comparison it runs only on registers of at most
   // kRoutedCompareLimit qubits; beyond that it runs only when nothing structured could plan.
   if (name == "routed" && !prepared.empty() && options.spec.qubits > kRoutedCompareLimit)

@@ -1,6 +1,7 @@
 // The text parsers of planning settings and the checks every strategy shares.
 
 #include <algorithm>
+#include <cmath>
 
 #include <fmt/format.h>
 
@@ -184,6 +185,13 @@ CountSettings count_settings(const PlanOptions& options, GateSet gates) {
 }
 
 bool better_by_objective(const StrategyOutcome& a, const StrategyOutcome& b, Objective objective) {
+  // Scores within 1e-12 (relative) are a tie, as in the degree choice: on a device without errors every
+  // plan has esp_total 1, and a readout success of 1 - 1e-13 is no reason to take 20 times the CX.
+  if (objective == Objective::esp) {
+    const double sa = plan_log_score(a.log_esp_total, a.log_readout_success);
+    const double sb = plan_log_score(b.log_esp_total, b.log_readout_success);
+    if (std::abs(sa - sb) <= 1e-12) return std::make_pair(a.cx_count, a.cx_depth) < std::make_pair(b.cx_count, b.cx_depth);
+  }
   auto key = [objective](const StrategyOutcome& x) {
     switch (objective) {
       case Objective::esp:
