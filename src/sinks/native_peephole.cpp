@@ -236,17 +236,7 @@ void NativePeephole::send(const Gate& native) {
 }
 
 void NativePeephole::finish() {
-  std::vector<std::pair<std::uint64_t, int>> held;
-  for (int q = 0; q < static_cast<int>(stacks_.size()); ++q) {
-    const Stack& s = stacks_[q];
-    for (int i = 0; i < s.size; ++i) {
-      const Slot& slot = s.slot[(s.head + i) % kDepth];
-      if (slot.g.q0 == q) held.emplace_back(slot.seq, q);
-    }
-  }
-  std::sort(held.begin(), held.end());
-  for (const auto& [seq, q] : held)
-    while (stacks_[q].size > 0 && stacks_[q].bottom().seq <= seq) emit_bottom(q);
+  release_oldest_first(stacks_, [this](int q) { emit_bottom(q); });
   metrics_.finish();
   noise_.finish();
   if (written_) {

@@ -116,18 +116,7 @@ void PeepholePass::emit_bottom(int q) {
 }
 
 void PeepholePass::finish() {
-  // What is held goes out oldest first (each gate after those it depends on, as in the input).
-  std::vector<std::pair<std::uint64_t, int>> held;
-  for (int q = 0; q < static_cast<int>(stacks_.size()); ++q) {
-    const Stack& s = stacks_[q];
-    for (int i = 0; i < s.size; ++i) {
-      const Slot& slot = s.slot[(s.head + i) % kDepth];
-      if (slot.g.q0 == q) held.emplace_back(slot.seq, q);
-    }
-  }
-  std::sort(held.begin(), held.end());
-  for (const auto& [seq, q] : held)
-    while (stacks_[q].size > 0 && stacks_[q].bottom().seq <= seq) emit_bottom(q);
+  release_oldest_first(stacks_, [this](int q) { emit_bottom(q); });
   out_.flush();
   out_.out().finish();
 }

@@ -3,9 +3,12 @@
 /// The peephole pass on a native gate stream: gates that meet on their qubits with nothing between
 /// them there and together do nothing are removed, streaming, with a bounded state per qubit.
 
+#include <algorithm>
 #include <cstdint>
+#include <iterator>
 #include <optional>
 #include <span>
+#include <utility>
 #include <vector>
 
 #include "qftplan/core/gate.hpp"
@@ -15,6 +18,41 @@
 #include "qftplan/sinks/noise_model.hpp"
 
 namespace qftplan {
+
+/// The gates held on one qubit by a peephole sink, oldest first, in a small ring of `Depth` slots stored
+/// inline (a gate touches only the rings of its own qubits). `Slot` has a `Gate g` and a `seq`, its place
+/// in the input (a two-qubit gate is held on both its qubits' rings as one gate: the same seq).
+template <class Slot, int Depth>
+struct HeldRing {
+  Slot slot[Depth];
+  std::uint8_t head = 0;  // index of the oldest
+  std::uint8_t size = 0;
+  Slot& top() { return slot[(head + size - 1) % Depth]; }
+  Slot& bottom() { return slot[head]; }
+  void push(const Slot& s) { slot[(head + size++) % Depth] = s; }
+  void pop_top() { --size; }
+  void pop_bottom() {
+    head = static_cast<std::uint8_t>((head + 1) % Depth);
+    --size;
+  }
+};
+
+/// Sends everything `rings` hold, oldest first (each gate after those it depends on, as in the input):
+/// `emit_bottom(q)` sends the oldest gate held on qubit q (and whatever it must wait for).
+template <class Ring, class EmitBottom>
+void release_oldest_first(std::vector<Ring>& rings, EmitBottom emit_bottom) {
+  std::vector<std::pair<std::uint64_t, int>> held;
+  for (int q = 0; q < static_cast<int>(rings.size()); ++q) {
+    const Ring& r = rings[q];
+    for (int i = 0; i < r.size; ++i) {
+      const auto& s = r.slot[(r.head + i) % std::size(r.slot)];
+      if (s.g.q0 == q) held.emplace_back(s.seq, q);
+    }
+  }
+  std::sort(held.begin(), held.end());
+  for (const auto& [seq, q] : held)
+    while (rings[q].size > 0 && rings[q].bottom().seq <= seq) emit_bottom(q);
+}
 
 /// Removes from a stream of gates, as they arrive:
 ///   - two equal self-inverse gates adjacent on their qubits: h h, x x, cx a,b cx a,b (same control and
@@ -53,21 +91,7 @@ class PeepholePass final : public GateSink {
     Gate g;
     std::uint64_t seq = 0;
   };
-  // The gates held on one qubit, oldest first, in a small ring (stored inline: a gate touches only
-  // the stacks of its own qubits).
-  struct Stack {
-    Slot slot[kDepth];
-    std::uint8_t head = 0;  // index of the oldest
-    std::uint8_t size = 0;
-    Slot& top() { return slot[(head + size - 1) % kDepth]; }
-    Slot& bottom() { return slot[head]; }
-    void push(const Slot& s) { slot[(head + size++) % kDepth] = s; }
-    void pop_top() { --size; }
-    void pop_bottom() {
-      head = static_cast<std::uint8_t>((head + 1) % kDepth);
-      --size;
-    }
-  };
+  using Stack = HeldRing<Slot, kDepth>;
   void add(const Gate& g);
   bool try_cancel(const Gate& g);
   void push(const Gate& g);
@@ -106,19 +130,7 @@ class NativePeephole final : public GateSink {
     std::uint64_t seq = 0;
     bool block = false;  // a logical gate held whole
   };
-  struct Stack {
-    Slot slot[kDepth];
-    std::uint8_t head = 0;
-    std::uint8_t size = 0;
-    Slot& top() { return slot[(head + size - 1) % kDepth]; }
-    Slot& bottom() { return slot[head]; }
-    void push(const Slot& s) { slot[(head + size++) % kDepth] = s; }
-    void pop_top() { --size; }
-    void pop_bottom() {
-      head = static_cast<std::uint8_t>((head + 1) % kDepth);
-      --size;
-    }
-  };
+  using Stack = HeldRing<Slot, kDepth>;
   // A kind's native program and where each slot's first and last step are (-1: slot unused).
   // The first or last step of a program on one slot.
   struct End {
