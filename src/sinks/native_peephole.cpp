@@ -2,7 +2,6 @@
 // held whole where nothing can pair with them (see peephole.hpp).
 
 #include <algorithm>
-#include <stdexcept>
 
 #include "qftplan/sinks/circuit_metrics.hpp"
 #include "qftplan/sinks/native_gates.hpp"
@@ -140,39 +139,16 @@ bool NativePeephole::try_cancel(const Gate& g) {
   if (s0.size == 0) return false;
   Slot& p = s0.top();
   if (p.block || p.g.kind != g.kind) return false;
-  if (is_two_qubit(g.kind)) {
-    Stack& s1 = stacks_[g.q1];
-    if (s1.size == 0 || s1.top().seq != p.seq) return false;
-  }
-  switch (g.kind) {
-    case GateKind::h:
-    case GateKind::x:
-    case GateKind::cz:
-    case GateKind::swap: break;
-    case GateKind::cx:
-      if (p.g.q0 != g.q0) return false;
+  if (is_two_qubit(g.kind) && (stacks_[g.q1].size == 0 || stacks_[g.q1].top().seq != p.seq)) return false;
+  switch (pair_rewrite(p.g, g)) {
+    case PairRewrite::none: return false;
+    case PairRewrite::merged: ++removed_; return true;
+    case PairRewrite::merged_to_zero: s0.pop_top(); break;
+    case PairRewrite::cancel:
+      s0.pop_top();
+      if (is_two_qubit(g.kind)) stacks_[g.q1].pop_top();
       break;
-    case GateKind::rz:
-    case GateKind::p: {
-      Angle sum;
-      try {
-        sum = p.g.angle + g.angle;
-      } catch (const std::overflow_error&) {
-        return false;
-      }
-      p.g.angle = sum;
-      ++removed_;
-      if (sum.is_zero()) {
-        s0.pop_top();
-        ++removed_;
-      }
-      return true;
-    }
-    default: return false;
   }
-  const int q1 = g.q1;
-  s0.pop_top();
-  if (is_two_qubit(g.kind)) stacks_[q1].pop_top();
   removed_ += 2;
   return true;
 }

@@ -5,6 +5,30 @@
 
 namespace qftplan {
 
+PairRewrite pair_rewrite(Gate& held, const Gate& g) {
+  if (held.kind != g.kind) return PairRewrite::none;
+  switch (g.kind) {
+    case GateKind::h:
+    case GateKind::x:
+    case GateKind::cz:  // symmetric: held is the last gate on both of g's qubits, so on the same pair
+    case GateKind::swap: return PairRewrite::cancel;
+    case GateKind::cx:   // control and target swapped is another gate
+      return held.q0 == g.q0 ? PairRewrite::cancel : PairRewrite::none;
+    case GateKind::rz:
+    case GateKind::p: {
+      Angle sum;
+      try {
+        sum = held.angle + g.angle;
+      } catch (const std::overflow_error&) {
+        return PairRewrite::none;  // denominators 2^62 apart: keep both as they are
+      }
+      held.angle = sum;
+      return sum.is_zero() ? PairRewrite::merged_to_zero : PairRewrite::merged;
+    }
+    default: return PairRewrite::none;
+  }
+}
+
 PeepholePass::PeepholePass(int qubits, GateSink& out) : stacks_(qubits), out_(out) {}
 
 void PeepholePass::batch(std::span<const Gate> run) {
@@ -25,39 +49,14 @@ bool PeepholePass::try_cancel(const Gate& g) {
   if (s0.size == 0) return false;
   Slot& p = s0.top();
   if (p.g.kind != g.kind) return false;
-  if (is_two_qubit(g.kind)) {
-    // Both operands must have the same last gate: nothing on either qubit in between.
-    const Stack& s1 = stacks_[g.q1];
-    if (s1.size == 0 || stacks_[g.q1].slot[(s1.head + s1.size - 1) % kDepth].seq != p.seq) return false;
+  // Both operands must have the same last gate: nothing on either qubit in between.
+  if (is_two_qubit(g.kind) && (stacks_[g.q1].size == 0 || stacks_[g.q1].top().seq != p.seq)) return false;
+  switch (pair_rewrite(p.g, g)) {
+    case PairRewrite::none: return false;
+    case PairRewrite::merged: ++removed_; return true;
+    case PairRewrite::merged_to_zero: s0.pop_top(); break;
+    case PairRewrite::cancel: drop_top(p.g); break;
   }
-  switch (g.kind) {
-    case GateKind::h:
-    case GateKind::x:
-    case GateKind::cz:    // symmetric: p is the last gate on both of g's qubits, so on the same pair
-    case GateKind::swap:
-      break;
-    case GateKind::cx:
-      if (p.g.q0 != g.q0) return false;  // control and target swapped is another gate
-      break;
-    case GateKind::rz:
-    case GateKind::p: {
-      Angle sum;
-      try {
-        sum = p.g.angle + g.angle;
-      } catch (const std::overflow_error&) {
-        return false;  // denominators 2^62 apart (never in a QFT): keep both as they are
-      }
-      p.g.angle = sum;
-      ++removed_;
-      if (sum.is_zero()) {
-        s0.pop_top();
-        ++removed_;
-      }
-      return true;
-    }
-    default: return false;
-  }
-  drop_top(p.g);
   removed_ += 2;
   return true;
 }

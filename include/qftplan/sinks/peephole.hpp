@@ -19,6 +19,13 @@
 
 namespace qftplan {
 
+/// What the peephole rewrites make of gate `g` arriving right after `held`, the last gate on every qubit
+/// of `g`: `none`; `cancel` (a self-inverse pair: h h, x x, cx cx with the same control, cz cz, swap swap);
+/// `merged` (rz rz or p p: `held` now carries the exact sum of the angles); `merged_to_zero` (the sum is
+/// 0 mod 2 pi: both go). Angles whose denominators are 2^62 apart (never in a QFT) are left unmerged.
+enum class PairRewrite { none, cancel, merged, merged_to_zero };
+PairRewrite pair_rewrite(Gate& held, const Gate& g);
+
 /// The gates held on one qubit by a peephole sink, oldest first, in a small ring of `Depth` slots stored
 /// inline (a gate touches only the rings of its own qubits). `Slot` has a `Gate g` and a `seq`, its place
 /// in the input (a two-qubit gate is held on both its qubits' rings as one gate: the same seq).
