@@ -27,7 +27,7 @@ import re
 import numpy as np
 import yaml
 
-from qasm_sim import parse
+from qasm_sim import one_qubit_matrix, parse
 
 DEFAULT_1Q_NS = 35.0   # README "Device files": the gate times used when a file gives none
 DEFAULT_2Q_NS = 300.0
@@ -80,45 +80,19 @@ def measured_qubits(text):
 def schedule(gates, cal, register):
     """The ASAP schedule of the gate list as events in order: ("gate", name, qubits, angle, error) and
     ("idle", qubit, t_ns); the idle intervals of qubits that hold information (register qubits from time 0,
-    others from their first gate), including each holding qubit's wait until the end."""
-    ready, holds, events = {}, set(register), []
-
-    def wait(q, gap):
-        if gap > 0 and q in holds:
-            events.append(("idle", q, gap))
-
-    for name, qs, angle in gates:
-        if len(qs) == 2:
-            error, dur = cal.pair(*qs)
-            t = max(ready.get(q, 0.0) for q in qs)
-            for q in qs:
-                wait(q, t - ready.get(q, 0.0))
-                holds.add(q)
-                ready[q] = t + dur
-            events.append(("gate", name, qs, angle, error))
-        else:
-            q = qs[0]
-            holds.add(q)
-            if name in TIMED_1Q:
-                c = cal.of(q)
-                ready[q] = ready.get(q, 0.0) + c["duration_1q_ns"]
-                events.append(("gate", name, qs, angle, c["error_1q"]))
-            else:
-                events.append(("gate", name, qs, angle, 0.0))
-    end = max(ready.values(), default=0.0)
-    for q in sorted(holds):
-        wait(q, end - ready.get(q, 0.0))
+    others from their first gate), including each holding qubit's wait until the end. Returns (events, end)."""
+    events, end, _ = schedule_dynamic([("gate", name, qs, angle) for name, qs, angle in gates], cal, register)
     return events, end
 
 
 def schedule_dynamic(ops, cal, register):
-    """The schedule of a semi-classical file (qasm_sim.parse_dynamic ops) as README "What the numbers mean"
-    defines it for dynamic circuits: a measurement starts when its qubit is free, takes the qubit's
-    duration_readout_ns, and ends the qubit's idling; a phase conditioned on a bit takes no time, but the
-    qubit's next timed gate (or measurement) waits until feed_forward_ns (of the measured qubit) after that
-    bit's measurement ended, one idle interval; the last measurement's own length is not scheduled.
-    Returns (events, end, measured qubits) like schedule(), the events also holding ("measure", qubit, bit)
-    and the conditioned phases ("if", bit, name, qubits, angle) in order."""
+    """The schedule of any file (qasm_sim.parse_dynamic ops), as schedule() for gates, and for dynamic
+    circuits as README "What the numbers mean" defines it: a measurement starts when its qubit is free, takes
+    the qubit's duration_readout_ns, and ends the qubit's idling; a phase conditioned on a bit takes no time,
+    but the qubit's next timed gate (or measurement) waits until feed_forward_ns (of the measured qubit) after
+    that bit's measurement ended, one idle interval; the last measurement's own length is not scheduled.
+    Returns (events, end, measured qubits), the events also holding ("measure", qubit, bit) and the
+    conditioned phases ("if", bit, name, qubits, angle) in order."""
     ready, not_before, bit_ready, holds, events, measured = {}, {}, {}, set(register), [], []
 
     def wait(q, gap):
@@ -144,10 +118,21 @@ def schedule_dynamic(ops, cal, register):
             q = op[3][0]
             not_before[q] = max(not_before.get(q, 0.0), bit_ready[op[1]])
             events.append(op)
+        elif len(op[2]) == 2:
+            name, qs, angle = op[1], op[2], op[3]
+            for q in qs:
+                start(q)
+            error, dur = cal.pair(*qs)
+            t = max(ready.get(q, 0.0) for q in qs)
+            for q in qs:
+                wait(q, t - ready.get(q, 0.0))
+                holds.add(q)
+                ready[q] = t + dur
+            events.append(("gate", name, qs, angle, error))
         else:
             name, qs, angle = op[1], op[2], op[3]
-            assert len(qs) == 1, "a semi-classical file has no two-qubit gate"
             q = qs[0]
+            holds.add(q)
             if name in TIMED_1Q:
                 start(q)
                 c = cal.of(q)
@@ -180,27 +165,17 @@ def no_error_probability(events, cal, measured):
     return gates, idle, readout
 
 
-_H = np.array([[1, 1], [1, -1]], dtype=complex) / math.sqrt(2)
-_X = np.array([[0, 1], [1, 0]], dtype=complex)
+_X = one_qubit_matrix("x", None)
 _Y = np.array([[0, -1j], [1j, 0]], dtype=complex)
 _Z = np.diag([1.0, -1.0]).astype(complex)
-_SX = np.array([[1 + 1j, 1 - 1j], [1 - 1j, 1 + 1j]], dtype=complex) / 2
 PAULIS = [np.eye(2, dtype=complex), _X, _Y, _Z]
 
 
 def gate_matrix(name, angle):
     """The gate's matrix (OpenQASM 3 specification, standard library; two-qubit gates as 4x4 on
-    (first, second) with the first qubit the more significant)."""
-    if name == "h":
-        return _H
-    if name == "x":
-        return _X
-    if name == "sx":
-        return _SX
-    if name == "rz":
-        return np.diag([np.exp(-0.5j * angle), np.exp(0.5j * angle)])
-    if name in ("p", "u1", "phase"):
-        return np.diag([1, np.exp(1j * angle)])
+    (first, second) with the first qubit the more significant); one-qubit gates as qasm_sim reads them."""
+    if name in ("h", "x", "sx", "rz", "p", "u1", "phase"):
+        return one_qubit_matrix(name, angle)
     if name in ("cx", "CX"):
         return np.array([[1, 0, 0, 0], [0, 1, 0, 0], [0, 0, 0, 1], [0, 0, 1, 0]], dtype=complex)
     if name == "cz":

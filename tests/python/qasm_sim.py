@@ -71,13 +71,17 @@ def parse(text):
 
 _H = np.array([[1, 1], [1, -1]], dtype=complex) / math.sqrt(2)
 _X = np.array([[0, 1], [1, 0]], dtype=complex)
+_SX = np.array([[1 + 1j, 1 - 1j], [1 - 1j, 1 + 1j]], dtype=complex) / 2
 
 
-def _one_qubit(name, angle):
+def one_qubit_matrix(name, angle):
+    """The matrix of a one-qubit gate of the OpenQASM standard library (sx = sqrt(x))."""
     if name == "h":
         return _H
     if name == "x":
         return _X
+    if name == "sx":
+        return _SX
     if name == "rz":
         return np.diag([np.exp(-0.5j * angle), np.exp(0.5j * angle)])
     if name in ("p", "u1", "phase"):
@@ -96,7 +100,7 @@ class Simulator:
     def apply(self, name, qs, angle):
         psi = self.psi
         if len(qs) == 1:
-            u = _one_qubit(name, angle)
+            u = one_qubit_matrix(name, angle)
             self.psi = np.moveaxis(np.tensordot(u, psi, axes=([1], [qs[0]])), 0, qs[0])
             return
         a, b = qs
