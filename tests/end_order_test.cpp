@@ -2,7 +2,6 @@
 // facts from Knuth (TAOCP vol. 3), circuits simulated against FFTW with the identity map, and every
 // plan passed through the checker with final == initial.
 
-#include <fftw3.h>
 #include <gtest/gtest.h>
 
 #include <algorithm>
@@ -21,6 +20,7 @@
 #include "qftplan/networks/end_order.hpp"
 #include "qftplan/networks/qft_network.hpp"
 #include "qftplan/planners/plan.hpp"
+#include "plan_simulation.hpp"
 #include "test_support.hpp"
 
 namespace qftplan {
@@ -84,25 +84,6 @@ TEST(EndOrder, OddEvenSortIsOptimalAndLayered) {
     EXPECT_TRUE(std::is_sorted(v.begin(), v.end()));
     EXPECT_EQ(swaps, brute_inversions(keys));
   }
-}
-
-// QFT matrix column j from FFTW's backward transform, Y[y] = sum_j X[j] exp(+2 pi i j y / N) (FFTW
-// manual, section 4.8 "What FFTW Really Computes"), over sqrt(N): Nielsen & Chuang (2000), eq. 5.2.
-// The forward transform gives the inverse QFT.
-std::vector<std::vector<cd>> fftw_qft(int n, bool inverse) {
-  const int N = 1 << n;
-  std::vector<std::vector<cd>> m(N, std::vector<cd>(N));
-  std::vector<cd> in(N), out(N);
-  fftw_plan p = fftw_plan_dft_1d(N, reinterpret_cast<fftw_complex*>(in.data()), reinterpret_cast<fftw_complex*>(out.data()),
-                                 inverse ? FFTW_FORWARD : FFTW_BACKWARD, FFTW_ESTIMATE);
-  for (int j = 0; j < N; ++j) {
-    std::fill(in.begin(), in.end(), cd{});
-    in[j] = 1;
-    fftw_execute(p);
-    for (int y = 0; y < N; ++y) m[j][y] = out[y] / std::sqrt(double(N));
-  }
-  fftw_destroy_plan(p);
-  return m;
 }
 
 // The approximate QFT of degree M from its definition: of the phase 2 pi sum_{a,b} j_a y_b 2^(a+b-n)
@@ -368,7 +349,7 @@ TEST_P(SamePlans, AreTheTransformWithTheIdentityMap) {
   prog.gate_lines.assign(out.gates.size(), 0);
   const CheckResult res = check_qft_circuit(dev, prog, CheckRequest{opt.spec, r.placement, r.placement});
   EXPECT_TRUE(res.ok) << res.message;
-  const auto want = opt.spec.effectively_exact() ? fftw_qft(c.n, c.inverse) : aqft(c.n, *c.approx, c.inverse);
+  const auto want = opt.spec.effectively_exact() ? testing::fftw_qft_matrix(c.n, c.inverse) : aqft(c.n, *c.approx, c.inverse);
   EXPECT_LT(identity_map_distance(out.gates, r.placement, want), 1e-9);
   // The free plan of the same request costs no more than this one minus its restoring SWAPs' 3 CX each
   // at most (merged SWAPs cost less); with no SWAPs added the plans are the same size.
