@@ -382,9 +382,8 @@ void plan_input(std::string_view data) {
     opt.placement = pin;
   }
   // Read last, so that inputs saved before it decode as they did (an exhausted reader gives 0: auto).
-  const NetworkChoice networks[] = {NetworkChoice::automatic, NetworkChoice::reversal, NetworkChoice::anchored,
-                                    NetworkChoice::leapfrog, NetworkChoice::parity};
-  opt.network = networks[r.below(5)];
+  const auto networks = network_choices();
+  opt.network = networks[r.below(static_cast<int>(networks.size()))];
   // Parts out of service (read after everything else, for the same reason): a disabled qubit, a disabled
   // coupler, a coupler of error 1. No plan may touch them; the checker refuses any gate that does. Behind
   // a marker byte, so that saved inputs with trailing bytes almost always keep their old meaning.

@@ -190,7 +190,7 @@ void bind_plan(py::module_& m) {
         "  strategy    a planning strategy name ('auto', 'chain', ...)\n"
         "  objective   what strategy 'auto' optimises: 'esp' (esp_total), 'depth' (native two-qubit depth),\n"
         "              'duration' (schedule length, ns) or 'cx' (native two-qubit gates)\n"
-        "  network     chain network: 'auto', 'reversal', 'anchored', 'leapfrog' or 'parity'\n"
+        "  network     chain network: 'auto', 'reversal', 'anchored', 'leapfrog', 'insertion' or 'parity'\n"
         "  format      'qasm3' or 'qasm2' (or 3, 2) for the text\n"
         "  circuit     False: report only, no text kept (for very large registers)\n"
         "  time_limit  seconds; when it runs out the best plan so far is returned with a RuntimeWarning\n"

@@ -43,8 +43,10 @@ TEST(NetworkExactness, EveryNetworkAtEverySizeUpTo130) {
     if (n >= 4) {
       QftSpec approx = exact;
       approx.approx_degree = std::min(n - 1, 8);
-      const CheckResult r = write_read_prove(approx, NetworkChoice::leapfrog, QasmVersion::v3, GateSet::cx);
-      ASSERT_TRUE(r.ok) << "leapfrog n=" << n << ": " << r.message;
+      for (NetworkChoice net : {NetworkChoice::leapfrog, NetworkChoice::insertion}) {
+        const CheckResult r = write_read_prove(approx, net, QasmVersion::v3, GateSet::cx);
+        ASSERT_TRUE(r.ok) << network_choice_name(net) << " n=" << n << ": " << r.message;
+      }
     }
   }
 }
@@ -66,12 +68,14 @@ TEST(NetworkExactness, PeepholeOutputIsProvedStructurally) {
     const Device dev = make_lattice("line:" + std::to_string(n));
     for (GateSet gates : {GateSet::cx, GateSet::cz})
       for (bool inverse : {false, true})
-        for (NetworkChoice net : {NetworkChoice::reversal, NetworkChoice::anchored, NetworkChoice::parity, NetworkChoice::leapfrog}) {
-          if (net == NetworkChoice::leapfrog && n < 4) continue;
+        for (NetworkChoice net : {NetworkChoice::reversal, NetworkChoice::anchored, NetworkChoice::parity, NetworkChoice::leapfrog,
+                                  NetworkChoice::insertion}) {
+          const bool approximate = net == NetworkChoice::leapfrog || net == NetworkChoice::insertion;
+          if (approximate && n < 4) continue;
           PlanOptions opt;
           opt.spec.qubits = n;
           opt.spec.inverse = inverse;
-          if (net == NetworkChoice::leapfrog) opt.spec.approx_degree = std::min(n - 1, 5);
+          if (approximate) opt.spec.approx_degree = std::min(n - 1, 5);
           opt.strategy = "chain";
           opt.network = net;
           opt.gates = gates;

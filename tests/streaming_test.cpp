@@ -67,11 +67,11 @@ TEST(Streaming, RewritingSinksGiveTheSameGatesInRunsAsOneByOne) {
   EXPECT_EQ(split_batched.gates, split_single.gates);
 }
 
-TEST(Streaming, LeapfrogStreamedEqualsLeapfrogKept) {
+TEST(Streaming, SimulatedNetworksStreamedEqualKept) {
   for (int n : {5, 17, 64}) {
     for (int d : {1, 2, 5}) {
       if (d >= n - 1) continue;
-      const auto net = make_leapfrog_network(n, d);
+      for (const auto& net : {make_leapfrog_network(n, d), d >= 2 ? make_insertion_network(n, d) : make_leapfrog_network(n, d)}) {
       std::vector<NetworkOp> streamed;
       std::vector<int> sizes;
       net->for_each_chunk([&](std::span<const NetworkOp> ops) {
@@ -93,6 +93,7 @@ TEST(Streaming, LeapfrogStreamedEqualsLeapfrogKept) {
       long long blocks = 0;
       for (const auto& op : kept) blocks += op.kind != NetworkOp::Kind::h;
       EXPECT_EQ(net->block_count(), blocks);
+      }
     }
   }
 }

@@ -76,12 +76,13 @@ NetworkChoice network_by_objective(const Device& device, const QftSpec& spec, co
   const CountSettings settings = count_settings(options, gate_set_of(device.native_2q()));
   NetworkChoice best = NetworkChoice::automatic;
   StrategyOutcome best_figures;
-  for (NetworkChoice c : {NetworkChoice::automatic, NetworkChoice::parity, NetworkChoice::anchored, NetworkChoice::leapfrog}) {
+  for (NetworkChoice c : network_choices()) {
+    if (c == NetworkChoice::reversal) continue;  // never better than the anchored network
     std::shared_ptr<const QftNetwork> net;
     try {
       net = choose_network(spec, options.end_order, c);
     } catch (const InputError&) {
-      continue;  // a network that does not apply to this spec (leapfrog for the exact QFT)
+      continue;  // a network that does not apply to this spec (leapfrog or insertion for the exact QFT)
     }
     StrategyOutcome o;
     fill_figures(o, count_circuit(device, *make_line_circuit(spec, std::move(net), chain), settings, nullptr));

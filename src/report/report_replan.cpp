@@ -90,8 +90,8 @@ ReplannedReport replan_report(const Device& device, const nlohmann::json& report
     opt.search.seed = it->get<std::uint64_t>();
     opt.routing.seed = opt.search.seed;
   }
-  if (network == "reversal" || network == "anchored" || network == "leapfrog" || network == "parity")
-    opt.network = parse_network_choice(network);
+  for (NetworkChoice c : network_choices())
+    if (c != NetworkChoice::automatic && network == network_choice_name(c)) opt.network = c;
   if (const auto it = report.find("end_order"); it != report.end()) {
     if (!it->is_string()) f.fail("field 'end_order' must be text");
     opt.end_order = parse_end_order(it->get<std::string>());
