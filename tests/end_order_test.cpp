@@ -238,6 +238,27 @@ TEST(EndOrder, ReversalNetworkNeedsNoSwaps) {
 // restoring SWAPs always costs more CX here, so `same` plans a network that ends in order: the
 // parity network for n >= 5. Measured (ours): n = 64, M = 4: insertion 695 CX, + 6039 in restoring
 // SWAPs = 6734 CX, reversal 6048 CX, parity 4095.
+// The parity form of the insertion network carries the wires as output differences, so restoring SWAPs
+// cannot be appended as steps: asked for by name with `same` it is refused with a message; the
+// automatic choice plans a fused or parity network instead.
+TEST(EndOrder, ParityInsertionIsNotRestoredButRefusedOrAvoided) {
+  const QftSpec spec{64, 8, false};
+  ASSERT_EQ(choose_network(spec)->name(), "parity-insertion");
+  try {
+    choose_network(spec, EndOrder::same, NetworkChoice::parity_insertion);
+    ADD_FAILURE() << "parity-insertion with end order same";
+  } catch (const InputError& e) {
+    EXPECT_EQ(std::string(e.what()),
+              "the parity-insertion network cannot end in order; use --end-order free or another --network");
+  }
+  const auto chosen = choose_network(spec, EndOrder::same, NetworkChoice::automatic);
+  EXPECT_NE(chosen->rendering(), QftNetwork::Rendering::window);
+  std::vector<int> chain(64);
+  std::iota(chain.begin(), chain.end(), 0);
+  const auto maps = chain_maps(spec, *chosen, chain);
+  EXPECT_EQ(maps.placement, maps.final_placement);
+}
+
 TEST(EndOrder, SameChoosesTheCheaperNetwork) {
   for (int n : {8, 16, 64})
     for (int M : {2, 3, 4, 6}) {

@@ -43,7 +43,7 @@ TEST(NetworkExactness, EveryNetworkAtEverySizeUpTo130) {
     if (n >= 4) {
       QftSpec approx = exact;
       approx.approx_degree = std::min(n - 1, 8);
-      for (NetworkChoice net : {NetworkChoice::leapfrog, NetworkChoice::insertion}) {
+      for (NetworkChoice net : {NetworkChoice::leapfrog, NetworkChoice::insertion, NetworkChoice::parity_insertion}) {
         const CheckResult r = write_read_prove(approx, net, QasmVersion::v3, GateSet::cx);
         ASSERT_TRUE(r.ok) << network_choice_name(net) << " n=" << n << ": " << r.message;
       }
@@ -69,13 +69,18 @@ TEST(NetworkExactness, PeepholeOutputIsProvedStructurally) {
     for (GateSet gates : {GateSet::cx, GateSet::cz})
       for (bool inverse : {false, true})
         for (NetworkChoice net : {NetworkChoice::reversal, NetworkChoice::anchored, NetworkChoice::parity, NetworkChoice::leapfrog,
-                                  NetworkChoice::insertion}) {
-          const bool approximate = net == NetworkChoice::leapfrog || net == NetworkChoice::insertion;
+                                  NetworkChoice::insertion, NetworkChoice::parity_insertion}) {
+          const bool approximate = net == NetworkChoice::leapfrog || net == NetworkChoice::insertion ||
+                                   net == NetworkChoice::parity_insertion;
           if (approximate && n < 4) continue;
           PlanOptions opt;
           opt.spec.qubits = n;
           opt.spec.inverse = inverse;
           if (approximate) opt.spec.approx_degree = std::min(n - 1, 5);
+          // Known gap (issue 19): the inverse parity-insertion network in cz gates, after the peephole
+          // pass, opens Hadamard frames the structural proof does not follow (its closing CX ladder
+          // comes first); it is proved without the pass (next test) and simulated with it (FFTW tests).
+          if (net == NetworkChoice::parity_insertion && gates == GateSet::cz && inverse) continue;
           opt.strategy = "chain";
           opt.network = net;
           opt.gates = gates;
@@ -96,6 +101,28 @@ TEST(NetworkExactness, PeepholeOutputIsProvedStructurally) {
       opt.gates = gates;
       prove(dev, opt, spec + " " + strategy + " " + gate_set_name(gates) + " n=" + std::to_string(n));
     }
+}
+
+// The gap above, closed without the peephole pass: the inverse parity-insertion network in cz gates,
+// as decomposed, is proved structurally at every size from 4 to 40 and degrees 3 to 6.
+TEST(NetworkExactness, InverseParityInsertionInCzWithoutThePassIsProved) {
+  for (int n = 4; n <= 40; ++n) {
+    const Device dev = make_lattice("line:" + std::to_string(n));
+    for (int M = 3; M <= std::min(6, n - 1); ++M) {
+      PlanOptions opt;
+      opt.spec.qubits = n;
+      opt.spec.inverse = true;
+      opt.spec.approx_degree = M;
+      opt.strategy = "chain";
+      opt.network = NetworkChoice::parity_insertion;
+      opt.gates = GateSet::cz;
+      opt.peephole = false;
+      testing::WrittenPlan w = testing::write_and_read(dev, opt, QasmVersion::v3);
+      w.request.statevector_limit = 0;
+      const CheckResult r = check_qft_circuit(dev, w.program, w.request);
+      EXPECT_TRUE(r.ok && r.structural_proved) << "n=" << n << " M=" << M << ": " << r.message;
+    }
+  }
 }
 
 // The parity network's long numerators also in OpenQASM 2 (decimal denominators) and inverse.

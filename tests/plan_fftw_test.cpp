@@ -101,6 +101,7 @@ std::vector<Case> cases() {
     for (int M : {1, 2, 4}) v.push_back({"line:8", 8, M, inv, GateSet::cx, NetworkChoice::reversal});
     v.push_back({"line:8", 8, 4, inv, GateSet::logical, NetworkChoice::leapfrog});
     for (int M : {3, 5}) v.push_back({"line:8", 8, M, inv, GateSet::logical, NetworkChoice::insertion});
+    for (int M : {3, 4, 7}) v.push_back({"line:8", 8, M, inv, GateSet::logical, NetworkChoice::parity_insertion});
     v.push_back({"line:8", 8, std::nullopt, inv, GateSet::cx, NetworkChoice::anchored});
     v.push_back({"line:8", 8, 3, inv, GateSet::logical, NetworkChoice::anchored});
   }
@@ -113,6 +114,7 @@ std::vector<Case> cases() {
         for (int n : {3, 6}) v.push_back({"grid:3x3", n, std::nullopt, inv, g, net});
       for (int M : {2, 3}) v.push_back({"line:7", 7, M, inv, g, NetworkChoice::leapfrog});
       v.push_back({"line:7", 7, 4, inv, g, NetworkChoice::insertion});
+      v.push_back({"line:7", 7, 4, inv, g, NetworkChoice::parity_insertion});
       for (const char* s : {"routed", "cover"})
         for (int n : {4, 7}) v.push_back({"heavy-hex:1x1", n, std::nullopt, inv, g, NetworkChoice::automatic, s});
     }

@@ -295,7 +295,7 @@ TEST(Limits, DeviceCapIsClear) {
   EXPECT_NE(g.err.find("more than the limit of 1000000"), std::string::npos) << g.err;
 }
 
-// A big register with a big degree used to build the leapfrog network (insertion, today) in memory (n * 2d steps of 12
+// A big register with a big degree used to build the leapfrog network (the insertion networks, today) in memory (n * 2d steps of 12
 // bytes: 3 GB here) and die of std::bad_alloc; past 2^25 steps a streamed network (parity, the
 // cheapest of them) is used instead.
 TEST(Limits, BigApproximateRegisterNeedsNoHugeMemory) {
@@ -304,7 +304,7 @@ TEST(Limits, BigApproximateRegisterNeedsNoHugeMemory) {
   spec.approx_degree = 4000;
   EXPECT_EQ(choose_network(spec)->name(), "parity");
   spec.approx_degree = 6;
-  EXPECT_EQ(choose_network(spec)->name(), "insertion");
+  EXPECT_EQ(choose_network(spec)->name(), "parity-insertion");
 }
 
 TEST(Limits, TimeLimitValuesAreChecked) {

@@ -71,7 +71,8 @@ TEST(Streaming, SimulatedNetworksStreamedEqualKept) {
   for (int n : {5, 17, 64}) {
     for (int d : {1, 2, 5}) {
       if (d >= n - 1) continue;
-      for (const auto& net : {make_leapfrog_network(n, d), d >= 2 ? make_insertion_network(n, d) : make_leapfrog_network(n, d)}) {
+      for (const auto& net : {make_leapfrog_network(n, d), d >= 2 ? make_insertion_network(n, d) : make_leapfrog_network(n, d),
+                              d >= 2 ? make_parity_insertion_network(n, d) : make_leapfrog_network(n, d)}) {
       std::vector<NetworkOp> streamed;
       std::vector<int> sizes;
       net->for_each_chunk([&](std::span<const NetworkOp> ops) {
@@ -384,7 +385,10 @@ TEST(Scale, TwoThousandQubitPlansPassTheStructuralProof) {
       EXPECT_EQ(r.depth_2q, 2 * 2048 - 3);
     } else {
       EXPECT_EQ(r.rotations, plan.spec.kept_rotations());
-      EXPECT_LT(r.two_qubit_blocks, 2048LL * 2 * 5);  // leapfrog: at most 2d blocks per wire, d = M - 1
+      // The cheapest approximate network at degree 6 on a chain: the insertion network's parity form,
+      // about 4d CX a wire (d = M - 1; window_parity_qft.cpp).
+      EXPECT_EQ(r.network, "parity-insertion");
+      EXPECT_LE(r.cx_count, 2048LL * (4 * 5 + 1));
     }
   }
 }

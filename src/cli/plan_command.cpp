@@ -61,9 +61,10 @@ CLI::App* add_plan_command(CLI::App& app, PlanArgs& a) {
                    "the qubit that held input bit k")
       ->capture_default_str();
   plan->add_option("--network", a.network,
-                   "chain network: auto (of anchored, parity, insertion and leapfrog, the fewest native two-qubit "
-                   "gates), reversal, anchored, leapfrog, insertion (approximate: about half the leapfrog CX at "
-                   "degree 3), or parity (n^2-1 CX for the exact QFT)")
+                   "chain network: auto (of anchored, parity and the approximate insertion, parity-insertion and "
+                   "leapfrog, the fewest native two-qubit gates), reversal, anchored, leapfrog, insertion (half the "
+                   "leapfrog CX at degree 3), parity-insertion (a third fewer from degree 5; deeper), or parity "
+                   "(n^2-1 CX for the exact QFT)")
       ->capture_default_str();
   plan->add_option("--readout", a.readout,
                    "with --measure: unitary (the transform, then a measurement), semiclassical (measure each qubit "

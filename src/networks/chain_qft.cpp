@@ -43,7 +43,8 @@ bool swaps(Kind k) { return k == Kind::swap || k == Kind::cp_swap; }
 }  // namespace
 
 QubitMaps emit_chain_qft(const QftSpec& spec, const QftNetwork& network, std::span<const int> chain, GateSink& sink) {
-  if (network.parity()) return emit_parity_qft(spec, network, chain, sink);
+  if (network.rendering() == QftNetwork::Rendering::parity) return emit_parity_qft(spec, network, chain, sink);
+  if (network.rendering() == QftNetwork::Rendering::window) return emit_window_parity_qft(spec, network, chain, sink);
   QubitMaps maps = chain_maps(spec, network, chain);
   std::vector<NetworkOp> ops;
   // Gates go to the sink in runs of about a thousand (one virtual call per run, not per gate).

@@ -226,6 +226,14 @@ long long end_swap_count(const QftNetwork& network) {
 std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec, EndOrder order, NetworkChoice choice) {
   auto base = choose_network(spec, choice);
   if (order == EndOrder::free || count_inversions(end_keys(*base)) == 0) return base;
+  // Restoring SWAPs are appended as steps, which only the fused renderings carry as they are (the
+  // parity network ends in order). The automatic choice then starts from the fused networks.
+  if (base->rendering() == QftNetwork::Rendering::window) {
+    if (choice != NetworkChoice::automatic)
+      throw InputError(std::string("the ") + network_choice_name(choice) +
+                       " network cannot end in order; use --end-order free or another --network");
+    base = choose_network(spec, NetworkChoice::insertion);
+  }
   // A network asked for by name keeps its name: restore its order.
   if (choice != NetworkChoice::automatic) return with_order_restored(std::move(base));
   // The reversal network reverses the chain, which is exactly the order `same` asks for, and so does

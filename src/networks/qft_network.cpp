@@ -6,6 +6,7 @@
 #include <stdexcept>
 
 #include "qftplan/core/input_error.hpp"
+#include "qftplan/networks/parity_qft.hpp"
 
 namespace qftplan {
 
@@ -153,7 +154,7 @@ class ParityNetwork final : public ReversalNetwork {
  public:
   using ReversalNetwork::ReversalNetwork;
   std::string name() const override { return "parity"; }
-  bool parity() const override { return true; }
+  Rendering rendering() const override { return Rendering::parity; }
 };
 
 // A network whose steps come from a simulation (leapfrog, insertion): streamed forwards without
@@ -262,13 +263,20 @@ class LeapfrogNetwork final : public SimulatedNetwork {
 // somewhere; meeting the first window wire and the finishing one in place saves two of them a turn.
 // Measured (tests, README): per wire 6 CX at d = 2 (the leapfrog network: 12), 11.3 at d = 3 (18),
 // 58 at d = 11 (66); two-qubit depth about 2n.
+//
+// The parity form (window_parity_qft.cpp) moves the finishing wire first: it steps left to the front of
+// the window (plain SWAPs), then c passes every window wire but it and meets it in place, landing first
+// in the window. Rendered on a chain of output differences, a SWAP costs 2 CX, a fused block 2 and a
+// plain controlled phase 1 (and 2 to keep the chain), so about 4d CX a wire against the fused form's
+// 3d + 3k (k: how far the finishing wire stands from the front).
 class InsertionNetwork final : public SimulatedNetwork {
  public:
-  InsertionNetwork(int n, int d) : SimulatedNetwork(n, d) {
+  InsertionNetwork(int n, int d, bool parity_form) : SimulatedNetwork(n, d), parity_form_(parity_form) {
     if (d < 2) throw std::invalid_argument("insertion network needs d >= 2");
     count_by_simulation();
   }
-  std::string name() const override { return "insertion"; }
+  std::string name() const override { return parity_form_ ? "parity-insertion" : "insertion"; }
+  Rendering rendering() const override { return parity_form_ ? Rendering::window : Rendering::fused; }
 
  private:
   void simulate(const Visit& visit) const override {
@@ -284,7 +292,14 @@ class InsertionNetwork final : public SimulatedNetwork {
       const auto at = std::find(window.begin(), window.end(), finishing);
       const int k = at == window.end() ? -1 : static_cast<int>(at - window.begin());
       const int size = static_cast<int>(window.size());
-      if (k <= 0) {
+      if (k > 0 && parity_form_) {
+        for (int x = k - 1; x >= 0; --x) meet(Kind::swap, window[x], finishing);
+        window.erase(window.begin() + k);
+        window.insert(window.begin(), finishing);
+        for (int x = size - 1; x >= 1; --x) meet(Kind::cp_swap, window[x], c);
+        meet(Kind::cp, finishing, c);
+        window.front() = c;
+      } else if (k <= 0) {
         for (int x = size - 1; x >= 1; --x) meet(Kind::cp_swap, window[x], c);
         if (size > 0) meet(Kind::cp, window[0], c);
         if (k == 0)
@@ -304,6 +319,7 @@ class InsertionNetwork final : public SimulatedNetwork {
       visit(std::span<const NetworkOp>(ops));
     }
   }
+  bool parity_form_;
 };
 
 class AdjacentNetwork final : public QftNetwork {
@@ -338,7 +354,10 @@ std::unique_ptr<QftNetwork> make_leapfrog_network(int wires, int max_distance) {
   return std::make_unique<LeapfrogNetwork>(wires, max_distance);
 }
 std::unique_ptr<QftNetwork> make_insertion_network(int wires, int max_distance) {
-  return std::make_unique<InsertionNetwork>(wires, max_distance);
+  return std::make_unique<InsertionNetwork>(wires, max_distance, false);
+}
+std::unique_ptr<QftNetwork> make_parity_insertion_network(int wires, int max_distance) {
+  return std::make_unique<InsertionNetwork>(wires, max_distance, true);
 }
 std::unique_ptr<QftNetwork> make_anchored_network(int wires, int max_distance) {
   return std::make_unique<AnchoredNetwork>(wires, max_distance);
@@ -358,6 +377,7 @@ bool fits_simulated(int n, int d) { return 2LL * n * (d + 1) <= kMaxSimulatedSte
 long long network_native_cost(const QftNetwork& network) {
   const auto c = network.step_counts();
   const int k_cp = static_cast<int>(Kind::cp), k_swap = static_cast<int>(Kind::swap), k_fused = static_cast<int>(Kind::cp_swap);
+  if (network.rendering() == QftNetwork::Rendering::window) return window_parity_cx(network);
   // The parity network: 2 CX per meeting and the closing ladder of n-1 CX.
   if (network.parity()) return 2 * (c[k_swap] + c[k_fused]) + std::max(network.wires() - 1, 0);
   return 2 * c[k_cp] + 3 * (c[k_swap] + c[k_fused]);
@@ -380,6 +400,7 @@ std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec) {
   const long long kept = static_cast<long long>(d) * n - static_cast<long long>(d) * (d + 1) / 2;
   if (!spec.effectively_exact() && fits_simulated(n, d) && 2 * kept < best_cost) {
     consider(make_insertion_network(n, d));
+    consider(make_parity_insertion_network(n, d));
     consider(make_leapfrog_network(n, d));
   }
   return best;
@@ -387,7 +408,8 @@ std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec) {
 
 namespace {
 constexpr std::array kNetworkChoices{NetworkChoice::automatic, NetworkChoice::reversal, NetworkChoice::anchored,
-                                     NetworkChoice::leapfrog,  NetworkChoice::insertion, NetworkChoice::parity};
+                                     NetworkChoice::leapfrog,  NetworkChoice::insertion, NetworkChoice::parity_insertion,
+                                     NetworkChoice::parity};
 }  // namespace
 
 std::span<const NetworkChoice> network_choices() { return kNetworkChoices; }
@@ -399,6 +421,7 @@ const char* network_choice_name(NetworkChoice c) {
     case NetworkChoice::anchored: return "anchored";
     case NetworkChoice::leapfrog: return "leapfrog";
     case NetworkChoice::insertion: return "insertion";
+    case NetworkChoice::parity_insertion: return "parity-insertion";
     case NetworkChoice::parity: return "parity";
   }
   return "?";
@@ -421,7 +444,8 @@ std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec, NetworkChoice ch
   const bool in_order = choice == NetworkChoice::reversal || choice == NetworkChoice::parity;
   if (!in_order && !spec.effectively_exact() && d == 0) return make_hadamard_network(n);
   if (!in_order && !spec.effectively_exact() && d == 1) return make_adjacent_network(n);
-  const bool simulated = choice == NetworkChoice::leapfrog || choice == NetworkChoice::insertion;
+  const bool simulated = choice == NetworkChoice::leapfrog || choice == NetworkChoice::insertion ||
+                         choice == NetworkChoice::parity_insertion;
   if (simulated && spec.effectively_exact())
     throw InputError(std::string("the ") + network_choice_name(choice) +
                      " network is for the approximate QFT (degrees 3 .. n-1); use --approx or another --network");
@@ -435,6 +459,7 @@ std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec, NetworkChoice ch
     case NetworkChoice::parity: return make_parity_network(n, d);
     case NetworkChoice::leapfrog: return make_leapfrog_network(n, d);
     case NetworkChoice::insertion: return make_insertion_network(n, d);
+    case NetworkChoice::parity_insertion: return make_parity_insertion_network(n, d);
     case NetworkChoice::automatic: break;
   }
   return choose_network(spec);

@@ -28,4 +28,15 @@ namespace qftplan {
 /// parity_step gates; the inverse runs the circuit backwards. Returns the qubit maps.
 QubitMaps emit_parity_qft(const QftSpec& spec, const QftNetwork& network, std::span<const int> chain, GateSink& sink);
 
+/// Streams the QFT of `spec` on `chain` with the insertion network in parity form (`network` as
+/// make_parity_insertion_network gives, Rendering::window) as h, rz and cx gates. Every wire past its
+/// Hadamard holds y_w XOR y_next (the derivation is in window_parity_qft.cpp): a fused block and a
+/// SWAP of a finished wire cost 2 CX, the last meeting before a Hadamard 1 and 2 more after it, and a
+/// closing ladder n-1. The inverse runs the circuit backwards (kept in memory). Returns the maps.
+QubitMaps emit_window_parity_qft(const QftSpec& spec, const QftNetwork& network, std::span<const int> chain,
+                                 GateSink& sink);
+
+/// CX gates emit_window_parity_qft writes for `network` (a dry run).
+long long window_parity_cx(const QftNetwork& network);
+
 }  // namespace qftplan

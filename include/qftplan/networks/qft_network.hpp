@@ -48,9 +48,15 @@ class QftNetwork {
   /// Number of two-wire steps (blocks) and of those that swap.
   long long block_count() const;
   long long swap_count() const;
-  /// True for the parity network: the chain planner turns its steps into parity steps
-  /// (parity_qft.hpp) instead of fused blocks.
-  virtual bool parity() const { return false; }
+  /// How the chain planner turns the steps into gates.
+  enum class Rendering {
+    fused,   ///< one gate a step: h, cp, swap (3 CX), cp_swap (3 CX)
+    parity,  ///< the reversal network's meetings as parity steps of 2 CX (parity_qft.hpp)
+    window,  ///< the insertion network's steps on a chain of output differences (parity_qft.hpp)
+  };
+  virtual Rendering rendering() const { return Rendering::fused; }
+  /// True when the rotations sit inside rz gates on parities (parity and window renderings).
+  bool parity() const { return rendering() != Rendering::fused; }
   int wires() const { return wires_; }
   int max_distance() const { return d_; }
 
@@ -78,6 +84,11 @@ std::unique_ptr<QftNetwork> make_leapfrog_network(int wires, int max_distance);
 /// simulation like the leapfrog network.
 std::unique_ptr<QftNetwork> make_insertion_network(int wires, int max_distance);
 
+/// The insertion network in its parity form (ours): the finishing wire steps to the front of the
+/// window first, and the steps are rendered on a chain of output differences (parity_qft.hpp), about
+/// 4d CX a wire (the leapfrog network: 6d).
+std::unique_ptr<QftNetwork> make_parity_insertion_network(int wires, int max_distance);
+
 /// Ours: the first wire stays at the start of the chain and the reversal network of the other wires
 /// runs beside it, each meeting the first with a plain controlled phase just before its Hadamard:
 /// n(n-1)/2 blocks in 2n-3 layers like the reversal network, with n-1 SWAPs fewer.
@@ -100,11 +111,12 @@ enum class NetworkChoice {
   anchored,   ///< the fused reversal network of all wires but the first, beside it
   leapfrog,   ///< the fused leapfrog network (approximate degrees 3 .. n-1 only)
   insertion,  ///< the insertion network (approximate degrees 3 .. n-1 only)
+  parity_insertion,  ///< the insertion network in parity form (approximate degrees 3 .. n-1 only)
   parity,     ///< the parity network
 };
 /// Every choice, in the order --help lists them.
 std::span<const NetworkChoice> network_choices();
-/// "auto", "reversal", "anchored", "leapfrog", "insertion", "parity".
+/// "auto", "reversal", "anchored", "leapfrog", "insertion", "parity-insertion", "parity".
 const char* network_choice_name(NetworkChoice c);
 /// Parses a --network value; InputError listing the valid ones otherwise.
 NetworkChoice parse_network_choice(const std::string& text);
