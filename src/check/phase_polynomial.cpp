@@ -32,8 +32,8 @@ void StructuralChecker::Impl::apply(const Gate& g, int line) {
       return;
     case GateKind::parity_step:
       xor_into(g.q0, g.q1, line);
-      phase1(g.q0, g.angle, line);
       xor_into(g.q1, g.q0, line);
+      phase1(g.q0, g.angle, line);
       return;
     case GateKind::measure: return;
     case GateKind::p_if:

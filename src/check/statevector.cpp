@@ -103,8 +103,8 @@ void StateVector::apply(const Gate& g) {
     case GateKind::parity_step:
       // The parity block is its three gates (gate.hpp).
       apply(make_gate(GateKind::cx, g.q1, g.q0));
-      apply(make_gate(GateKind::rz, g.q0, -1, g.angle));
       apply(make_gate(GateKind::cx, g.q0, g.q1));
+      apply(make_gate(GateKind::rz, g.q0, -1, g.angle));
       return;
     default:
       break;

@@ -252,11 +252,11 @@ void QasmWriter::gate(const Gate& g) {
       break;
     case GateKind::parity_step:
       two("cx ", g.q1, g.q0);
+      two("cx ", g.q0, g.q1);
       if (!g.angle.is_zero()) {
         p = angle(put(p, "rz"), g.angle);
         one("", g.q0);
       }
-      two("cx ", g.q0, g.q1);
       break;
     case GateKind::p_if:
       // OpenQASM 3: `if (bit) statement` (the specification's branching statement); OpenQASM 2:

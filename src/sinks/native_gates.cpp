@@ -83,8 +83,8 @@ void NativeDecomposer::rewrite(const Gate& g) {
     }
     case GateKind::parity_step:
       cx(b, a);
-      if (!g.angle.is_zero()) out_.put(make_gate(GateKind::rz, a, -1, g.angle));
       cx(a, b);
+      if (!g.angle.is_zero()) out_.put(make_gate(GateKind::rz, a, -1, g.angle));
       return;
     default: out_.put(g); return;
   }
@@ -138,8 +138,8 @@ void FusedBlockSplitter::batch(std::span<const Gate> run) {
       out_.put(make_gate(GateKind::swap, g.q0, g.q1));
     } else if (g.kind == GateKind::parity_step) {
       out_.put(make_gate(GateKind::cx, g.q1, g.q0));
-      if (!g.angle.is_zero()) out_.put(make_gate(GateKind::rz, g.q0, -1, g.angle));
       out_.put(make_gate(GateKind::cx, g.q0, g.q1));
+      if (!g.angle.is_zero()) out_.put(make_gate(GateKind::rz, g.q0, -1, g.angle));
     } else {
       out_.put(g);
     }

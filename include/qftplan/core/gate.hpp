@@ -24,8 +24,10 @@ enum class GateKind : std::uint8_t {
   swap,     ///< SWAP
   cp_swap,  ///< fused block: controlled phase then SWAP (one two-qubit block)
   measure,  ///< measurement of q0 into bit q1
-  /// parity block (ours, the parity network): cx q1,q0; rz(t) q0; cx q0,q1. With values (A, B) on
-  /// (q0, q1) it leaves (A xor B, A) and the phase t on A xor B (one two-qubit block, 2 CX).
+  /// parity block (ours, the parity network): cx q1,q0; cx q0,q1; rz(t) q0. With values (A, B) on
+  /// (q0, q1) it leaves (A xor B, A) and the phase t on A xor B (one two-qubit block, 2 CX). The rz
+  /// comes last (q0 keeps A xor B through the second cx, of which it is the control), so a qubit's
+  /// next block need not wait for it: the parity network's depth falls from 6n to 5n.
   parity_step,
   /// phase diag(1, e^{i t}) on q0 applied only when classical bit q1 reads 1 (ours: a classically
   /// conditioned phase of a dynamic circuit; written `if (c[j]) p(t) $q;`)

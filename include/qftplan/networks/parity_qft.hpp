@@ -5,7 +5,7 @@
 ///
 /// Wires meet in the reversal network's order (Fowler, Devitt and Hollenberg, Quantum Inf. Comput. 4,
 /// 237, 2004), but a meeting of a right-moving wire a with a left-moving wire b is one parity_step
-/// (cx b->a; rz a; cx a->b, gate.hpp) instead of a fused controlled phase and SWAP. The right-mover a
+/// (cx b->a; cx a->b; rz a, gate.hpp) instead of a fused controlled phase and SWAP. The right-mover a
 /// carries y_a XOR y_(a-1) (y: output bits), the left-mover b carries x_b XOR y_a after meeting a
 /// (x: input bits), so every meeting makes exactly the parity y_a XOR x_b the rotation between them
 /// needs, and the rz on it is the rotation's parity term (a controlled phase c on bits u, v is
