@@ -1,6 +1,8 @@
 #include "qftplan/planners/spine_layout.hpp"
 
 #include <algorithm>
+#include <random>
+#include <cstdlib>
 
 
 #include <fmt/format.h>
@@ -22,6 +24,10 @@ namespace qftplan {
 
 namespace {
 
+// Seeded random starts of spines besides the three above, on pieces of at most kSpineStartsLimit qubits.
+constexpr int kSpineStarts = 12;
+constexpr int kSpineStartsLimit = 2000;
+
 // Breadth-first distances from `from` inside the piece; the farthest qubit (lowest number on ties).
 int farthest(const Device& device, const std::vector<char>& inside, int from) {
   std::vector<int> dist(device.qubit_count(), -1), queue{from};
@@ -36,25 +42,25 @@ int farthest(const Device& device, const std::vector<char>& inside, int from) {
   return far;
 }
 
-// The spine: the longest of three chains, each lengthened (spine_growth.cpp): the deepest branches of
+// Candidate spines, the first three as before: chains, each lengthened (spine_growth.cpp): the deepest branches of
 // depth-first trees from both ends of a long shortest path (found by two breadth-first sweeps), and
 // the longest chain the chain search reports (measured on defective position-free heavy-hexagon
 // chips of 100 to 10,000 qubits, the last is the longest by far; seeded random starts never won).
-std::vector<int> grow_best_spine(const Device& device, const std::vector<char>& inside, int size, std::uint64_t seed,
-                                 const RunBudget* budget) {
+std::vector<std::vector<int>> grow_spines(const Device& device, const std::vector<char>& inside, int size,
+                                          std::uint64_t seed, const RunBudget* budget) {
   std::vector<int> members;
   for (int q = 0; q < device.qubit_count(); ++q)
     if (inside[q]) members.push_back(q);
   BudgetPoll poll(budget, 64);
-  std::vector<int> best;
+  std::vector<std::vector<int>> spines;
   auto consider = [&](std::vector<int> path, std::uint64_t s) {
     lengthen_spine(device, inside, path, s, poll);
-    if (path.size() > best.size()) best = std::move(path);
+    if (std::find(spines.begin(), spines.end(), path) == spines.end()) spines.push_back(std::move(path));
   };
   const int f1 = farthest(device, inside, members.front());
   const int f2 = farthest(device, inside, f1);
   consider(deepest_branch(device, inside, f1, seed), seed);
-  if (static_cast<int>(best.size()) == size) return best;
+  if (static_cast<int>(spines.front().size()) == size) return spines;
   consider(deepest_branch(device, inside, f2, seed + 1), seed + 1);
   ChainSearchOptions cso;
   cso.seed = seed;
@@ -64,7 +70,17 @@ std::vector<int> grow_best_spine(const Device& device, const std::vector<char>& 
   std::vector<int> chain = find_chain(device, size, cso).longest;
   const bool usable = !chain.empty() && std::all_of(chain.begin(), chain.end(), [&](int q) { return inside[q] != 0; });
   if (usable) consider(std::move(chain), seed + 2);
-  return best;
+  // The longest spine is not always the cheapest: what hangs off it matters too (a long branch left
+  // hanging costs long detours). On chips of up to a few thousand qubits, spines grown from seeded
+  // random starts join the candidates; the layout keeps the cheapest line over all of them.
+  if (size <= kSpineStartsLimit) {
+    std::mt19937_64 rng(seed ^ 0x5ee0);
+    for (int k = 0; k < kSpineStarts && !poll.stop(); ++k) {
+      const int start = members[std::uniform_int_distribution<std::size_t>(0, members.size() - 1)(rng)];
+      consider(deepest_branch(device, inside, start, seed + 3 + k), seed + 3 + k);
+    }
+  }
+  return spines;
 }
 
 // The qubits off the spine in trees hanging from it: breadth-first from the spine, so each hangs
@@ -194,7 +210,16 @@ LineDetours line_detours(const Device& device, const Forest& f, const std::vecto
       std::vector<int> via = shorter_path(device, position, from, a, b, d.via.size(), 4096);
       if (!via.empty()) d.via = std::move(via);
     }
-    out.cost += static_cast<long long>(d.via.size()) * (n - static_cast<long long>(p));
+    // The end whose first SWAP is on a line pair steps aside: that SWAP follows the parity step the
+    // network ran on that pair just before and fuses with it (sinks/detour_sink.hpp), so each gate
+    // of the detour costs 6 |via| - 4 CX instead of 6 |via|.
+    auto on_line_pair = [&](int x, int y) { return std::abs(position[x] - position[y]) == 1; };
+    if (!on_line_pair(d.a, d.via.front()) && on_line_pair(d.b, d.via.back())) {
+      std::swap(d.a, d.b);
+      std::reverse(d.via.begin(), d.via.end());
+    }
+    const long long per_gate = 6 * static_cast<long long>(d.via.size()) - (on_line_pair(d.a, d.via.front()) ? 4 : 0);
+    out.cost += per_gate * (n - static_cast<long long>(p));
     out.detours.push_back(std::move(d));
   }
   return out;
@@ -217,23 +242,27 @@ SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, c
         "the spine strategy needs {} connected qubits; the largest connected piece of {} has {}", n, device.name(), largest));
   std::vector<char> inside(device.qubit_count(), 0);
   for (int q = 0; q < device.qubit_count(); ++q) inside[q] = comp[q] == big && device.usable(q);
-  out.spine = grow_best_spine(device, inside, largest, seed, budget);
-  // Both directions of the spine, each with the trees read in place, gathered on a walk back from the
-  // end, or split between the two at a few points; the cheapest line by the weighted detour cost.
+  // For each candidate spine, both directions, each with the trees read in place, gathered on a walk
+  // back from the end, or split between the two at a few points; the cheapest line by the weighted
+  // detour cost.
   long long best = -1;
-  for (int direction = 0; direction < 2; ++direction) {
-    const Forest forest = hang_trees(device, inside, out.spine);
-    const std::size_t m = out.spine.size();
-    // The gathered trees' long detours run through the busy spine and lengthen the depth well past
-    // the in-place reading's (measured: 1.6 to 2 x on heavy-hex:4x5 to 6x6), so `in_place` skips them.
-    for (int k = in_place ? kSplits : 0; k <= kSplits; ++k) {
-      std::vector<int> line = line_for_split(forest, out.spine, m * static_cast<std::size_t>(k) / kSplits);
-      line.resize(n);
-      LineDetours d = line_detours(device, forest, out.spine, line);
-      if (best < 0 || d.cost < best) best = d.cost, out.line = std::move(line), out.detours = std::move(d.detours);
+  std::vector<int> best_spine;
+  for (std::vector<int>& spine : grow_spines(device, inside, largest, seed, budget))
+    for (int direction = 0; direction < 2; ++direction) {
+      const Forest forest = hang_trees(device, inside, spine);
+      const std::size_t m = spine.size();
+      // The gathered trees' long detours run through the busy spine and lengthen the depth well past
+      // the in-place reading's (measured: 1.6 to 2 x on heavy-hex:4x5 to 6x6), so `in_place` skips them.
+      for (int k = in_place ? kSplits : 0; k <= kSplits; ++k) {
+        std::vector<int> line = line_for_split(forest, spine, m * static_cast<std::size_t>(k) / kSplits);
+        line.resize(n);
+        LineDetours d = line_detours(device, forest, spine, line);
+        if (best < 0 || d.cost < best)
+          best = d.cost, out.line = std::move(line), out.detours = std::move(d.detours), best_spine = spine;
+      }
+      std::reverse(spine.begin(), spine.end());
     }
-    if (direction == 0) std::reverse(out.spine.begin(), out.spine.end());
-  }
+  out.spine = std::move(best_spine);
   // The spine reported is the one the chosen line runs along.
   if (!out.line.empty() && std::find(out.spine.begin(), out.spine.end(), out.line.front()) != out.spine.begin())
     std::reverse(out.spine.begin(), out.spine.end());
