@@ -5,6 +5,7 @@
 //   build/bench/qftplan_spread            (the whole spread)
 //   build/bench/qftplan_spread --quick    (one time per chip instead of the median of three)
 //   build/bench/qftplan_spread --strategy spine   (one strategy instead of auto)
+//   build/bench/qftplan_spread --detours          (also the spine layout's detours per chip)
 
 #include <algorithm>
 #include <chrono>
@@ -17,6 +18,7 @@
 
 #include "qftplan/device/lattices.hpp"
 #include "qftplan/planners/plan.hpp"
+#include "qftplan/planners/spine_layout.hpp"
 
 namespace {
 
@@ -75,6 +77,21 @@ struct Row {
 };
 
 std::string g_strategy = "auto";
+bool g_detours = false;
+
+// The spine layout's shape: spine length and the detours (qubits between their ends) by line position.
+void print_layout(const Device& dev) {
+  try {
+    const SpineLayout l = make_spine_layout(dev, dev.qubit_count(), 1);
+    std::vector<int> pos(dev.qubit_count(), -1);
+    for (std::size_t p = 0; p < l.line.size(); ++p) pos[l.line[p]] = static_cast<int>(p);
+    std::printf("    spine %zu of %d; detours (position:via):", l.spine.size(), dev.qubit_count());
+    for (const Detour& d : l.detours) std::printf(" %d:%zu", std::min(pos[d.a], pos[d.b]), d.via.size());
+    std::printf("\n");
+  } catch (const std::exception& e) {
+    std::printf("    no spine layout: %s\n", e.what());
+  }
+}
 
 Row measure(const std::string& family, const Device& dev, int repeats) {
   PlanOptions opt;
@@ -99,6 +116,7 @@ int main(int argc, char** argv) {
   int repeats = 3;
   for (int i = 1; i < argc; ++i) {
     if (std::strcmp(argv[i], "--quick") == 0) repeats = 1;
+    if (std::strcmp(argv[i], "--detours") == 0) g_detours = true;
     if (std::strcmp(argv[i], "--strategy") == 0 && i + 1 < argc) g_strategy = argv[++i];
   }
   std::vector<Row> rows;
@@ -112,6 +130,7 @@ int main(int argc, char** argv) {
     const Row& r = rows.back();
     std::printf("%-10s %-36s N=%4d cx=%7lld ratio=%.3f %-7s %.3fs\n", r.family.c_str(), r.name.c_str(), r.n, r.cx, r.ratio,
                 r.strategy.c_str(), r.seconds);
+    if (g_detours) print_layout(dev);
     std::fflush(stdout);
   };
   // Defective heavy-hexagon chips: a few dead qubits and broken couplers, renumbered, no positions.

@@ -90,11 +90,14 @@ struct Forest {
   std::vector<int> root;                    // the spine qubit a tree qubit hangs from (itself on the spine)
   std::vector<int> spine_index;             // position on the spine; -1 off it
   std::vector<std::vector<int>> children;
+  std::vector<int> height;                  // edges from a qubit down to its deepest descendant
+  int deepest = -1;                         // the off-spine child of a spine qubit with the highest subtree
 };
 
 Forest hang_trees(const Device& device, const std::vector<char>& inside, const std::vector<int>& spine) {
   const int N = device.qubit_count();
-  Forest f{std::vector<int>(N, -1), std::vector<int>(N, -1), std::vector<int>(N, -1), std::vector<std::vector<int>>(N)};
+  Forest f{std::vector<int>(N, -1), std::vector<int>(N, -1), std::vector<int>(N, -1), std::vector<std::vector<int>>(N),
+           std::vector<int>(N, 0)};
   std::vector<int> queue = spine;
   for (std::size_t i = 0; i < spine.size(); ++i) f.root[spine[i]] = spine[i], f.spine_index[spine[i]] = static_cast<int>(i);
   for (std::size_t h = 0; h < queue.size(); ++h)
@@ -104,6 +107,11 @@ Forest hang_trees(const Device& device, const std::vector<char>& inside, const s
         f.children[queue[h]].push_back(t);
         queue.push_back(t);
       }
+  for (std::size_t h = queue.size(); h-- > spine.size();) {
+    const int q = queue[h], p = f.parent[q];
+    f.height[p] = std::max(f.height[p], f.height[q] + 1);
+    if (f.spine_index[p] >= 0 && (f.deepest < 0 || f.height[q] > f.height[f.deepest])) f.deepest = q;
+  }
   return f;
 }
 
@@ -113,10 +121,15 @@ Forest hang_trees(const Device& device, const std::vector<char>& inside, const s
 // later one once, next to it), so detours are cheapest late in the line: the walk back gathers the
 // trees of the spine's second part where a long detour costs least. j = spine length reads every
 // tree in place.
-std::vector<int> line_for_split(const Forest& f, const std::vector<int>& spine, std::size_t j) {
+std::vector<int> line_for_split(const Forest& f, const std::vector<int>& spine, std::size_t j, bool deep_last,
+                                bool deepest_end) {
   std::vector<int> line, stack;
-  auto trees = [&](int s) {
-    stack.assign(f.children[s].rbegin(), f.children[s].rend());
+  const int held_back = deepest_end ? f.deepest : -1;
+  // The subtrees of spine qubit s's children, depth first: all of them, only the leaves (kind 1) or
+  // only the others (kind 2); the held-back subtree is skipped.
+  auto trees = [&](int s, int kind) {
+    for (auto c = f.children[s].rbegin(); c != f.children[s].rend(); ++c)
+      if (*c != held_back && (kind == 0 || f.children[*c].empty() == (kind == 1))) stack.push_back(*c);
     while (!stack.empty()) {
       const int q = stack.back();
       stack.pop_back();
@@ -124,9 +137,29 @@ std::vector<int> line_for_split(const Forest& f, const std::vector<int>& spine, 
       stack.insert(stack.end(), f.children[q].rbegin(), f.children[q].rend());
     }
   };
-  for (std::size_t i = 0; i < j; ++i) line.push_back(spine[i]), trees(spine[i]);
+  for (std::size_t i = 0; i < j; ++i) {
+    line.push_back(spine[i]);
+    trees(spine[i], deep_last ? 1 : 0);
+  }
   for (std::size_t i = j; i < spine.size(); ++i) line.push_back(spine[i]);
-  for (std::size_t i = spine.size(); i-- > j;) trees(spine[i]);
+  for (std::size_t i = spine.size(); i-- > j;) trees(spine[i], 0);
+  // Deep trees kept back from the first part follow, still walking back towards the start.
+  if (deep_last)
+    for (std::size_t i = j; i-- > 0;) trees(spine[i], 2);
+  // The highest subtree last, its highest branch last of all: the line ends inside it, so its
+  // longest way back is never walked.
+  if (held_back >= 0) {
+    stack.push_back(held_back);
+    std::vector<int> kids;
+    while (!stack.empty()) {
+      const int q = stack.back();
+      stack.pop_back();
+      line.push_back(q);
+      kids = f.children[q];
+      std::stable_sort(kids.begin(), kids.end(), [&](int a, int b) { return f.height[a] > f.height[b]; });
+      stack.insert(stack.end(), kids.begin(), kids.end());
+    }
+  }
   return line;
 }
 
@@ -253,13 +286,17 @@ SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, c
       const std::size_t m = spine.size();
       // The gathered trees' long detours run through the busy spine and lengthen the depth well past
       // the in-place reading's (measured: 1.6 to 2 x on heavy-hex:4x5 to 6x6), so `in_place` skips them.
-      for (int k = in_place ? kSplits : 0; k <= kSplits; ++k) {
-        std::vector<int> line = line_for_split(forest, spine, m * static_cast<std::size_t>(k) / kSplits);
-        line.resize(n);
-        LineDetours d = line_detours(device, forest, spine, line);
-        if (best < 0 || d.cost < best)
-          best = d.cost, out.line = std::move(line), out.detours = std::move(d.detours), best_spine = spine;
-      }
+      for (int k = in_place ? kSplits : 0; k <= kSplits; ++k)
+        for (int variant = 0; variant < 4; ++variant) {
+          const bool deep_last = variant & 1, deepest_end = variant & 2;
+          if (in_place && variant != 0) continue;
+          std::vector<int> line =
+              line_for_split(forest, spine, m * static_cast<std::size_t>(k) / kSplits, deep_last, deepest_end);
+          line.resize(n);
+          LineDetours d = line_detours(device, forest, spine, line);
+          if (best < 0 || d.cost < best)
+            best = d.cost, out.line = std::move(line), out.detours = std::move(d.detours), best_spine = spine;
+        }
       std::reverse(spine.begin(), spine.end());
     }
   out.spine = std::move(best_spine);
