@@ -138,6 +138,9 @@ int main(int argc, char** argv) {
     for (std::uint64_t seed = 1; seed <= 4; ++seed)
       run("heavy-hex", with_defects(make_lattice("heavy-hex:" + std::to_string(k) + "x" + std::to_string(k)), k - 1 + static_cast<int>(seed % 2),
                                     k + static_cast<int>(seed % 3), seed));
+  // Near the 200 qubits of issue 17's time target: heavy-hex:5x6 (193 qubits before defects).
+  for (std::uint64_t seed = 1; seed <= 2; ++seed)
+    run("heavy-hex", with_defects(make_lattice("heavy-hex:5x6"), 3, 4, seed));
   for (int k : {6, 8, 10, 12})
     for (std::uint64_t seed = 1; seed <= 2; ++seed)
       run("grid", with_defects(make_lattice("grid:" + std::to_string(k) + "x" + std::to_string(k)), k / 3, k / 2 + static_cast<int>(seed), seed));

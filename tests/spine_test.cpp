@@ -88,7 +88,7 @@ double plan_every_qubit(const Device& dev, Objective objective = Objective::esp,
 }
 
 TEST(Spine, EveryLiveQubitOfDefectiveHeavyHexagonChips) {
-  // Issue 17 asks CX <= 1.5 x (N^2 - 1) here. Measured on these seeds 1.19 to 1.79 (bench/
+  // Issue 17 asks CX <= 1.5 x (N^2 - 1) here. Measured on these seeds 1.16 to 1.64, median 1.30 (bench/
   // every_qubit_spread.cpp has a wider spread): chips whose longest chain holds under about 65% of
   // the qubits (long branches hang off it) miss it. Asserted: the median of the spread within 1.5,
   // every chip within the issue's bound for any connected graph, 2 x (N^2 - 1). The exact QFT needs at
