@@ -230,7 +230,7 @@ struct LineDetours {
 };
 
 LineDetours line_detours(const Device& device, const Forest& f, const std::vector<int>& spine,
-                         const std::vector<int>& line) {
+                         const std::vector<int>& line, bool fused) {
   std::vector<int> position(device.qubit_count(), -1), from(device.qubit_count(), -2), mark(device.qubit_count(), 0);
   for (std::size_t p = 0; p < line.size(); ++p) position[line[p]] = static_cast<int>(p);
   LineDetours out;
@@ -251,7 +251,8 @@ LineDetours line_detours(const Device& device, const Forest& f, const std::vecto
       std::swap(d.a, d.b);
       std::reverse(d.via.begin(), d.via.end());
     }
-    const long long per_gate = 6 * static_cast<long long>(d.via.size()) - (on_line_pair(d.a, d.via.front()) ? 4 : 0);
+    const long long per_gate =
+        6 * static_cast<long long>(d.via.size()) - (fused && on_line_pair(d.a, d.via.front()) ? 4 : 0);
     out.cost += per_gate * (n - static_cast<long long>(p));
     out.detours.push_back(std::move(d));
   }
@@ -262,7 +263,8 @@ LineDetours line_detours(const Device& device, const Forest& f, const std::vecto
 
 constexpr int kSplits = 32;
 
-SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, const RunBudget* budget, bool in_place) {
+SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, const RunBudget* budget, bool in_place,
+                              bool fused_swaps) {
   SpineLayout out;
   if (device.qubit_count() == 0) throw PlanningError(fmt::format("{} has no qubits", device.name()));
   auto [comp, count] = device.components();
@@ -293,7 +295,7 @@ SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, c
           std::vector<int> line =
               line_for_split(forest, spine, m * static_cast<std::size_t>(k) / kSplits, deep_last, deepest_end);
           line.resize(n);
-          LineDetours d = line_detours(device, forest, spine, line);
+          LineDetours d = line_detours(device, forest, spine, line, fused_swaps);
           if (best < 0 || d.cost < best)
             best = d.cost, out.line = std::move(line), out.detours = std::move(d.detours), best_spine = spine;
         }
