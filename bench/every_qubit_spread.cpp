@@ -1,11 +1,12 @@
 // Issue 17, "every qubit in the register": CX / (N^2 - 1) of `--strategy auto` over a seeded spread of
 // defective, position-free heavy-hexagon and grid chips, random trees and random connected graphs, with
 // the plan time (median of three, wall clock). Not a test: it prints one row per chip and a summary per
-// family (min, median, max of the ratio; the largest median time). Run from the build tree:
-//   build/bench/qftplan_spread            (the whole spread)
-//   build/bench/qftplan_spread --quick    (one time per chip instead of the median of three)
-//   build/bench/qftplan_spread --strategy spine   (one strategy instead of auto)
-//   build/bench/qftplan_spread --detours          (also the spine layout's detours per chip)
+// family (min, median, max of the ratio; the largest median time). In a build tree BUILD configured
+// with -DQFTPLAN_BUILD_BENCH=ON (./tools/bench makes BUILD = build/bench):
+//   BUILD/bench/qftplan_spread                    (the whole spread)
+//   BUILD/bench/qftplan_spread --quick            (one time per chip instead of the median of three)
+//   BUILD/bench/qftplan_spread --strategy spine   (one strategy instead of auto)
+//   BUILD/bench/qftplan_spread --detours          (also the spine layout's detours per chip)
 
 #include <algorithm>
 #include <chrono>
