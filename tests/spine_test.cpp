@@ -7,6 +7,8 @@
 #include <cmath>
 #include <complex>
 #include <optional>
+#include <random>
+#include <algorithm>
 
 #include "qftplan/check/qft_checker.hpp"
 #include "qftplan/check/statevector.hpp"
@@ -67,10 +69,10 @@ TEST(DetourSink, ALongDetourActsAsTheGateOnItsEnds) {
 
 // Plans with every live qubit in the register; proves the plan while streaming it and checks that
 // every two-qubit gate lies on a coupler. Returns CX / (N^2 - 1).
-double plan_every_qubit(const Device& dev, Objective objective = Objective::esp) {
+double plan_every_qubit(const Device& dev, Objective objective = Objective::esp, const std::string& strategy = "spine") {
   PlanOptions opt;
   opt.spec.qubits = dev.qubit_count();
-  opt.strategy = "spine";
+  opt.strategy = strategy;
   opt.objective = objective;
   const PreparedPlan plan = prepare_plan(dev, opt);
   StructuralChecker proof(dev, plan.spec, plan.maps.placement);
@@ -86,23 +88,124 @@ double plan_every_qubit(const Device& dev, Objective objective = Objective::esp)
 }
 
 TEST(Spine, EveryLiveQubitOfDefectiveHeavyHexagonChips) {
-  // Issue 17 asks CX <= 1.5 x (N^2 - 1) here; measured on these seeds 1.34 to 1.88 (the spine is 68%
-  // to 85% of the qubits), so that target is missed and what is asserted is the issue's bound for any
-  // connected graph, 2 x (N^2 - 1). The exact QFT needs at least n(n-1)/2 two-qubit interactions
-  // (common practice), so the ratio cannot fall below about 0.5; a wrong count of gates shows here.
+  // Issue 17 asks CX <= 1.5 x (N^2 - 1) here. Measured on these seeds 1.16 to 1.64, median 1.30 (bench/
+  // every_qubit_spread.cpp has a wider spread): chips whose longest chain holds under about 65% of
+  // the qubits (long branches hang off it) miss it. Asserted: the median of the spread within 1.5,
+  // every chip within the issue's bound for any connected graph, 2 x (N^2 - 1). The exact QFT needs at
+  // least n(n-1)/2 two-qubit interactions (common practice), so the ratio cannot fall below about 0.5;
+  // a wrong count of gates shows here.
   struct Chip {
     std::string spec;
     int dead, broken;
   };
+  std::vector<double> ratios;
   for (const Chip& c : {Chip{"heavy-hex:2x2", 1, 1}, Chip{"heavy-hex:3x3", 2, 2}, Chip{"heavy-hex:4x4", 3, 3},
-                        Chip{"heavy-hex:6x6", 5, 4}, Chip{"heavy-hex:8x8", 10, 8}})
+                        Chip{"heavy-hex:5x5", 4, 4}, Chip{"heavy-hex:6x6", 5, 4}, Chip{"heavy-hex:8x8", 10, 8}})
     for (std::uint64_t seed : {1u, 2u, 3u}) {
       const Device dev = testing::make_defective_chip(c.spec, c.dead, c.broken, seed);
       ASSERT_FALSE(dev.has_positions());
       const double ratio = plan_every_qubit(dev);
       EXPECT_LE(ratio, 2.0) << dev.name() << " N=" << dev.qubit_count();
       EXPECT_GE(ratio, 0.5) << dev.name();
+      ratios.push_back(ratio);
     }
+  std::sort(ratios.begin(), ratios.end());
+  EXPECT_LE(ratios[ratios.size() / 2], 1.5) << "median of " << ratios.size() << " chips";
+}
+
+TEST(Spine, EveryQubitOfTreesAndRandomGraphsWithinTwiceNSquared) {
+  // Issue 17: with every qubit in the register, CX <= 2 x (N^2 - 1) on any connected graph, trees
+  // included. --strategy auto (the cheapest of spine, cover and, up to 64 qubits, the router), each
+  // plan proved by the structural checker while streamed, every gate on a coupler.
+  for (std::uint64_t seed : {1u, 2u, 3u})
+    for (int n : {20, 40, 70}) {
+      std::mt19937_64 rng(seed * 1000 + static_cast<std::uint64_t>(n));
+      std::vector<std::pair<int, int>> tree, graph;
+      for (int i = 1; i < n; ++i) tree.push_back({std::uniform_int_distribution<int>(0, i - 1)(rng), i});
+      graph = tree;
+      for (int k = 0; k < n / 4; ++k) {
+        const int a = std::uniform_int_distribution<int>(0, n - 1)(rng), b = std::uniform_int_distribution<int>(0, n - 1)(rng);
+        if (a != b && std::find(graph.begin(), graph.end(), std::pair{std::min(a, b), std::max(a, b)}) == graph.end())
+          graph.push_back({std::min(a, b), std::max(a, b)});
+      }
+      for (const auto& [name, edges] : {std::pair{std::string("tree"), tree}, std::pair{std::string("graph"), graph}}) {
+        const Device dev = from_edges(name + "-" + std::to_string(n) + "-" + std::to_string(seed), n, edges);
+        const double ratio = plan_every_qubit(dev, Objective::cx, "auto");
+        EXPECT_LE(ratio, 2.0) << dev.name();
+        EXPECT_GE(ratio, 0.5) << dev.name();
+      }
+    }
+}
+
+TEST(DetourSink, ASwapBesideAParityStepOnTheSamePairIsOneCx) {
+  // parity_step(q0, q1, t) is cx q1->q0, rz(t) q0, cx q0->q1 (gate.hpp) and a SWAP is three CX
+  // (Nielsen and Chuang, "Quantum Computation and Quantum Information", 2000, sec. 1.3.4, fig. 1.7).
+  // The sink must hand on each pair fused into one cx and an rz that acts exactly like the five CX
+  // written out from those definitions, on every basis state of the two qubits (plus a bystander).
+  const Angle t{1, 3};
+  const std::vector<Gate> step = {make_gate(GateKind::cx, 1, 0), make_gate(GateKind::rz, 0, -1, t),
+                                  make_gate(GateKind::cx, 0, 1)};
+  const std::vector<Gate> swap = {make_gate(GateKind::cx, 0, 1), make_gate(GateKind::cx, 1, 0),
+                                  make_gate(GateKind::cx, 0, 1)};
+  for (bool step_first : {true, false}) {
+    VectorSink out;
+    DetourSink sink(out);
+    const Gate s = make_gate(GateKind::swap, 1, 0), p = make_gate(GateKind::parity_step, 0, 1, t);
+    const Gate bystander = make_gate(GateKind::h, 2);
+    sink.gate(step_first ? p : s);
+    sink.gate(bystander);  // on another qubit: does not stop the fusion
+    sink.gate(step_first ? s : p);
+    sink.finish();
+    int cx = 0;
+    for (const Gate& g : out.gates) {
+      cx += g.kind == GateKind::cx;
+      EXPECT_NE(g.kind, GateKind::swap);
+    }
+    EXPECT_EQ(cx, 1);
+    std::vector<Gate> want = step_first ? step : swap;
+    want.push_back(bystander);
+    for (const Gate& g : step_first ? swap : step) want.push_back(g);
+    for (int basis = 0; basis < 8; ++basis) {
+      StateVector got(3), ref(3);
+      got.set_basis(static_cast<std::size_t>(basis));
+      ref.set_basis(static_cast<std::size_t>(basis));
+      for (const Gate& g : out.gates) got.apply(g);
+      for (const Gate& g : want) ref.apply(g);
+      for (std::size_t i = 0; i < 8; ++i) EXPECT_LT(std::abs(got.amplitudes()[i] - ref.amplitudes()[i]), 1e-12) << basis;
+    }
+  }
+}
+
+TEST(Spine, EveryQubitOfASmallDefectiveHeavyHexagonChipMatchesFftw) {
+  // Every live qubit of a defective heavy-hex:1x2 (dead qubits and a broken coupler, renumbered, no
+  // positions; the first seed whose largest piece has 9 to 12 qubits and no chain through all of them):
+  // the spine plan, with its detours' fused SWAPs, against FFTW's QFT column by column.
+  std::optional<Device> chip;
+  for (std::uint64_t seed = 1; seed <= 50 && !chip; ++seed) {
+    Device d = testing::make_defective_chip("heavy-hex:1x2", 7, 1, seed);
+    if (d.qubit_count() < 9 || d.qubit_count() > 12) continue;
+    PlanOptions probe;
+    probe.spec.qubits = d.qubit_count();
+    probe.strategy = "spine";
+    try {
+      if (!prepare_plan(d, probe).circuit->detours().empty()) chip = std::move(d);
+    } catch (const PlanningError&) {  // a chain holds every qubit: no detour to test
+    }
+  }
+  ASSERT_TRUE(chip.has_value());
+  const Device& dev = *chip;
+  const int n = dev.qubit_count();
+  PlanOptions opt;
+  opt.spec.qubits = n;
+  opt.strategy = "spine";
+  opt.gates = GateSet::cx;
+  const PreparedPlan plan = prepare_plan(dev, opt);
+  VectorSink gates;
+  execute_plan(dev, opt, plan, &gates);
+  for (const Gate& g : gates.gates) ASSERT_TRUE(!is_two_qubit(g.kind) || dev.coupled(g.q0, g.q1));
+  // The CX decomposition may differ from the QFT by one global phase (FFTW's QFT: plan_simulation.cpp).
+  EXPECT_LT(testing::distance_up_to_phase(testing::plan_unitary(dev, plan, gates.gates), testing::fftw_qft_matrix(n, false)),
+            1e-9);
 }
 
 TEST(Spine, ALargeDefectiveHeavyHexagonChip) {

@@ -31,6 +31,7 @@ class LineCircuit final : public PlannedCircuit {
     DetourSink detour(sink);
     for (const Detour& d : detours()) detour.add(d);
     emit_chain_qft(spec(), *network_, region(), detour);
+    detour.drain();
   }
 
  private:

@@ -1,6 +1,8 @@
 #include "qftplan/planners/spine_layout.hpp"
 
 #include <algorithm>
+#include <random>
+#include <cstdlib>
 
 
 #include <fmt/format.h>
@@ -22,6 +24,10 @@ namespace qftplan {
 
 namespace {
 
+// Seeded random starts of spines besides the three above, on pieces of at most kSpineStartsLimit qubits.
+constexpr int kSpineStarts = 12;
+constexpr int kSpineStartsLimit = 2000;
+
 // Breadth-first distances from `from` inside the piece; the farthest qubit (lowest number on ties).
 int farthest(const Device& device, const std::vector<char>& inside, int from) {
   std::vector<int> dist(device.qubit_count(), -1), queue{from};
@@ -36,25 +42,25 @@ int farthest(const Device& device, const std::vector<char>& inside, int from) {
   return far;
 }
 
-// The spine: the longest of three chains, each lengthened (spine_growth.cpp): the deepest branches of
+// Candidate spines, the first three as before: chains, each lengthened (spine_growth.cpp): the deepest branches of
 // depth-first trees from both ends of a long shortest path (found by two breadth-first sweeps), and
 // the longest chain the chain search reports (measured on defective position-free heavy-hexagon
 // chips of 100 to 10,000 qubits, the last is the longest by far; seeded random starts never won).
-std::vector<int> grow_best_spine(const Device& device, const std::vector<char>& inside, int size, std::uint64_t seed,
-                                 const RunBudget* budget) {
+std::vector<std::vector<int>> grow_spines(const Device& device, const std::vector<char>& inside, int size,
+                                          std::uint64_t seed, const RunBudget* budget) {
   std::vector<int> members;
   for (int q = 0; q < device.qubit_count(); ++q)
     if (inside[q]) members.push_back(q);
   BudgetPoll poll(budget, 64);
-  std::vector<int> best;
+  std::vector<std::vector<int>> spines;
   auto consider = [&](std::vector<int> path, std::uint64_t s) {
     lengthen_spine(device, inside, path, s, poll);
-    if (path.size() > best.size()) best = std::move(path);
+    if (std::find(spines.begin(), spines.end(), path) == spines.end()) spines.push_back(std::move(path));
   };
   const int f1 = farthest(device, inside, members.front());
   const int f2 = farthest(device, inside, f1);
   consider(deepest_branch(device, inside, f1, seed), seed);
-  if (static_cast<int>(best.size()) == size) return best;
+  if (static_cast<int>(spines.front().size()) == size) return spines;
   consider(deepest_branch(device, inside, f2, seed + 1), seed + 1);
   ChainSearchOptions cso;
   cso.seed = seed;
@@ -64,7 +70,17 @@ std::vector<int> grow_best_spine(const Device& device, const std::vector<char>& 
   std::vector<int> chain = find_chain(device, size, cso).longest;
   const bool usable = !chain.empty() && std::all_of(chain.begin(), chain.end(), [&](int q) { return inside[q] != 0; });
   if (usable) consider(std::move(chain), seed + 2);
-  return best;
+  // The longest spine is not always the cheapest: what hangs off it matters too (a long branch left
+  // hanging costs long detours). On chips of up to a few thousand qubits, spines grown from seeded
+  // random starts join the candidates; the layout keeps the cheapest line over all of them.
+  if (size <= kSpineStartsLimit) {
+    std::mt19937_64 rng(seed ^ 0x5ee0);
+    for (int k = 0; k < kSpineStarts && !poll.stop(); ++k) {
+      const int start = members[std::uniform_int_distribution<std::size_t>(0, members.size() - 1)(rng)];
+      consider(deepest_branch(device, inside, start, seed + 3 + k), seed + 3 + k);
+    }
+  }
+  return spines;
 }
 
 // The qubits off the spine in trees hanging from it: breadth-first from the spine, so each hangs
@@ -74,11 +90,14 @@ struct Forest {
   std::vector<int> root;                    // the spine qubit a tree qubit hangs from (itself on the spine)
   std::vector<int> spine_index;             // position on the spine; -1 off it
   std::vector<std::vector<int>> children;
+  std::vector<int> height;                  // edges from a qubit down to its deepest descendant
+  int deepest = -1;                         // the off-spine child of a spine qubit with the highest subtree
 };
 
 Forest hang_trees(const Device& device, const std::vector<char>& inside, const std::vector<int>& spine) {
   const int N = device.qubit_count();
-  Forest f{std::vector<int>(N, -1), std::vector<int>(N, -1), std::vector<int>(N, -1), std::vector<std::vector<int>>(N)};
+  Forest f{std::vector<int>(N, -1), std::vector<int>(N, -1), std::vector<int>(N, -1), std::vector<std::vector<int>>(N),
+           std::vector<int>(N, 0)};
   std::vector<int> queue = spine;
   for (std::size_t i = 0; i < spine.size(); ++i) f.root[spine[i]] = spine[i], f.spine_index[spine[i]] = static_cast<int>(i);
   for (std::size_t h = 0; h < queue.size(); ++h)
@@ -88,6 +107,11 @@ Forest hang_trees(const Device& device, const std::vector<char>& inside, const s
         f.children[queue[h]].push_back(t);
         queue.push_back(t);
       }
+  for (std::size_t h = queue.size(); h-- > spine.size();) {
+    const int q = queue[h], p = f.parent[q];
+    f.height[p] = std::max(f.height[p], f.height[q] + 1);
+    if (f.spine_index[p] >= 0 && (f.deepest < 0 || f.height[q] > f.height[f.deepest])) f.deepest = q;
+  }
   return f;
 }
 
@@ -97,10 +121,15 @@ Forest hang_trees(const Device& device, const std::vector<char>& inside, const s
 // later one once, next to it), so detours are cheapest late in the line: the walk back gathers the
 // trees of the spine's second part where a long detour costs least. j = spine length reads every
 // tree in place.
-std::vector<int> line_for_split(const Forest& f, const std::vector<int>& spine, std::size_t j) {
+std::vector<int> line_for_split(const Forest& f, const std::vector<int>& spine, std::size_t j, bool deep_last,
+                                bool deepest_end) {
   std::vector<int> line, stack;
-  auto trees = [&](int s) {
-    stack.assign(f.children[s].rbegin(), f.children[s].rend());
+  const int held_back = deepest_end ? f.deepest : -1;
+  // The subtrees of spine qubit s's children, depth first: all of them, only the leaves (kind 1) or
+  // only the others (kind 2); the held-back subtree is skipped.
+  auto trees = [&](int s, int kind) {
+    for (auto c = f.children[s].rbegin(); c != f.children[s].rend(); ++c)
+      if (*c != held_back && (kind == 0 || f.children[*c].empty() == (kind == 1))) stack.push_back(*c);
     while (!stack.empty()) {
       const int q = stack.back();
       stack.pop_back();
@@ -108,9 +137,29 @@ std::vector<int> line_for_split(const Forest& f, const std::vector<int>& spine, 
       stack.insert(stack.end(), f.children[q].rbegin(), f.children[q].rend());
     }
   };
-  for (std::size_t i = 0; i < j; ++i) line.push_back(spine[i]), trees(spine[i]);
+  for (std::size_t i = 0; i < j; ++i) {
+    line.push_back(spine[i]);
+    trees(spine[i], deep_last ? 1 : 0);
+  }
   for (std::size_t i = j; i < spine.size(); ++i) line.push_back(spine[i]);
-  for (std::size_t i = spine.size(); i-- > j;) trees(spine[i]);
+  for (std::size_t i = spine.size(); i-- > j;) trees(spine[i], 0);
+  // Deep trees kept back from the first part follow, still walking back towards the start.
+  if (deep_last)
+    for (std::size_t i = j; i-- > 0;) trees(spine[i], 2);
+  // The highest subtree last, its highest branch last of all: the line ends inside it, so its
+  // longest way back is never walked.
+  if (held_back >= 0) {
+    stack.push_back(held_back);
+    std::vector<int> kids;
+    while (!stack.empty()) {
+      const int q = stack.back();
+      stack.pop_back();
+      line.push_back(q);
+      kids = f.children[q];
+      std::stable_sort(kids.begin(), kids.end(), [&](int a, int b) { return f.height[a] > f.height[b]; });
+      stack.insert(stack.end(), kids.begin(), kids.end());
+    }
+  }
   return line;
 }
 
@@ -181,7 +230,7 @@ struct LineDetours {
 };
 
 LineDetours line_detours(const Device& device, const Forest& f, const std::vector<int>& spine,
-                         const std::vector<int>& line) {
+                         const std::vector<int>& line, bool fused) {
   std::vector<int> position(device.qubit_count(), -1), from(device.qubit_count(), -2), mark(device.qubit_count(), 0);
   for (std::size_t p = 0; p < line.size(); ++p) position[line[p]] = static_cast<int>(p);
   LineDetours out;
@@ -194,7 +243,17 @@ LineDetours line_detours(const Device& device, const Forest& f, const std::vecto
       std::vector<int> via = shorter_path(device, position, from, a, b, d.via.size(), 4096);
       if (!via.empty()) d.via = std::move(via);
     }
-    out.cost += static_cast<long long>(d.via.size()) * (n - static_cast<long long>(p));
+    // The end whose first SWAP is on a line pair steps aside: that SWAP follows the parity step the
+    // network ran on that pair just before and fuses with it (sinks/detour_sink.hpp), so each gate
+    // of the detour costs 6 |via| - 4 CX instead of 6 |via|.
+    auto on_line_pair = [&](int x, int y) { return std::abs(position[x] - position[y]) == 1; };
+    if (!on_line_pair(d.a, d.via.front()) && on_line_pair(d.b, d.via.back())) {
+      std::swap(d.a, d.b);
+      std::reverse(d.via.begin(), d.via.end());
+    }
+    const long long per_gate =
+        6 * static_cast<long long>(d.via.size()) - (fused && on_line_pair(d.a, d.via.front()) ? 4 : 0);
+    out.cost += per_gate * (n - static_cast<long long>(p));
     out.detours.push_back(std::move(d));
   }
   return out;
@@ -204,7 +263,8 @@ LineDetours line_detours(const Device& device, const Forest& f, const std::vecto
 
 constexpr int kSplits = 32;
 
-SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, const RunBudget* budget, bool in_place) {
+SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, const RunBudget* budget, bool in_place,
+                              bool fused_swaps) {
   SpineLayout out;
   if (device.qubit_count() == 0) throw PlanningError(fmt::format("{} has no qubits", device.name()));
   auto [comp, count] = device.components();
@@ -217,23 +277,31 @@ SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, c
         "the spine strategy needs {} connected qubits; the largest connected piece of {} has {}", n, device.name(), largest));
   std::vector<char> inside(device.qubit_count(), 0);
   for (int q = 0; q < device.qubit_count(); ++q) inside[q] = comp[q] == big && device.usable(q);
-  out.spine = grow_best_spine(device, inside, largest, seed, budget);
-  // Both directions of the spine, each with the trees read in place, gathered on a walk back from the
-  // end, or split between the two at a few points; the cheapest line by the weighted detour cost.
+  // For each candidate spine, both directions, each with the trees read in place, gathered on a walk
+  // back from the end, or split between the two at a few points; the cheapest line by the weighted
+  // detour cost.
   long long best = -1;
-  for (int direction = 0; direction < 2; ++direction) {
-    const Forest forest = hang_trees(device, inside, out.spine);
-    const std::size_t m = out.spine.size();
-    // The gathered trees' long detours run through the busy spine and lengthen the depth well past
-    // the in-place reading's (measured: 1.6 to 2 x on heavy-hex:4x5 to 6x6), so `in_place` skips them.
-    for (int k = in_place ? kSplits : 0; k <= kSplits; ++k) {
-      std::vector<int> line = line_for_split(forest, out.spine, m * static_cast<std::size_t>(k) / kSplits);
-      line.resize(n);
-      LineDetours d = line_detours(device, forest, out.spine, line);
-      if (best < 0 || d.cost < best) best = d.cost, out.line = std::move(line), out.detours = std::move(d.detours);
+  std::vector<int> best_spine;
+  for (std::vector<int>& spine : grow_spines(device, inside, largest, seed, budget))
+    for (int direction = 0; direction < 2; ++direction) {
+      const Forest forest = hang_trees(device, inside, spine);
+      const std::size_t m = spine.size();
+      // The gathered trees' long detours run through the busy spine and lengthen the depth well past
+      // the in-place reading's (measured: 1.6 to 2 x on heavy-hex:4x5 to 6x6), so `in_place` skips them.
+      for (int k = in_place ? kSplits : 0; k <= kSplits; ++k)
+        for (int variant = 0; variant < 4; ++variant) {
+          const bool deep_last = variant & 1, deepest_end = variant & 2;
+          if (in_place && variant != 0) continue;
+          std::vector<int> line =
+              line_for_split(forest, spine, m * static_cast<std::size_t>(k) / kSplits, deep_last, deepest_end);
+          line.resize(n);
+          LineDetours d = line_detours(device, forest, spine, line, fused_swaps);
+          if (best < 0 || d.cost < best)
+            best = d.cost, out.line = std::move(line), out.detours = std::move(d.detours), best_spine = spine;
+        }
+      std::reverse(spine.begin(), spine.end());
     }
-    if (direction == 0) std::reverse(out.spine.begin(), out.spine.end());
-  }
+  out.spine = std::move(best_spine);
   // The spine reported is the one the chosen line runs along.
   if (!out.line.empty() && std::find(out.spine.begin(), out.spine.end(), out.line.front()) != out.spine.begin())
     std::reverse(out.spine.begin(), out.spine.end());

@@ -27,7 +27,9 @@ struct SpineLayout {
 /// bounds the chain's growth; out of time, the longest chain so far is the spine. Deterministic for a seed.
 /// The trees are read in place or, for fewer CX, partly gathered at the line's end where detours are
 /// cheap; `in_place` keeps them in place, whose short detours keep the depth linear (more CX).
+/// `fused_swaps`: the network is the parity network, whose step on a line pair fuses with a detour's
+/// first SWAP on that pair (sinks/detour_sink.hpp), so detours that start on a line pair cost less.
 SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, const RunBudget* budget = nullptr,
-                              bool in_place = false);
+                              bool in_place = false, bool fused_swaps = true);
 
 }  // namespace qftplan
