@@ -37,6 +37,11 @@ std::string str_text(const py::object& v) {
   return v.cast<std::string>();
 }
 
+std::string network_text(const py::object& v) {
+  if (!py::isinstance<py::str>(v)) throw py::type_error("network must be a name or a list of names");
+  return v.cast<std::string>();
+}
+
 SurveyDeviceEntry entry_arg(const py::object& d, const std::optional<CalibrationProfile>& calibration) {
   if (py::isinstance<Device>(d)) {
     SurveyDeviceEntry e;
@@ -62,7 +67,8 @@ std::vector<bool> directions_arg(const py::object& inverse) {
 }
 
 std::vector<SurveyRow> run(const py::object& devices, const py::object& qubits, const py::object& approx,
-                           const py::object& inverse, const py::object& strategy, std::uint64_t seed, std::optional<int> jobs_arg,
+                           const py::object& inverse, const py::object& strategy, const py::object& network,
+                           std::uint64_t seed, std::optional<int> jobs_arg,
                            const py::object& calibration, bool measure, const std::string& readout) {
   SurveyRequest req;
   if (!calibration.is_none())
@@ -79,6 +85,8 @@ std::vector<SurveyRow> run(const py::object& devices, const py::object& qubits, 
   req.strategies = parse_name_list(joined(strategy, str_text), "strategy");
   // The same check and message as `qftplan survey`.
   check_strategy_names(req.strategies);
+  req.networks = parse_name_list(joined(network, network_text), "network");
+  check_network_names(req.networks);
   req.seed = seed;
   req.measure = measure;
   req.readout = readout;
@@ -102,11 +110,12 @@ void bind_survey(py::module_& m) {
       "  approx    'none', an int, 'auto', or a list of them\n"
       "  inverse   False, True, 'both', or a list of bools\n"
       "  strategy  a strategy name or a list of names\n"
+      "  network   a chain network name ('auto', 'insertion', ... as plan's network) or a list of names\n"
       "  seed      seed of every randomised search; jobs: worker threads (None: every core)\n"
       "  timing    include the wall-time column elapsed_ms (off: reproducible output)\n"
       "  calibration  a calibration profile file applied to every device (as --calibration)\n"
       "  measure   every run ends in a measurement; readout: 'unitary', 'semiclassical' or 'auto' (as plan)\n"
-      "Cases run in the command line's order (device, strategy, approx, direction, size); a case that\n"
+      "Cases run in the command line's order (device, strategy, network, approx, direction, size); a case that\n"
       "cannot be planned is a row with status 'failed' and its reason.";
   static const std::string survey_doc = std::string("Runs a survey and returns its rows as dicts (the JSON-lines fields).\n") + args_doc;
   static const std::string csv_doc = std::string("Runs a survey and returns the CSV text (RFC 4180) the command line writes.\n") + args_doc;
@@ -114,26 +123,26 @@ void bind_survey(py::module_& m) {
       "survey",
       [](const py::object& devices, const py::object& qubits, const py::object& approx, const py::object& inverse,
          const py::object& strategy, std::uint64_t seed, std::optional<int> jobs, bool timing,
-         const py::object& calibration, bool measure, const std::string& readout) {
-        const auto rows = run(devices, qubits, approx, inverse, strategy, seed, jobs, calibration, measure, readout);
+         const py::object& calibration, bool measure, const std::string& readout, const py::object& network) {
+        const auto rows = run(devices, qubits, approx, inverse, strategy, network, seed, jobs, calibration, measure, readout);
         py::list out;
         for (const auto& r : rows) out.append(to_python(survey_row_to_json(r, timing_arg(timing))));
         return out;
       },
       py::arg("devices"), py::arg("qubits"), py::kw_only(), py::arg("approx") = "none", py::arg("inverse") = false,
       py::arg("strategy") = "auto", py::arg("seed") = 1, py::arg("jobs") = py::none(), py::arg("timing") = false,
-      py::arg("calibration") = py::none(), py::arg("measure") = false, py::arg("readout") = "auto", survey_doc.c_str());
+      py::arg("calibration") = py::none(), py::arg("measure") = false, py::arg("readout") = "auto", py::arg("network") = "auto", survey_doc.c_str());
   m.def(
       "survey_csv",
       [](const py::object& devices, const py::object& qubits, const py::object& approx, const py::object& inverse,
          const py::object& strategy, std::uint64_t seed, std::optional<int> jobs, bool timing,
-         const py::object& calibration, bool measure, const std::string& readout) {
-        const auto rows = run(devices, qubits, approx, inverse, strategy, seed, jobs, calibration, measure, readout);
+         const py::object& calibration, bool measure, const std::string& readout, const py::object& network) {
+        const auto rows = run(devices, qubits, approx, inverse, strategy, network, seed, jobs, calibration, measure, readout);
         return survey_csv(rows, timing_arg(timing));
       },
       py::arg("devices"), py::arg("qubits"), py::kw_only(), py::arg("approx") = "none", py::arg("inverse") = false,
       py::arg("strategy") = "auto", py::arg("seed") = 1, py::arg("jobs") = py::none(), py::arg("timing") = false,
-      py::arg("calibration") = py::none(), py::arg("measure") = false, py::arg("readout") = "auto", csv_doc.c_str());
+      py::arg("calibration") = py::none(), py::arg("measure") = false, py::arg("readout") = "auto", py::arg("network") = "auto", csv_doc.c_str());
 }
 
 }  // namespace qftplan::python

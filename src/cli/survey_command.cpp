@@ -62,6 +62,10 @@ CLI::App* add_survey_command(CLI::App& app, SurveyArgs& a) {
   survey->add_option("--direction", a.direction, "forward, inverse or both (default: forward)");
   survey->add_option("--strategy", a.strategy, "planning strategies, comma-separated (see qftplan help plan)")
       ->capture_default_str();
+  survey->add_option("--network", a.network,
+                     "chain networks, comma-separated (as plan --network); several are compared in one chart, and a "
+                     "run the network does not apply to is a failed row with the reason")
+      ->capture_default_str();
   survey->add_flag("--measure", a.measure, "every run ends with a measurement of every register qubit (as plan --measure)");
   survey->add_option("--readout", a.readout, "with --measure: unitary, semiclassical or auto (as plan --readout)")
       ->capture_default_str();
@@ -89,6 +93,8 @@ int run_survey_command(const SurveyArgs& a) {
   else throw InputError("--direction expects forward, inverse or both, got '" + a.direction + "'");
   req.strategies = parse_name_list(a.strategy, "--strategy");
   check_strategy_names(req.strategies);
+  req.networks = parse_name_list(a.network, "--network");
+  check_network_names(req.networks);
   req.seed = a.seed;
   req.measure = a.measure;
   req.readout = a.readout;

@@ -30,6 +30,7 @@ struct SurveyArgs {
   std::string direction;
   bool inverse = false;
   std::string strategy = "auto";
+  std::string network = "auto";  // --network LIST
   bool measure = false;
   std::string readout = "auto";
   int jobs = 0;

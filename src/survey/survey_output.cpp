@@ -45,7 +45,7 @@ nlohmann::ordered_json optional_json(const std::optional<T>& v) {
 
 std::vector<std::string> survey_csv_columns(SurveyTiming timing) {
   std::vector<std::string> c = {"index", "series", "device", "device_qubits", "qubits", "asked_strategy", "asked_approx",
-                                "inverse", "status", "strategy", "network", "approx_degree", "swaps", "blocks",
+                                "inverse", "status", "strategy", "asked_network", "network", "approx_degree", "swaps", "blocks",
                                 "rotations", "depth_2q", "cx_count", "cx_depth", "esp", "log_esp",
                                 "esp_total", "log_esp_total", "duration_ns",
                                 "lower_bound_blocks", "lower_bound_depth_2q", "blocks_ratio", "depth_2q_ratio"};
@@ -75,6 +75,7 @@ std::string survey_csv(const std::vector<SurveyRow>& rows, SurveyTiming timing) 
     f.push_back(r.inverse ? "true" : "false");
     f.push_back(status_text(r));
     f.push_back(r.strategy);
+    f.push_back(r.asked_network);
     f.push_back(r.network);
     const auto when_ok = [&](long long v) { return r.ok ? std::to_string(v) : std::string(); };
     f.push_back(optional_text(r.approx_degree));
@@ -120,6 +121,7 @@ nlohmann::ordered_json survey_row_to_json(const SurveyRow& r, SurveyTiming timin
   j["status"] = status_text(r);
   const auto when_ok = [&](long long v) { return r.ok ? nlohmann::ordered_json(v) : nlohmann::ordered_json(nullptr); };
   j["strategy"] = r.ok ? nlohmann::ordered_json(r.strategy) : nlohmann::ordered_json(nullptr);
+  j["asked_network"] = r.asked_network;
   j["network"] = r.ok ? nlohmann::ordered_json(r.network) : nlohmann::ordered_json(nullptr);
   j["approx_degree"] = optional_json(r.approx_degree);
   j["swaps"] = when_ok(r.swaps);
@@ -246,6 +248,8 @@ std::vector<SurveyRow> parse_survey_jsonl(const std::string& text, const std::st
     r.ok = status != "failed";
     r.cut_short = status == "time-limit";
     r.strategy = rd.text_or_empty("strategy");
+    // Rows written before surveys took --network have no such field: they all asked for auto.
+    r.asked_network = j.contains("asked_network") ? rd.text("asked_network") : std::string("auto");
     r.network = rd.text_or_empty("network");
     r.approx_degree = rd.optional_int("approx_degree");
     r.swaps = rd.integer_or_zero("swaps");

@@ -171,25 +171,27 @@ std::vector<SurveyCase> expand_survey(const SurveyRequest& request) {
     plan_options(probe);
   }
   const long long total = static_cast<long long>(request.devices.size()) * request.strategies.size() *
-                          request.approx.size() * request.directions.size() * request.sizes.size();
+                          request.networks.size() * request.approx.size() * request.directions.size() * request.sizes.size();
   if (total > kMaxCases)
     throw InputError(fmt::format("the survey has {} runs, more than the limit of {}; split it up", total, kMaxCases));
   std::vector<SurveyCase> cases;
   cases.reserve(static_cast<std::size_t>(total));
   for (int e = 0; e < static_cast<int>(request.devices.size()); ++e)
     for (const auto& strategy : request.strategies)
-      for (const auto& approx : request.approx)
-        for (const bool inverse : request.directions)
-          for (const int n : request.sizes) {
-            SurveyCase c;
-            c.index = static_cast<long long>(cases.size());
-            c.entry = e;
-            c.qubits = n;
-            c.approx = approx;
-            c.inverse = inverse;
-            c.strategy = strategy;
-            cases.push_back(std::move(c));
-          }
+      for (const auto& network : request.networks)
+        for (const auto& approx : request.approx)
+          for (const bool inverse : request.directions)
+            for (const int n : request.sizes) {
+              SurveyCase c;
+              c.index = static_cast<long long>(cases.size());
+              c.entry = e;
+              c.qubits = n;
+              c.approx = approx;
+              c.inverse = inverse;
+              c.strategy = strategy;
+              c.network = network;
+              cases.push_back(std::move(c));
+            }
   return cases;
 }
 
@@ -209,6 +211,9 @@ std::string survey_fingerprint(const SurveyRequest& request) {
   for (const auto& a : request.approx) text += "approx=" + a.text() + ";";
   for (const bool inv : request.directions) text += inv ? "dir=inverse;" : "dir=forward;";
   for (const auto& s : request.strategies) text += "strategy=" + s + ";";
+  // Only a network list other than the default enters, so that older surveys keep their fingerprint.
+  if (request.networks != std::vector<std::string>{"auto"})
+    for (const auto& w : request.networks) text += "network=" + w + ";";
   // The profile's values (not its file name): shards calibrated alike merge, others do not. A survey
   // without a profile keeps the fingerprint it always had.
   if (request.calibration) {
@@ -234,6 +239,16 @@ void check_strategy_names(const std::vector<std::string>& names) {
       find_strategy(name);
     } catch (const InputError& e) {
       throw SettingError("strategy", std::string(": ") + e.what());
+    }
+  }
+}
+
+void check_network_names(const std::vector<std::string>& names) {
+  for (const auto& name : names) {
+    try {
+      parse_network_choice(name);
+    } catch (const InputError& e) {
+      throw SettingError("network", std::string(": ") + e.what());
     }
   }
 }

@@ -25,6 +25,7 @@ SurveyRow run_survey_case(const SurveyRequest& request, const SurveyCase& c) {
   row.qubits = c.qubits;
   row.asked_strategy = c.strategy;
   row.asked_approx = c.approx.text();
+  row.asked_network = c.network;
   row.inverse = c.inverse;
   try {
     std::shared_ptr<const Device> dev = entry.device;
@@ -46,6 +47,9 @@ SurveyRow run_survey_case(const SurveyRequest& request, const SurveyCase& c) {
     settings.approx = c.approx.text();
     settings.seed = request.seed;
     settings.strategy = c.strategy;
+    // A network that does not apply to this case (exact transform, a strategy without chain networks)
+    // is refused by the planner like any other invalid request: the row records why.
+    settings.network = c.network;
     settings.measure = request.measure;
     settings.readout = request.readout;
     PlanOptions opt = plan_options(settings);

@@ -12,14 +12,16 @@ struct Column {
   bool right = true;   // numbers right-aligned, text left-aligned
 };
 
-std::string group_title(const SurveyRow& r) {
+// `networks`: the survey asks for a network other than auto, so every heading names the one asked.
+std::string group_title(const SurveyRow& r, bool networks) {
   std::string approx = r.asked_approx == "none" ? "exact" : r.asked_approx == "auto" ? "degree auto" : "degree " + r.asked_approx;
-  return fmt::format("{}  ({}, {}, strategy {})", r.series, r.inverse ? "inverse" : "forward", approx, r.asked_strategy);
+  return fmt::format("{}  ({}, {}, strategy {}{})", r.series, r.inverse ? "inverse" : "forward", approx, r.asked_strategy,
+                     networks ? ", network " + r.asked_network : std::string());
 }
 
 bool same_group(const SurveyRow& a, const SurveyRow& b) {
-  return a.series == b.series && a.asked_strategy == b.asked_strategy && a.asked_approx == b.asked_approx &&
-         a.inverse == b.inverse;
+  return a.series == b.series && a.asked_strategy == b.asked_strategy && a.asked_network == b.asked_network &&
+         a.asked_approx == b.asked_approx && a.inverse == b.inverse;
 }
 
 }  // namespace
@@ -73,12 +75,14 @@ std::string format_survey_table(const std::vector<SurveyRow>& rows, SurveyTiming
   std::vector<std::string> titles;
   for (const auto& c : cols) titles.push_back(c.title);
 
+  const bool networks =
+      std::any_of(rows.begin(), rows.end(), [](const SurveyRow& r) { return r.asked_network != "auto"; });
   std::string out;
   long long ok = 0;
   for (std::size_t i = 0; i < rows.size(); ++i) {
     if (i == 0 || !same_group(rows[i - 1], rows[i])) {
       if (i) out += "\n";
-      out += group_title(rows[i]) + "\n";
+      out += group_title(rows[i], networks) + "\n";
       out += line(titles);
     }
     out += line(cells[i]);

@@ -3,7 +3,9 @@
 /// The charts of a survey: CX count (native two-qubit gates) and native two-qubit depth against
 /// register size, and ESP against register size (log scale) when any device carries calibration.
 /// Each quantity is a group of panels, one per setting (the strategy, degree and direction asked,
-/// when the survey varies them) sharing both axes, with a series per device entry.
+/// when the survey varies them) sharing both axes, with a series per device entry. A survey of several
+/// networks compares them in one panel instead: a series per (network, degree asked), coloured by
+/// network, and a panel per device entry, strategy and direction.
 
 #include <string>
 #include <vector>

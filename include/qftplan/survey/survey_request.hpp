@@ -1,7 +1,7 @@
 #pragma once
 /// \file survey_request.hpp
 /// What a survey runs: devices (fixed ones and fitted families such as "grid:*"), register sizes,
-/// approximation degrees, directions and strategies, expanded into an ordered list of cases that
+/// approximation degrees, directions, strategies and chain networks, expanded into an ordered list of cases that
 /// can be cut into shards.
 
 #include <atomic>
@@ -45,6 +45,7 @@ struct SurveyRequest {
   std::vector<ApproxSetting> approx{ApproxSetting{}};  ///< --approx settings, in the order given
   std::vector<bool> directions{false};    ///< false: forward QFT, true: inverse
   std::vector<std::string> strategies{"auto"};  ///< names from plan_strategies()
+  std::vector<std::string> networks{"auto"};    ///< --network names (network_choice_name), in the order given
   bool measure = false;                   ///< every run ends in a measurement (plan --measure)
   std::string readout = "auto";           ///< with measure: unitary, semiclassical or auto (plan --readout)
   std::uint64_t seed = 1;                 ///< seed of every randomised search
@@ -62,6 +63,7 @@ struct SurveyCase {
   ApproxSetting approx;                   ///< the --approx setting
   bool inverse = false;                   ///< inverse QFT
   std::string strategy;                   ///< the --strategy name
+  std::string network = "auto";           ///< the --network name
 };
 
 /// A slice of a survey: the K-th (1-based) of M.
@@ -84,6 +86,9 @@ std::vector<std::string> parse_name_list(const std::string& text, const std::str
 /// registry's one unknown-strategy message otherwise.
 void check_strategy_names(const std::vector<std::string>& names);
 
+/// Checks every name with parse_network_choice; SettingError on the "network" setting otherwise.
+void check_network_names(const std::vector<std::string>& names);
+
 /// Parses "K/M" with 1 <= K <= M; InputError otherwise.
 SurveyShard parse_shard(const std::string& text);
 
@@ -99,8 +104,8 @@ SurveyDeviceEntry make_survey_entry(const std::string& text,
 /// device size limit.
 std::string fitted_family_spec(const std::string& family, int qubits);
 
-/// Every case of the survey in its canonical order: by device entry, then strategy, approximation
-/// setting, direction, and register size (innermost), each in the order given.
+/// Every case of the survey in its canonical order: by device entry, then strategy, network,
+/// approximation setting, direction, and register size (innermost), each in the order given.
 std::vector<SurveyCase> expand_survey(const SurveyRequest& request);
 
 /// The cases of shard K/M: those whose index i has i mod M == K-1 (slices of equal size to within one

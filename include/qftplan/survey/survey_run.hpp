@@ -23,6 +23,7 @@ struct SurveyRow {
   int qubits = 0;                       ///< register size n
   std::string asked_strategy;           ///< the --strategy value of this case
   std::string asked_approx;             ///< the --approx value of this case: none, M or auto
+  std::string asked_network = "auto";   ///< the --network value of this case (network: the one planned)
   bool inverse = false;                 ///< the inverse QFT
   bool ok = false;                      ///< planned; otherwise `reason` says why not
   bool cut_short = false;               ///< planned, but the time limit cut a search short

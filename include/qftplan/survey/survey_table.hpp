@@ -10,7 +10,7 @@
 
 namespace qftplan {
 
-/// A table with one heading line per group of rows (same series, strategy, approximation setting and
+/// A table with one heading line per group of rows (same series, strategy, network, approximation setting and
 /// direction) and one line per run under it; failed runs show their reason. Ends with a count line.
 /// With SurveyTiming::omit the wall-time column is left out (for reproducible text).
 std::string format_survey_table(const std::vector<SurveyRow>& rows, SurveyTiming timing);
