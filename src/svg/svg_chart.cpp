@@ -395,14 +395,23 @@ namespace {
 template <typename Height, typename Draw>
 std::string render_page(const std::string& heading, const std::string& subheading, std::size_t blocks, Height height,
                         Draw draw) {
-  const double width = 980, head = 64;
+  // The subheading may hold several lines (separated by '\n'), each 15 px below the last.
+  std::vector<std::string> sub_lines;
+  for (std::size_t at = 0;;) {
+    const std::size_t nl = subheading.find('\n', at);
+    sub_lines.push_back(subheading.substr(at, nl == std::string::npos ? std::string::npos : nl - at));
+    if (nl == std::string::npos) break;
+    at = nl + 1;
+  }
+  const double width = 980, head = 64 + 15 * static_cast<double>(sub_lines.size() - 1);
   std::vector<double> heights;
   double total = head + 10;
   for (std::size_t i = 0; i < blocks; ++i) heights.push_back(height(i, width - 20)), total += heights.back();
   SvgDocument doc(width, total, heading);
   doc.rect(0, 0, doc.width(), doc.height(), SvgPaint{"#ffffff"});
   doc.text(20, 30, heading, SvgFont{18, "start", "#1a1a1a", true});
-  doc.text(20, 51, subheading, SvgFont{12, "start", "#555555"});
+  for (std::size_t i = 0; i < sub_lines.size(); ++i)
+    doc.text(20, 51 + 15 * static_cast<double>(i), sub_lines[i], SvgFont{12, "start", "#555555"});
   double y = head;
   for (std::size_t i = 0; i < blocks; ++i) {
     draw(doc, i, 10.0, y, width - 20, heights[i]);

@@ -102,7 +102,7 @@ double group_height(const ChartGroup& group, double w);
 /// Draws a group (title, panels, one legend) into the box at (x, y) of width w and group_height.
 void draw_group(SvgDocument& doc, const ChartGroup& group, double x, double y, double w);
 
-/// A page of chart groups stacked vertically under a heading, as a whole SVG document.
+/// A page of chart groups stacked vertically under a heading and a subheading (lines separated by a newline), as a whole SVG document.
 std::string render_group_page(const std::string& heading, const std::string& subheading, const std::vector<ChartGroup>& groups);
 
 /// A page of charts stacked vertically under a heading, as a whole SVG document.
