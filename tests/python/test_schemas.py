@@ -115,6 +115,25 @@ def test_survey_rows_validate(qftplan, tmp_path):
         assert r["schema_version"] == qftplan.SURVEY_ROW_SCHEMA_VERSION == 1
 
 
+def test_network_survey_rows_validate(qftplan, tmp_path):
+    # Rows of a survey over networks, refused runs (no insertion network for the exact QFT) included;
+    # asked_network lists exactly the names the planner takes.
+    rows = survey_rows_from_cli(tmp_path, "line:*", "--qubits", "8,12", "--approx", "3,none",
+                                "--network", "insertion,parity,auto")
+    rows += qftplan.survey("line:*", 8, approx=[3, None], network=["leapfrog", "parity-insertion"])
+    assert {r["asked_network"] for r in rows} == {"insertion", "parity", "auto", "leapfrog", "parity-insertion"}
+    assert any(r["status"] == "failed" for r in rows) and any(r["status"] == "ok" for r in rows)
+    v = validator(ROW_SCHEMA)
+    for r in rows:
+        v.validate(r)
+    for name in ROW_SCHEMA["properties"]["asked_network"]["enum"]:
+        assert qftplan.survey("line:*", 4, approx=3, network=name)[0]["asked_network"] == name
+    broken = copy.deepcopy(rows[0])
+    broken["asked_network"] = "teleport"
+    with pytest.raises(jsonschema.ValidationError):
+        v.validate(broken)
+
+
 def test_time_limited_rows_validate(tmp_path, monkeypatch):
     # A search cut short by --time-limit still plans: status time-limit, the figures, and the reason.
     # The counting clock (QFTPLAN_TEST_CLOCK_TICK, DEVELOPERS.md) makes the cut independent of the

@@ -70,3 +70,41 @@ def test_default_jobs_use_every_core_and_give_the_same_rows(qftplan):
     assert qftplan.survey(["line:6", "grid:*"], [3, 5]) == one
     with pytest.raises(qftplan.InputError, match="jobs"):
         qftplan.survey("line:4", 3, jobs=0)
+
+
+def test_networks_compared_in_one_survey(qftplan, tmp_path):
+    # network= takes a name or a list, like strategy=; the module's CSV is the command line's byte for byte.
+    csv_path = tmp_path / "s.csv"
+    run_cli("survey", "line:*", "--qubits", "16,24", "--approx", "4,none", "--network", "insertion,auto",
+            "--jobs", 1, "--no-timing", "--quiet", "--csv", csv_path, check=True)
+    kwargs = dict(approx=[4, None], network=["insertion", "auto"])
+    assert qftplan.survey_csv("line:*", [16, 24], **kwargs) == csv_path.read_bytes().decode()
+    rows = qftplan.survey("line:*", [16, 24], **kwargs)
+    assert [(r["asked_network"], r["asked_approx"], r["qubits"]) for r in rows] == [
+        (w, a, n) for w in ("insertion", "auto") for a in ("4", "none") for n in (16, 24)]
+    for r in rows:
+        if r["asked_network"] == "insertion" and r["asked_approx"] == "none":
+            # The insertion network exists for approximate degrees only: a failed row with plan's reason.
+            assert r["status"] == "failed" and r["cx_count"] is None and "insertion" in r["reason"]
+            with pytest.raises(qftplan.InputError) as e:
+                qftplan.plan(r["device"], r["qubits"], network="insertion")
+            assert r["reason"] in str(e.value)
+            continue
+        assert r["status"] == "ok"
+        approx = "none" if r["asked_approx"] == "none" else int(r["asked_approx"])
+        report = qftplan.plan(r["device"], r["qubits"], approx=approx, network=r["asked_network"]).report
+        assert (r["network"], r["cx_count"], r["cx_depth"]) == (report["network"], report["cx_count"], report["cx_depth"])
+        if r["asked_network"] == "insertion":
+            assert r["network"] == "insertion"
+    # A single name is a list of one.
+    one = qftplan.survey("line:*", 16, approx=4, network="insertion")
+    assert [(r["asked_network"], r["network"]) for r in one] == [("insertion", "insertion")]
+
+
+def test_bad_network_names(qftplan):
+    status, _, err = run_cli("survey", "line:4", "--qubits", "3", "--network", "auto,teleport", "--quiet")
+    assert status == 2 and "--network" in err and "teleport" in err
+    with pytest.raises(qftplan.InputError, match="network"):
+        qftplan.survey("line:4", 3, network="teleport")
+    with pytest.raises(TypeError):
+        qftplan.survey("line:4", 3, network=3)
