@@ -24,7 +24,9 @@
 // At the end a CX ladder from the right turns the differences into output bits, and the one-bit
 // terms go on x at the start and on y at the end, as in the parity network.
 
+#include <cstdint>
 #include <stdexcept>
+#include <string>
 #include <vector>
 
 #include "qftplan/networks/parity_qft.hpp"
@@ -90,26 +92,24 @@ std::vector<int> window_circuit(const QftSpec& spec, const QftNetwork& network, 
   auto rz = [&](int wire, const Angle& a) {
     if (!a.is_zero()) put(make_gate(GateKind::rz, q(wire), -1, a));
   };
-  // The rotation of distance 1 .. d once per distance. The Hadamard's partner has pi less, kept as a
-  // term of its own (pi/2^64 - pi has no 64-bit numerator).
-  std::vector<Angle> plain(d + 1);
-  for (int dist = 1; dist <= d; ++dist) plain[dist] = Angle::pi_over_pow2(static_cast<std::uint32_t>(dist));
   // The rz of a pass or an in-place meeting: minus half the rotation; for the partner's pass, whose
   // rotation has pi less (c - pi: its one-bit terms get -pi/2 each below), also plus pi/2, one angle
   // where it fits. (Halves are not defined modulo 2 pi: the three terms must use the same c.)
   std::vector<Angle> parity_rz(d + 1);
   std::vector<std::vector<Angle>> partner_rz(d + 1);
   for (int dist = 1; dist <= d; ++dist) {
-    parity_rz[dist] = -plain[dist].half();
+    parity_rz[dist] = -Angle::pi_over_pow2(static_cast<std::uint32_t>(dist) + 1);
     AngleSum t;
     t.add(parity_rz[dist]);
     t.add(Angle(1, 1));
     partner_rz[dist] = t.terms;
   }
-  auto weight = [&](int earlier, int later) -> const Angle& {
+  // The distance of a meeting of neighbours `earlier` (left) and `later` (right), checked.
+  auto meeting = [&](int earlier, int later, const char* what) {
     const int dist = later - earlier;
-    if (dist < 1 || dist > d) throw std::logic_error("parity insertion: a meeting beyond the degree");
-    return plain[dist];
+    if (pos[later] != pos[earlier] + 1 || dist < 1 || dist > d)
+      throw std::logic_error(std::string("parity insertion: ") + what + " out of place");
+    return dist;
   };
   OneBitTerms in(n, d + 1), out(n, d + 1);  // one-bit terms of x (start) and y (end)
   // Step k is the meeting with the Hadamard's partner: the last pass before the in-place meeting.
@@ -157,24 +157,20 @@ std::vector<int> window_circuit(const QftSpec& spec, const QftNetwork& network, 
           break;
         }
         case Kind::cp_swap: {
-          const int w = op.i, c = op.j;
-          if (pos[c] != pos[w] + 1) throw std::logic_error("parity insertion: a block not leftwards");
+          const int w = op.i, c = op.j, dist = meeting(w, c, "a block");
           cx(c, w);
-          weight(w, c);  // in range
           if (is_partner(ops, k))
-            for (const Angle& a : partner_rz[c - w]) rz(w, a);
+            for (const Angle& a : partner_rz[dist]) rz(w, a);
           else
-            rz(w, parity_rz[c - w]);
+            rz(w, parity_rz[dist]);
           cx(w, c);
           passed = true;
           break;
         }
         case Kind::cp: {
-          const int f = op.i, c = op.j;
-          if (pos[c] != pos[f] + 1) throw std::logic_error("parity insertion: a controlled phase out of place");
+          const int f = op.i, c = op.j, dist = meeting(f, c, "a controlled phase");
           cx(c, f);
-          weight(f, c);  // in range
-          rz(f, parity_rz[c - f]);
+          rz(f, parity_rz[dist]);
           cx(c, f);
           front = f;
           break;
