@@ -167,6 +167,21 @@ TEST(InsertionNetwork, FewerCxThanLeapfrogAtEveryDegree) {
   }
 }
 
+// The parity form's CX count, worked out from its steps without writing gates (the degree choice asks
+// it for every degree of big registers), equals the CX it writes, forward and inverse.
+TEST(InsertionNetwork, ParityFormCountEqualsTheGatesWritten) {
+  for (int n : {3, 4, 7, 20, 65})
+    for (int d = 2; d < n; d += 2)
+      for (bool inverse : {false, true}) {
+        const auto net = make_parity_insertion_network(n, d);
+        std::vector<int> chain(n);
+        for (int i = 0; i < n; ++i) chain[i] = i;
+        MetricsSink m(n);
+        emit_chain_qft(QftSpec{n, d + 1, inverse}, *net, chain, m);
+        EXPECT_EQ(m.count(GateKind::cx), network_native_cost(*net)) << n << " " << d << " " << inverse;
+      }
+}
+
 // Costs in native two-qubit gates (Vidal and Dawson, PRA 69, 010301, 2004: 3 CX per fused block, 2
 // per controlled phase; ours: 2 per parity step): anchored 3 (n-1)(n-2)/2 + 2 (n-1), parity n^2 - 1.
 // They tie at n = 4 (15 CX; the anchored network wins the tie); parity is cheaper from n = 5 on.

@@ -176,6 +176,21 @@ TEST(DetourSink, ASwapBesideAParityStepOnTheSamePairIsOneCx) {
   }
 }
 
+// The spine plan of n qubits on `dev` in CX gates: every two-qubit gate on a coupler, and the unitary
+// equal to FFTW's QFT up to one global phase (the CX decomposition may differ by one; plan_simulation.cpp).
+void expect_spine_plan_matches_fftw(const Device& dev, int n) {
+  PlanOptions opt;
+  opt.spec.qubits = n;
+  opt.strategy = "spine";
+  opt.gates = GateSet::cx;
+  const PreparedPlan plan = prepare_plan(dev, opt);
+  VectorSink gates;
+  execute_plan(dev, opt, plan, &gates);
+  for (const Gate& g : gates.gates) ASSERT_TRUE(!is_two_qubit(g.kind) || dev.coupled(g.q0, g.q1));
+  EXPECT_LT(testing::distance_up_to_phase(testing::plan_unitary(dev, plan, gates.gates), testing::fftw_qft_matrix(n, false)),
+            1e-9);
+}
+
 TEST(Spine, EveryQubitOfASmallDefectiveHeavyHexagonChipMatchesFftw) {
   // Every live qubit of a defective heavy-hex:1x2 (dead qubits and a broken coupler, renumbered, no
   // positions; the first seed whose largest piece has 9 to 12 qubits and no chain through all of them):
@@ -194,18 +209,7 @@ TEST(Spine, EveryQubitOfASmallDefectiveHeavyHexagonChipMatchesFftw) {
   }
   ASSERT_TRUE(chip.has_value());
   const Device& dev = *chip;
-  const int n = dev.qubit_count();
-  PlanOptions opt;
-  opt.spec.qubits = n;
-  opt.strategy = "spine";
-  opt.gates = GateSet::cx;
-  const PreparedPlan plan = prepare_plan(dev, opt);
-  VectorSink gates;
-  execute_plan(dev, opt, plan, &gates);
-  for (const Gate& g : gates.gates) ASSERT_TRUE(!is_two_qubit(g.kind) || dev.coupled(g.q0, g.q1));
-  // The CX decomposition may differ from the QFT by one global phase (FFTW's QFT: plan_simulation.cpp).
-  EXPECT_LT(testing::distance_up_to_phase(testing::plan_unitary(dev, plan, gates.gates), testing::fftw_qft_matrix(n, false)),
-            1e-9);
+  expect_spine_plan_matches_fftw(dev, dev.qubit_count());
 }
 
 TEST(Spine, ALargeDefectiveHeavyHexagonChip) {
@@ -224,17 +228,7 @@ TEST(Spine, TwoHopQubitsOfATreeMatchFftw) {
   std::size_t longest = 0;
   for (const Detour& d : layout.detours) longest = std::max(longest, d.via.size());
   EXPECT_GE(longest, 2u) << "no detour along several qubits";
-  PlanOptions opt;
-  opt.spec.qubits = 9;
-  opt.strategy = "spine";
-  opt.gates = GateSet::cx;
-  const PreparedPlan plan = prepare_plan(dev, opt);
-  VectorSink gates;
-  execute_plan(dev, opt, plan, &gates);
-  for (const Gate& g : gates.gates) ASSERT_TRUE(!is_two_qubit(g.kind) || dev.coupled(g.q0, g.q1));
-  // The CX decomposition may differ from the QFT by one global phase (FFTW's QFT: plan_simulation.cpp).
-  EXPECT_LT(testing::distance_up_to_phase(testing::plan_unitary(dev, plan, gates.gates), testing::fftw_qft_matrix(9, false)),
-            1e-9);
+  expect_spine_plan_matches_fftw(dev, 9);
 }
 
 }  // namespace

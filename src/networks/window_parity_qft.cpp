@@ -24,7 +24,9 @@
 // At the end a CX ladder from the right turns the differences into output bits, and the one-bit
 // terms go on x at the start and on y at the end, as in the parity network.
 
+#include <cstdint>
 #include <stdexcept>
+#include <string>
 #include <vector>
 
 #include "qftplan/networks/parity_qft.hpp"
@@ -51,6 +53,34 @@ struct AngleSum {
   }
 };
 
+// One-bit terms of every wire: sums of pi/2^k (k <= top) counted exactly in units of pi/2^top modulo
+// 2 pi while top <= 61 (a 64-bit count), as Angle sums beyond (slower: each addition normalises).
+class OneBitTerms {
+ public:
+  OneBitTerms(int n, int top) : top_(top), fast_(top <= 61), units_(fast_ ? n : 0), sums_(fast_ ? 0 : n) {}
+  // Adds sign * pi / 2^k to wire w (k <= top).
+  void add(int w, int sign, int k) {
+    if (fast_) {
+      const std::uint64_t u = std::uint64_t{1} << (top_ - k);
+      units_[w] = (sign > 0 ? units_[w] + u : units_[w] - u) & mask();
+    } else {
+      sums_[w].add(Angle(sign, static_cast<std::uint32_t>(k)));
+    }
+  }
+  std::vector<Angle> terms(int w) const {
+    if (!fast_) return sums_[w].terms;
+    if (units_[w] == 0) return {};
+    return {Angle(static_cast<std::int64_t>(units_[w]), static_cast<std::uint32_t>(top_))};
+  }
+
+ private:
+  std::uint64_t mask() const { return (std::uint64_t{1} << (top_ + 1)) - 1; }  // 2 pi = 2^(top+1) units
+  int top_;
+  bool fast_;
+  std::vector<std::uint64_t> units_;
+  std::vector<AngleSum> sums_;
+};
+
 // The forward circuit, gate by gate, to `put`; returns the final chain position of every wire.
 template <class Put>
 std::vector<int> window_circuit(const QftSpec& spec, const QftNetwork& network, std::span<const int> chain, Put&& put) {
@@ -62,12 +92,26 @@ std::vector<int> window_circuit(const QftSpec& spec, const QftNetwork& network, 
   auto rz = [&](int wire, const Angle& a) {
     if (!a.is_zero()) put(make_gate(GateKind::rz, q(wire), -1, a));
   };
-  auto weight = [&](int earlier, int later, bool partner) {
+  // The rz of a pass or an in-place meeting: minus half the rotation; for the partner's pass, whose
+  // rotation has pi less (c - pi: its one-bit terms get -pi/2 each below), also plus pi/2, one angle
+  // where it fits. (Halves are not defined modulo 2 pi: the three terms must use the same c.)
+  std::vector<Angle> parity_rz(d + 1);
+  std::vector<std::vector<Angle>> partner_rz(d + 1);
+  for (int dist = 1; dist <= d; ++dist) {
+    parity_rz[dist] = -Angle::pi_over_pow2(static_cast<std::uint32_t>(dist) + 1);
+    AngleSum t;
+    t.add(parity_rz[dist]);
+    t.add(Angle(1, 1));
+    partner_rz[dist] = t.terms;
+  }
+  // The distance of a meeting of neighbours `earlier` (left) and `later` (right), checked.
+  auto meeting = [&](int earlier, int later, const char* what) {
     const int dist = later - earlier;
-    const Angle rotation = dist <= d ? Angle::pi_over_pow2(static_cast<std::uint32_t>(dist)) : Angle{};
-    return partner ? rotation + Angle(-1, 0) : rotation;
+    if (pos[later] != pos[earlier] + 1 || dist < 1 || dist > d)
+      throw std::logic_error(std::string("parity insertion: ") + what + " out of place");
+    return dist;
   };
-  std::vector<AngleSum> in(n), out(n);  // one-bit terms of x (start) and y (end)
+  OneBitTerms in(n, d + 1), out(n, d + 1);  // one-bit terms of x (start) and y (end)
   // Step k is the meeting with the Hadamard's partner: the last pass before the in-place meeting.
   auto is_partner = [](std::span<const NetworkOp> ops, std::size_t k) {
     return ops[k].kind == Kind::cp_swap && k + 2 < ops.size() && ops[k + 1].kind == Kind::cp &&
@@ -79,20 +123,24 @@ std::vector<int> window_circuit(const QftSpec& spec, const QftNetwork& network, 
     for (std::size_t k = 0; k < ops.size(); ++k) {
       const NetworkOp& op = ops[k];
       if (op.kind == Kind::cp || op.kind == Kind::cp_swap) {
-        const Angle c = weight(op.i, op.j, is_partner(ops, k));
-        in[op.j].add(c.half());
-        out[op.i].add(c.half());
+        const int half = op.j - op.i + 1;  // the rotation pi/2^dist halved
+        in.add(op.j, 1, half);
+        out.add(op.i, 1, half);
+        if (is_partner(ops, k)) {  // -pi halved
+          in.add(op.j, -1, 1);
+          out.add(op.i, -1, 1);
+        }
       }
       if (op.kind == Kind::h && k > 1 && ops[k - 2].kind == Kind::cp_swap) {
         const int g = ops[k - 2].i;  // the Hadamard's partner: the wire passed last
-        out[op.i].add(Angle(-1, 1));
-        out[g].add(Angle(-1, 1));
-        out[g].add(Angle(-1, 0));
+        out.add(op.i, -1, 1);
+        out.add(g, -1, 1);
+        out.add(g, -1, 0);
       }
     }
   });
   for (int w = 0; w < n; ++w)
-    for (const Angle& a : in[w].terms) rz(w, a);
+    for (const Angle& a : in.terms(w)) rz(w, a);
 
   network.for_each_chunk([&](std::span<const NetworkOp> ops) {
     int front = -1;  // the wire c met in place just before its Hadamard
@@ -109,19 +157,20 @@ std::vector<int> window_circuit(const QftSpec& spec, const QftNetwork& network, 
           break;
         }
         case Kind::cp_swap: {
-          const int w = op.i, c = op.j;
-          if (pos[c] != pos[w] + 1) throw std::logic_error("parity insertion: a block not leftwards");
+          const int w = op.i, c = op.j, dist = meeting(w, c, "a block");
           cx(c, w);
-          rz(w, -weight(w, c, is_partner(ops, k)).half());
+          if (is_partner(ops, k))
+            for (const Angle& a : partner_rz[dist]) rz(w, a);
+          else
+            rz(w, parity_rz[dist]);
           cx(w, c);
           passed = true;
           break;
         }
         case Kind::cp: {
-          const int f = op.i, c = op.j;
-          if (pos[c] != pos[f] + 1) throw std::logic_error("parity insertion: a controlled phase out of place");
+          const int f = op.i, c = op.j, dist = meeting(f, c, "a controlled phase");
           cx(c, f);
-          rz(f, -weight(f, c, false).half());
+          rz(f, parity_rz[dist]);
           cx(c, f);
           front = f;
           break;
@@ -145,7 +194,7 @@ std::vector<int> window_circuit(const QftSpec& spec, const QftNetwork& network, 
 
   for (int p = n - 2; p >= 0; --p) cx(at[p + 1], at[p]);
   for (int w = 0; w < n; ++w)
-    for (const Angle& a : out[w].terms) rz(w, a);
+    for (const Angle& a : out.terms(w)) rz(w, a);
   return pos;
 }
 
@@ -176,16 +225,14 @@ QubitMaps emit_window_parity_qft(const QftSpec& spec, const QftNetwork& network,
 }
 
 long long window_parity_cx(const QftNetwork& network) {
+  // What window_circuit writes, from the step counts (the degree choice asks this for every degree of
+  // big registers): a SWAP 2 CX (a finished wire only steps left once wires have finished before it,
+  // so its left neighbour exists), a block 2, an in-place meeting 2 and 1 after the Hadamard, the
+  // ladder n-1. A test compares it with the gates written.
   const int n = network.wires();
   if (n < 2) return 0;
-  std::vector<int> chain(n);
-  for (int p = 0; p < n; ++p) chain[p] = p;
-  QftSpec spec;
-  spec.qubits = n;
-  spec.approx_degree = network.max_distance() + 1;
-  long long cx = 0;
-  window_circuit(spec, network, chain, [&](const Gate& g) { cx += g.kind == GateKind::cx; });
-  return cx;
+  const auto c = network.step_counts();
+  return 2 * (c[static_cast<int>(Kind::swap)] + c[static_cast<int>(Kind::cp_swap)]) + 3 * c[static_cast<int>(Kind::cp)] + n - 1;
 }
 
 }  // namespace qftplan
