@@ -296,6 +296,37 @@ TEST(QasmReader, AnglesAreExactMultiplesOfPiOverPowersOfTwo) {
   EXPECT_EQ(angle_of("3*pi/" + pow2_decimal(1000), 2), Angle(3, 1000));
 }
 
+// The writer's shapes ([-]pi, [-]pi/2**k, [-]pi/2^j in digits, then ')') are read on a short path
+// (qasm_gate_calls.cpp); every shape next to them must still reach the evaluator and get its value
+// by the OpenQASM 3 precedence table (Cross et al. 2022, see the top of this file): ** before * and /,
+// which go left to right.
+TEST(QasmReader, ShortPathAnglesAndTheirNeighbours) {
+  EXPECT_EQ(angle_of("-pi"), Angle(1, 0));            // -pi == pi mod 2 pi
+  EXPECT_EQ(angle_of("pi/8"), Angle(1, 3));
+  EXPECT_EQ(angle_of("-pi/4096"), Angle(-1, 12));
+  EXPECT_EQ(angle_of("-pi/2**0"), Angle(1, 0));
+  EXPECT_EQ(angle_of("-pi/2**9999"), Angle(-1, 9999));
+  EXPECT_EQ(angle_of("  -pi/2**3"), Angle(-1, 3));
+  // Not the short path's shape: the evaluator decides.
+  EXPECT_EQ(angle_of("pi/2**12345"), Angle(1, 12345));  // five digits
+  EXPECT_EQ(angle_of("pi/2**3 "), Angle(1, 3));
+  EXPECT_EQ(angle_of("pi/2 **3"), Angle(1, 3));
+  EXPECT_EQ(angle_of("pi/2**3*2"), Angle(1, 2));        // (pi/8)*2
+  EXPECT_EQ(angle_of("pi/2**3+pi/8"), Angle(1, 2));
+  EXPECT_EQ(angle_of("pi/2**-3"), Angle{});             // 8 pi
+  EXPECT_EQ(angle_of("pi/4**2"), Angle(1, 4));
+  EXPECT_EQ(angle_of("pi/1"), Angle(1, 0));
+  EXPECT_EQ(angle_of("pi/6*3"), Angle(1, 1));
+  EXPECT_EQ(angle_of("-pi/2^3", 2), Angle(-1, 3));      // OpenQASM 2 power
+  EXPECT_EQ(angle_of("pi/8", 2), Angle(1, 3));
+  EXPECT_TRUE(parse("OPENQASM 3;\nrz(pi/6) $0;\n").inexact_angle.has_value());
+  EXPECT_NE(error_of("OPENQASM 3;\nrz(pi/2**3 $0;\n").message().find("expected ')'"), std::string::npos)
+      << error_of("OPENQASM 3;\nrz(pi/2**3 $0;\n").message();
+  EXPECT_NE(error_of("OPENQASM 3;\nrz(pix) $0;\n").message().find("unknown identifier 'pix'"), std::string::npos);
+  // A gate whose angle is fixed by its name or that takes no angle gets no short path.
+  EXPECT_NE(error_of("OPENQASM 3;\nh(pi) $0;\n").message().find("parameter"), std::string::npos);
+}
+
 TEST(QasmReader, DecimalAnglesWithinToleranceOfAMultiple) {
   // A plain decimal is taken when within 1e-12 (relative) of num * pi / 2^k.
   EXPECT_EQ(angle_of("1.5707963267948966"), Angle(1, 1));

@@ -88,25 +88,23 @@ std::string StructuralChecker::Impl::single_text(const WideAngle& s) {
 
 void StructuralChecker::Impl::add_pair(int u, int v, const Angle& a, int line) {
   const auto key = proof::pair_key(u, v);
-  auto [it, fresh] = pairs.try_emplace(key);
+  auto [t, fresh] = pairs.try_emplace(key);
   if (fresh) {
     partners[u].push_back(v);
     partners[v].push_back(u);
-    it->second.angle = a;
-    it->second.line = line;
+    t->set(a, line);
     return;
   }
-  auto s = proof::add_angles(it->second.angle, a);
+  auto s = proof::add_angles(t->angle(), a);
   if (!s) {
     cannot_prove("phase sum with denominators too far apart", line);
     return;
   }
   if (s->is_zero()) {
-    pairs.erase(it);  // the partner lists keep a stale entry; lookups skip it
+    pairs.erase(t);  // the partner lists keep a stale entry; lookups skip it
     return;
   }
-  it->second.angle = *s;
-  it->second.line = line;
+  t->set(*s, line);
 }
 
 // Adds coefficient * theta for the monomial given as a mask over `vars`.

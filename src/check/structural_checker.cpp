@@ -315,13 +315,20 @@ std::string StructuralChecker::Impl::leftover_term(int& line) const {
       return "a phase of " + single_text(single[v]) + " is left on " + var_name(v) + ", which the QFT does not have" +
              at_line(single_line[v]);
     }
-  for (const auto& [key, t] : pairs) {
-    const int a = static_cast<int>(key >> 32), b = static_cast<int>(key & 0xffffffffu);
-    line = t.line;
-    return "a controlled phase of " + angle_text(t.angle) + " is left between " + var_name(a) + " and " + var_name(b) +
-           ", which the QFT does not have" + at_line(t.line);
-  }
-  return {};
+  // The term with the smallest key, so that the message does not depend on the table's order.
+  std::uint64_t first = proof::PairTable::kEmpty;
+  proof::Term term;
+  pairs.for_each([&](std::uint64_t key, const proof::Term& t) {
+    if (key < first) {
+      first = key;
+      term = t;
+    }
+  });
+  if (first == proof::PairTable::kEmpty) return {};
+  const int a = static_cast<int>(first >> 32), b = static_cast<int>(first & 0xffffffffu);
+  line = term.line;
+  return "a controlled phase of " + angle_text(term.angle()) + " is left between " + var_name(a) + " and " +
+         var_name(b) + ", which the QFT does not have" + at_line(term.line);
 }
 
 // Output bit k on final_placement[k], and every other qubit back in |0> ("" when so).

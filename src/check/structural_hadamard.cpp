@@ -111,17 +111,17 @@ void StructuralChecker::Impl::check_closing_phases(int w, Window win, int line) 
               line);
       continue;
     }
-    auto it = pairs.find(proof::pair_key(v, n + k));
-    if (it == pairs.end()) {
+    const proof::Term* t = pairs.find(proof::pair_key(v, n + k));
+    if (!t) {
       differ({w, k, Angle{}, want}, "controlled phase between " + lqs(w, k) + " is missing (expected angle " + angle_text(want) +
                   " before the Hadamard on " + lq(w) + ")",
               line);
       continue;
     }
-    if (!(it->second.angle == want))
-      differ({w, k, it->second.angle, want}, "controlled phase between " + lqs(w, k) + " has angle " + angle_text(it->second.angle) + ", expected " +
-                  angle_text(want) + at_line(it->second.line),
-              it->second.line > 0 ? it->second.line : line);
+    if (const Angle got = t->angle(); !(got == want))
+      differ({w, k, got, want}, "controlled phase between " + lqs(w, k) + " has angle " + angle_text(got) + ", expected " +
+                  angle_text(want) + at_line(t->line),
+              t->line > 0 ? t->line : line);
   }
 }
 
@@ -130,12 +130,12 @@ void StructuralChecker::Impl::check_closing_phases(int w, Window win, int line) 
 void StructuralChecker::Impl::clear_terms_of(int w, Window win, int line) {
   const int v = w;
   for (int u : partners[v]) {
-    auto it = pairs.find(proof::pair_key(v, u));
-    if (it == pairs.end()) continue;
+    proof::Term* t = pairs.find(proof::pair_key(v, u));
+    if (!t) continue;
     const bool expected = u >= n && win.contains(u - n);
     if (!expected) {
       const int other = u >= n ? u - n : u;
-      std::string what = "an unexpected controlled phase of " + angle_text(it->second.angle) + " between " + lqs(w, other);
+      std::string what = "an unexpected controlled phase of " + angle_text(t->angle()) + " between " + lqs(w, other);
       if (u < n)
         what += ", applied before either of their Hadamards";
       else if (spec.inverse ? other < w : other > w)
@@ -143,12 +143,11 @@ void StructuralChecker::Impl::clear_terms_of(int w, Window win, int line) {
       else
         what += " (beyond the approximation degree or duplicated)";
       const int b = u >= n ? u - n : proof::Difference::kInputPair;
-      differ({w, b, it->second.angle, Angle{}}, what + at_line(it->second.line),
-             it->second.line > 0 ? it->second.line : line);
+      differ({w, b, t->angle(), Angle{}}, what + at_line(t->line), t->line > 0 ? t->line : line);
     } else {
       ++terms_checked;
     }
-    pairs.erase(it);  // final either way: the input leaves the qubits here
+    pairs.erase(t);  // final either way: the input leaves the qubits here
   }
   std::vector<int>().swap(partners[v]);
   single[v] = WideAngle{};

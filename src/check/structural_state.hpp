@@ -36,6 +36,7 @@
 #include <vector>
 
 #include "exact_angles.hpp"
+#include "pair_table.hpp"
 #include "qftplan/check/qft_checker.hpp"
 
 namespace qftplan {
@@ -67,12 +68,6 @@ struct Difference {
 /// At most this many differences are kept for the final comparison (beyond: lost track).
 constexpr std::size_t kMaxDifferences = 1 << 16;
 
-/// A degree-2 term of the phase polynomial.
-struct Term {
-  Angle angle;
-  int line = 0;  ///< last gate that changed it
-};
-
 /// The key of the degree-2 monomial of variables a and b (order-free).
 inline std::uint64_t pair_key(int a, int b) {
   if (a > b) std::swap(a, b);
@@ -99,7 +94,7 @@ struct StructuralChecker::Impl {
   // gate that changed it.
   std::vector<WideAngle> single;
   std::vector<int> single_line;
-  std::unordered_map<std::uint64_t, proof::Term> pairs;  // degree-2 monomials
+  proof::PairTable pairs;  // degree-2 monomials (pair_table.hpp)
   std::vector<std::vector<int>> partners;  // per variable: possible pair partners (may be stale)
   std::vector<char> h_done;       // per wire
   std::vector<int> h_line;        // per wire

@@ -94,6 +94,10 @@ class StatementReader : protected ExpressionReader {
   // Reads statements up to and including the closing '}'.
   void body_statements(const Scope& sc);
   void gate_call(std::string_view name, const Pos& at, const Scope& sc);
+  // The one angle shape our writer emits, [-]pi, [-]pi/2**k or [-]pi/2^j written as digits, right
+  // before the closing ')': read it without the expression evaluator (true, ')' consumed). Anything
+  // else leaves the position alone (false) for the evaluator.
+  bool pi_over_pow2_argument(Angle& out);
   // Number of broadcast repetitions; registers must agree in size.
   int broadcast(const std::vector<Operand>& ops);
   // Emits (or, in a definition, counts) a built-in gate `reps` times over the operands.
