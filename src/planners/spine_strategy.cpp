@@ -37,7 +37,8 @@ PreparedPlan prepare_spine(const Device& device, const PlanOptions& options) {
   const SpineLayout layout = make_spine_layout(device, spec.qubits, options.search.seed, options.budget,
                                                  options.objective == Objective::depth ||
                                                      options.objective == Objective::duration,
-                                                 choose_network(spec, options.end_order, options.network)->parity());
+                                                 choose_network(spec, options.end_order, options.network)->rendering() ==
+                                                     QftNetwork::Rendering::parity);
   throw_if_interrupted(options.budget);
   if (layout.detours.empty() || static_cast<int>(layout.spine.size()) >= spec.qubits)
     throw PlanningError("the register fits on one chain: the chain strategy covers it");
