@@ -176,5 +176,55 @@ TEST(BlockwiseQft, TwoBlocksOrFewerAreExactAgainstFftw) {
   }
 }
 
+// The inverse stream undoes the forward one on the same chain (it starts where the forward one ends).
+TEST(BlockwiseQft, InverseUndoesForward) {
+  const int n = 7, m = 2;
+  std::vector<int> chain(n);
+  for (int p = 0; p < n; ++p) chain[p] = p;
+  Collect fwd, inv;
+  emit_blockwise_qft(n, m, false, chain, fwd);
+  emit_blockwise_qft(n, m, true, chain, inv);
+  for (int x : {0, 5, 77, 127}) {
+    State s(1 << n);
+    s[x] = 1;
+    for (const Gate& g : fwd.gates) apply(s, g);
+    for (const Gate& g : inv.gates) apply(s, g);
+    EXPECT_NEAR(std::abs(s[x]), 1.0, 1e-9) << x;
+  }
+}
+
+// The error against the exact QFT (FFTW) shrinks as the blocks grow, and the normalised Frobenius
+// distance ||V - F||_F / sqrt(2^n) stays below 2, the largest distance between two unitaries' columns
+// (common practice: ||u - v|| <= ||u|| + ||v||). With three or more blocks the construction is not exact.
+TEST(BlockwiseQft, ErrorShrinksWithBlockLength) {
+  const int n = 10, N = 1 << n;
+  const auto ref = testing::fftw_qft_matrix(n, false);
+  std::vector<int> chain(n);
+  for (int p = 0; p < n; ++p) chain[p] = p;
+  double previous = 3;
+  for (int m = 2; m <= 4; ++m) {
+    Collect sink;
+    const auto pos = emit_blockwise_qft(n, m, false, chain, sink);
+    double sum = 0;
+    for (int x = 0; x < N; ++x) sum += std::pow(distance(planned_column(n, sink.gates, pos, x), ref[x]), 2);
+    const double frob = std::sqrt(sum / N);
+    EXPECT_GT(frob, 1e-3) << m;
+    EXPECT_LT(frob, previous) << m;
+    EXPECT_LT(frob, 2.0) << m;
+    previous = frob;
+  }
+}
+
+// The depth depends on the block length only: three layers of block transforms, each a reversal
+// network of at most 2m wires, whose 2s - 3 layers bound its two-qubit depth (Fowler, Devitt and
+// Hollenberg, Quantum Inf. Comput. 4, 237, 2004).
+TEST(BlockwiseQft, TwoQubitDepthDoesNotGrowWithN) {
+  for (int m : {3, 8}) {
+    const int at64 = blockwise_two_qubit_depth(64, m);
+    EXPECT_LE(at64, 3 * (2 * (2 * m) - 3));
+    for (int n : {256, 1024, 4096}) EXPECT_EQ(blockwise_two_qubit_depth(n, m), at64) << n << " " << m;
+  }
+}
+
 }  // namespace
 }  // namespace qftplan
