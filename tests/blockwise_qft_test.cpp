@@ -13,6 +13,7 @@
 #include <random>
 #include <vector>
 
+#include "qftplan/core/blockwise_error.hpp"
 #include "qftplan/networks/blockwise_qft.hpp"
 #include "plan_simulation.hpp"
 
@@ -223,6 +224,81 @@ TEST(BlockwiseQft, TwoQubitDepthDoesNotGrowWithN) {
     const int at64 = blockwise_two_qubit_depth(64, m);
     EXPECT_LE(at64, 3 * (2 * (2 * m) - 3));
     for (int n : {256, 1024, 4096}) EXPECT_EQ(blockwise_two_qubit_depth(n, m), at64) << n << " " << m;
+  }
+}
+
+// The closed-form overlap <QFT x|U x> (blockwise_error.cpp) against the emitted gates simulated here and
+// the exact QFT from FFTW (Frigo and Johnson, "The design and implementation of FFTW3", Proc. IEEE 93,
+// 216, 2005), for every basis input, every block length, n <= 9.
+TEST(BlockwiseError, OverlapMatchesSimulationAgainstFftw) {
+  for (int n = 1; n <= 9; ++n) {
+    const auto ref = testing::fftw_qft_matrix(n, false);
+    for (int m = 1; m <= n; ++m) {
+      std::vector<int> chain(n);
+      for (int p = 0; p < n; ++p) chain[p] = p;
+      Collect sink;
+      const auto pos = emit_blockwise_qft(n, m, false, chain, sink);
+      for (int x = 0; x < (1 << n); ++x) {
+        const State col = planned_column(n, sink.gates, pos, x);
+        cd want = 0;
+        for (int y = 0; y < (1 << n); ++y) want += std::conj(ref[x][y]) * col[y];
+        std::vector<std::uint8_t> bits(n);
+        for (int k = 0; k < n; ++k) bits[k] = static_cast<std::uint8_t>((x >> k) & 1);
+        const cd got = blockwise_overlap(m, bits);
+        ASSERT_LT(std::abs(got - want), 1e-9) << "n=" << n << " m=" << m << " x=" << x << " want " << want;
+      }
+    }
+  }
+}
+
+// The figures by enumeration against the same simulation: readout success E_x |<QFT x|U x>|^2 (the
+// probability that phase estimation returns the exact phase, Nielsen & Chuang 2000, section 5.2.1),
+// normalised Frobenius distance, fraction of columns beyond a threshold, average-gate infidelity
+// (Nielsen, "A simple formula for the average gate fidelity", Phys. Lett. A 303, 249, 2002).
+TEST(BlockwiseError, EnumeratedFiguresMatchSimulation) {
+  const int n = 10, N = 1 << n;
+  const auto ref = testing::fftw_qft_matrix(n, false);
+  for (int m : {2, 3, 4, 5}) {
+    std::vector<int> chain(n);
+    for (int p = 0; p < n; ++p) chain[p] = p;
+    Collect sink;
+    const auto pos = emit_blockwise_qft(n, m, false, chain, sink);
+    double readout = 0, frob2 = 0, above = 0, worst = 0;
+    cd trace = 0;
+    for (int x = 0; x < N; ++x) {
+      const State col = planned_column(n, sink.gates, pos, x);
+      cd ov = 0;
+      for (int y = 0; y < N; ++y) ov += std::conj(ref[x][y]) * col[y];
+      const double d = distance(col, ref[x]);
+      readout += std::norm(ov);
+      frob2 += d * d;
+      above += d > 0.05;
+      worst = std::max(worst, d);
+      trace += ov;
+    }
+    const auto f = blockwise_figures(n, m, 0.05);
+    EXPECT_EQ(f.exact, m >= 5) << m;
+    EXPECT_FALSE(f.sampled);
+    EXPECT_NEAR(f.readout_success, readout / N, 1e-9) << m;
+    EXPECT_NEAR(f.frobenius, std::sqrt(frob2 / N), 1e-9) << m;
+    EXPECT_NEAR(f.worst_column, worst, 1e-9) << m;
+    EXPECT_NEAR(f.infidelity, 1 - (N * std::norm(trace / double(N)) + 1) / (N + 1), 1e-9) << m;
+    if (!f.exact) EXPECT_DOUBLE_EQ(f.fraction_above, above / N) << m;
+  }
+}
+
+// A seeded sample agrees with enumeration within four of its standard errors (n = 14, where both run),
+// and at large n the distance depends on the block length, not on n: the error of a block pair does not
+// grow with the register (arXiv:2505.00701, the construction's locality), only the number of pairs.
+TEST(BlockwiseError, SampleAgreesWithEnumeration) {
+  for (int m : {3, 5}) {
+    const auto all = blockwise_figures(14, m, 0.1);
+    const auto some = blockwise_figures(14, m, 0.1, 7, 3e7, /*enumerate_up_to=*/0);
+    ASSERT_TRUE(some.sampled);
+    EXPECT_GT(some.readout_standard_error, 0);
+    EXPECT_NEAR(some.readout_success, all.readout_success, 4 * some.readout_standard_error + 1e-12) << m;
+    EXPECT_NEAR(some.frobenius, all.frobenius, 4 * some.frobenius_standard_error + 1e-12) << m;
+    EXPECT_NEAR(some.fraction_above, all.fraction_above, 4 * some.fraction_above_standard_error + 1e-12) << m;
   }
 }
 
