@@ -195,12 +195,13 @@ void spec_from_header(std::string_view text, QftSpec& spec) {
   if (line_at == std::string_view::npos) return;
   const auto line = text.substr(line_at, text.find('\n', line_at) - line_at);
   spec.inverse = line.find("inverse QFT") != std::string_view::npos;
-  const auto deg = line.find("(degree ");
+  const bool blocks = line.find("(blocks of ") != std::string_view::npos;
+  const auto deg = blocks ? line.find("(blocks of ") : line.find("(degree ");
   if (deg == std::string_view::npos) return;
   int m = 0;
-  const auto digits = line.substr(deg + 8);
+  const auto digits = line.substr(deg + (blocks ? 11 : 8));
   const auto [p, ec] = std::from_chars(digits.data(), digits.data() + digits.size(), m);
-  if (ec == std::errc{} && m >= 1) spec.approx_degree = m;
+  if (ec == std::errc{} && m >= 1) (blocks ? spec.block_length : spec.approx_degree) = m;
 }
 
 }  // namespace
@@ -384,6 +385,11 @@ void plan_input(std::string_view data) {
   // Read last, so that inputs saved before it decode as they did (an exhausted reader gives 0: auto).
   const auto networks = network_choices();
   opt.network = networks[r.below(static_cast<int>(networks.size()))];
+  // As plan_options does: the block construction takes its block length from the degree.
+  if (opt.network == NetworkChoice::blockwise) {
+    opt.spec.block_length = opt.spec.approx_degree;
+    opt.spec.approx_degree.reset();
+  }
   // Parts out of service (read after everything else, for the same reason): a disabled qubit, a disabled
   // coupler, a coupler of error 1. No plan may touch them; the checker refuses any gate that does. Behind
   // a marker byte, so that saved inputs with trailing bytes almost always keep their old meaning.

@@ -96,7 +96,7 @@ TEST(ParityNetwork, NamedNetworksAndTheirErrors) {
     parse_network_choice("fast");
     ADD_FAILURE() << "an unknown network";
   } catch (const InputError& e) {
-    EXPECT_EQ(std::string(e.what()), "unknown network 'fast' (valid: auto, reversal, anchored, leapfrog, insertion, parity-insertion, parity)");
+    EXPECT_EQ(std::string(e.what()), "unknown network 'fast' (valid: auto, reversal, anchored, leapfrog, insertion, parity-insertion, parity, blockwise)");
   }
 }
 
@@ -134,7 +134,7 @@ TEST(ParityNetwork, CommandLinePlanThenCheck) {
     }
   const auto bad = testing::run_qftplan("plan --device line:5 --qubits 5 --network fast");
   EXPECT_EQ(bad.status, 2);
-  EXPECT_EQ(bad.err, "qftplan: unknown network 'fast' (valid: auto, reversal, anchored, leapfrog, insertion, parity-insertion, parity)\n");
+  EXPECT_EQ(bad.err, "qftplan: unknown network 'fast' (valid: auto, reversal, anchored, leapfrog, insertion, parity-insertion, parity, blockwise)\n");
 }
 
 }  // namespace

@@ -1,5 +1,5 @@
-// The references of the state-vector check: the exact QFT by a radix-2 FFT, and the textbook
-// approximate QFT simulated gate by gate.
+// The references of the state-vector check: the exact QFT by a radix-2 FFT, the textbook approximate
+// QFT simulated gate by gate, and the block construction from its description.
 
 #include <algorithm>
 #include <cmath>
@@ -43,9 +43,85 @@ std::vector<cplx> exact_qft(std::vector<cplx> a, bool inverse) {
   return a;
 }
 
+namespace {
+
+// Reverses bits [low, low+size) of every index.
+void reverse_range(std::vector<cplx>& a, int low, int size) {
+  std::vector<cplx> out(a.size());
+  for (std::size_t i = 0; i < a.size(); ++i) {
+    std::size_t j = i;
+    for (int t = 0; t < size; ++t) {
+      const std::size_t bit = (i >> (low + t)) & 1;
+      const int to = low + size - 1 - t;
+      j = (j & ~(std::size_t{1} << to)) | (bit << to);
+    }
+    out[j] = a[i];
+  }
+  a = std::move(out);
+}
+
+// The QFT (eq. 5.2) of bits [low, low+size) of the index read as a number, the other bits fixed.
+void range_qft(std::vector<cplx>& a, int low, int size, bool inverse) {
+  const std::size_t dim = std::size_t{1} << size, mask = (dim - 1) << low;
+  std::vector<cplx> part(dim);
+  for (std::size_t rest = 0; rest < a.size(); ++rest) {
+    if (rest & mask) continue;
+    for (std::size_t v = 0; v < dim; ++v) part[v] = a[rest | (v << low)];
+    part = exact_qft(std::move(part), inverse);
+    for (std::size_t v = 0; v < dim; ++v) a[rest | (v << low)] = part[v];
+  }
+}
+
+// The in-place transform of a bit range (the textbook circuit without its final swaps: the QFT, then
+// the range's bits reversed; Nielsen & Chuang 2000, eq. 5.4 and fig. 5.1), or its inverse.
+void in_place(std::vector<cplx>& a, int low, int size, bool inverse) {
+  if (!inverse) {
+    range_qft(a, low, size, false);
+    reverse_range(a, low, size);
+  } else {
+    reverse_range(a, low, size);
+    range_qft(a, low, size, true);
+  }
+}
+
+// The block construction (arXiv:2505.00701) from its description, on the input value's bits: A, the
+// in-place transform of each block pair (2i+1, 2i); B, each block of those pairs back by its inverse; C,
+// block 0, each pair (2i+2, 2i+1), and the top block when A paired it; then the output bits in the order
+// of eq. 5.2 (all bits reversed). The inverse: the same backwards.
+std::vector<cplx> block_construction(const QftSpec& spec, std::vector<cplx> a) {
+  const int n = spec.qubits, m = *spec.block_length;
+  struct Step {
+    int low, size;
+    bool inverse;
+  };
+  std::vector<std::pair<int, int>> blocks;
+  for (int low = 0; low < n; low += m) blocks.push_back({low, std::min(m, n - low)});
+  const int k = static_cast<int>(blocks.size());
+  std::vector<Step> steps;
+  for (int b = 1; b < k; b += 2) steps.push_back({blocks[b - 1].first, blocks[b - 1].second + blocks[b].second, false});
+  for (int b = 1; b < k; b += 2) {
+    steps.push_back({blocks[b].first, blocks[b].second, true});
+    steps.push_back({blocks[b - 1].first, blocks[b - 1].second, true});
+  }
+  steps.push_back({blocks[0].first, blocks[0].second, false});
+  for (int b = 2; b < k; b += 2) steps.push_back({blocks[b - 1].first, blocks[b - 1].second + blocks[b].second, false});
+  if (k % 2 == 0 && k > 1) steps.push_back({blocks[k - 1].first, blocks[k - 1].second, false});
+  if (!spec.inverse) {
+    for (const Step& s : steps) in_place(a, s.low, s.size, s.inverse);
+    reverse_range(a, 0, n);
+  } else {
+    reverse_range(a, 0, n);
+    for (auto it = steps.rbegin(); it != steps.rend(); ++it) in_place(a, it->low, it->size, !it->inverse);
+  }
+  return a;
+}
+
+}  // namespace
+
 std::vector<cplx> reference_qft(const QftSpec& spec, const std::vector<cplx>& a) {
   const int n = spec.qubits;
   if (a.size() != (std::size_t{1} << n)) throw std::invalid_argument("reference_qft: wrong vector length");
+  if (spec.block_length) return block_construction(spec, a);
   if (spec.effectively_exact()) return exact_qft(a, spec.inverse);
   // Textbook approximate QFT on processing wires (Nielsen & Chuang 2000, Fig. 5.1, with the
   // rotations beyond the degree dropped, Coppersmith 1994): wire i gets H, then the controlled

@@ -26,6 +26,9 @@ CLI::App* add_check_command(CLI::App& app, CheckArgs& a) {
   add_calibration_option(check, a.calibration);
   check->add_option("--qubits,-n", a.qubits, "register size n (default: the file's '// transform:' comment)");
   check->add_option("--approx", a.approx, "approximation degree: none or M (default: the file's '// transform:' comment)");
+  check->add_option("--block-length", a.block_length,
+                    "expect the block construction (plan --network blockwise) with blocks of M qubits (default: the "
+                    "file's '// transform:' comment)");
   check->add_flag("--inverse", a.inverse, "expect the inverse QFT (default: as the file's '// transform:' comment says)");
   check->add_flag("--forward", a.forward, "expect the forward QFT (default: as the file's '// transform:' comment says)");
   check->add_option("--initial", a.initial, "placement (default: the file's '// placement:' comment)");
@@ -48,8 +51,11 @@ CheckRequest settle_request(const CheckArgs& a, const QasmProgram& header) {
   std::optional<bool> inverse;
   if (a.inverse || a.forward) inverse = a.inverse;
   if (a.qubits != kQubitsFromHeader && a.qubits < 1) throw InputError("--qubits must be at least 1");
+  if (a.block_length < 0) throw InputError("--block-length must be at least 1");
+  if (a.block_length > 0 && !a.approx.empty()) throw InputError("--block-length and --approx name two different transforms");
   const CheckTransform transform =
-      check_transform(header, a.qubits == kQubitsFromHeader ? std::nullopt : std::optional(a.qubits), degree, inverse);
+      check_transform(header, a.qubits == kQubitsFromHeader ? std::nullopt : std::optional(a.qubits), degree, inverse,
+                      a.block_length > 0 ? std::optional(a.block_length) : std::nullopt);
   if (!transform.mismatch.empty())
     std::fprintf(stderr, "qftplan: warning: %s; checking against the options\n", transform.mismatch.c_str());
   CheckRequest req;

@@ -19,6 +19,7 @@ struct CheckArgs {
   std::string calibration;  // --calibration FILE (empty: none)
   int qubits = kQubitsFromHeader;  ///< from the file's "// transform:" header unless given
   std::string approx;             ///< empty: from the header (else exact)
+  int block_length = 0;           ///< --block-length M (0: from the header)
   bool inverse = false;
   bool forward = false;           ///< --forward: the forward QFT whatever the header says
   std::string initial;

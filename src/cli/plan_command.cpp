@@ -28,8 +28,14 @@ CLI::App* add_plan_command(CLI::App& app, PlanArgs& a) {
   plan->add_option("--device", a.device, "built-in spec or YAML file")->required();
   add_calibration_option(plan, a.calibration);
   plan->add_option("--qubits,-n", a.qubits, "register size n")->required();
-  plan->add_option("--approx", a.approx, "approximation degree: none (exact), M (keep rotations R_k, k <= M) or auto (best ESP x fidelity)")
+  plan->add_option("--approx", a.approx,
+                   "approximation degree: none (exact), M (keep rotations R_k, k <= M; with --network blockwise: blocks "
+                   "of M qubits) or auto (best esp_total x readout success)")
       ->capture_default_str();
+  plan->add_option("--approx-error", a.approx_error,
+                   "EPS: accept the block construction (arXiv:2505.00701) with normalised Frobenius distance <= EPS to "
+                   "the QFT: --approx auto then considers it, its block length the shortest that meets EPS; the report "
+                   "counts the inputs whose column is farther than EPS");
   plan->add_flag("--inverse", a.inverse, "plan the inverse QFT");
   plan->add_option("--gates", a.gates, "emitted gate set: logical, cx or cz (default: the device's native_2q)");
   plan->add_option("--placement", a.placement, "pin the physical qubit of each input bit: a,b,c,...");
@@ -63,8 +69,9 @@ CLI::App* add_plan_command(CLI::App& app, PlanArgs& a) {
   plan->add_option("--network", a.network,
                    "chain network: auto (of anchored, parity and the approximate insertion, parity-insertion and "
                    "leapfrog, the fewest native two-qubit gates), reversal, anchored, leapfrog, insertion (half the "
-                   "leapfrog CX at degree 3), parity-insertion (a third fewer from degree 5; deeper), or parity "
-                   "(n^2-1 CX for the exact QFT)")
+                   "leapfrog CX at degree 3), parity-insertion (a third fewer from degree 5; deeper), parity "
+                   "(n^2-1 CX for the exact QFT), or blockwise (the log-depth block construction, arXiv:2505.00701: "
+                   "blocks of --approx M qubits; exact on most inputs to about 2^(-M/2), far on a few)")
       ->capture_default_str();
   plan->add_option("--readout", a.readout,
                    "with --measure: unitary (the transform, then a measurement), semiclassical (measure each qubit "
@@ -101,6 +108,7 @@ int run_plan(const PlanArgs& a) {
   settings.measure = a.measure;
   settings.peephole = !a.no_peephole;
   settings.readout = a.readout;
+  settings.approx_error = a.approx_error;
   const QasmVersion version = parse_qasm_version(a.format);
   settings.format = version;
   PlanOptions opt = plan_options(settings);

@@ -2,6 +2,7 @@
 // The "plan" command: plans a QFT on a device and writes OpenQASM and/or a JSON report.
 
 #include <cstdint>
+#include <optional>
 #include <string>
 
 namespace CLI {
@@ -34,6 +35,7 @@ struct PlanArgs {
   std::string end_order = "free";
   std::string network = "auto";
   std::string readout = "auto";
+  std::optional<double> approx_error;  // --approx-error EPS
   bool placement_given = false;  // --placement was on the command line (even empty)
 };
 

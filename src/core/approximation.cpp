@@ -14,6 +14,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 #include <numbers>
 #include <random>
 #include <vector>
@@ -400,6 +401,7 @@ const char* readout_method_name(ReadoutMethod m) {
     case ReadoutMethod::exact: return "exact";
     case ReadoutMethod::enumeration: return "enumeration";
     case ReadoutMethod::transfer: return "transfer";
+    case ReadoutMethod::sampled: return "sampled";
   }
   return "?";
 }
@@ -422,6 +424,24 @@ ApproxFigures approx_figures(int n, std::optional<int> degree, bool with_distanc
   f.log_readout_success = a.log_readout;
   // 1 - F_avg = d (1 - |t|^2) / (d + 1) with t = Tr/d; d/(d+1) = 1/(1 + 2^-n).
   f.infidelity = std::max(0.0, (1.0 - std::norm(a.overlap)) / (1.0 + std::ldexp(1.0, -n)));
+  return f;
+}
+
+ApproxFigures spec_figures(const QftSpec& spec, bool with_distance, double threshold) {
+  if (!spec.block_length) return approx_figures(spec.qubits, spec.approx_degree, with_distance);
+  ApproxFigures f;
+  const BlockwiseFigures b = blockwise_figures(spec.qubits, *spec.block_length, threshold);
+  f.blockwise = b;
+  if (b.exact) {
+    f.distance = 0.0;
+    return f;
+  }
+  f.error_bound = 2;
+  f.readout_success = b.readout_success;
+  f.log_readout_success = b.readout_success > 0 ? std::log(b.readout_success) : -std::numeric_limits<double>::infinity();
+  f.readout_standard_error = b.readout_standard_error;
+  f.infidelity = b.infidelity;
+  f.method = b.sampled ? ReadoutMethod::sampled : ReadoutMethod::enumeration;
   return f;
 }
 

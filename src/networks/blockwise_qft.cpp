@@ -4,6 +4,8 @@
 #include <stdexcept>
 
 #include "qftplan/core/angle.hpp"
+#include "qftplan/networks/chain_qft.hpp"
+#include "qftplan/networks/qft_network.hpp"
 
 namespace qftplan {
 
@@ -20,7 +22,8 @@ std::vector<Block> blocks_of(int n, int m) {
   return out;
 }
 
-// The forward gates of the construction on chain positions 0..n-1 (gate qubits are positions).
+// The forward steps of the construction on wires (processing indices) 0..n-1, wire p starting at chain
+// position p.
 class Builder {
  public:
   Builder(int n, int m) : n_(n), m_(m), wire_at_(n), pos_(n) {
@@ -40,7 +43,7 @@ class Builder {
     if (k % 2 == 0 && k > 1) single(blocks[k - 1]);
   }
 
-  std::vector<Gate> gates;
+  std::vector<NetworkOp> ops;
   const std::vector<int>& positions() const { return pos_; }
 
  private:
@@ -48,14 +51,14 @@ class Builder {
   int first_index(const Block& b) const { return n_ - b.low - b.size; }
 
   // The reversal layering (Fowler, Devitt and Hollenberg, Quantum Inf. Comput. 4, 237, 2004) on the
-  // wires w[0..s) that sit in order on consecutive positions: w[a] meets w[b] (a < b) in layer a+b-1,
-  // its Hadamard after layer 2a-2. `same(a, b)` says whether the pair is rotated (cp_swap) or only
-  // crosses (swap); angle pi/2^(group distance). Returns the gates on positions.
-  template <class Same, class Dist>
-  std::vector<Gate> layering(const std::vector<int>& w, Same same, Dist dist) {
+  // wires w[0..s), ascending processing indices on consecutive positions: w[a] meets w[b] (a < b) in layer
+  // a+b-1, its Hadamard after layer 2a-2. `same(a, b)` says whether the pair is rotated (cp_swap, angle
+  // pi/2^(b-a), which is the wires' processing distance) or only crosses (swap).
+  template <class Same>
+  std::vector<NetworkOp> layering(const std::vector<int>& w, Same same) {
     const int s = static_cast<int>(w.size());
-    std::vector<Gate> out;
-    auto h = [&](int a) { out.push_back(make_gate(GateKind::h, pos_[w[a]])); };
+    std::vector<NetworkOp> out;
+    auto h = [&](int a) { out.emplace_back(NetworkOp::Kind::h, w[a]); };
     if (s == 1) {
       h(0);
       return out;
@@ -71,11 +74,9 @@ class Builder {
       for (int a = std::max(0, t + 2 - s); 2 * a <= t; ++a) {
         const int b = t + 1 - a;
         if (b <= a || b >= s) continue;
+        if (w[b] - w[a] != b - a) throw std::logic_error("blockwise: wires of a block transform not consecutive");
         const int pa = pos_[w[a]], pb = pos_[w[b]];
-        if (same(a, b))
-          out.push_back(make_gate(GateKind::cp_swap, pa, pb, Angle::pi_over_pow2(static_cast<std::uint32_t>(dist(a, b)))));
-        else
-          out.push_back(make_gate(GateKind::swap, pa, pb));
+        out.emplace_back(same(a, b) ? NetworkOp::Kind::cp_swap : NetworkOp::Kind::swap, w[a], w[b]);
         std::swap(pos_[w[a]], pos_[w[b]]);
         std::swap(wire_at_[pa], wire_at_[pb]);
       }
@@ -90,37 +91,28 @@ class Builder {
     return w;
   }
 
-  void single(const Block& blk) {
-    const int p = first_index(blk);
-    auto w = wires_on(p, blk.size);
-    auto g = layering(w, [](int, int) { return true; }, [](int a, int b) { return b - a; });
-    gates.insert(gates.end(), g.begin(), g.end());
-  }
+  void append(const std::vector<NetworkOp>& g) { ops.insert(ops.end(), g.begin(), g.end()); }
+
+  void single(const Block& blk) { append(layering(wires_on(first_index(blk), blk.size), [](int, int) { return true; })); }
 
   // Low and high blocks of a pair, adjacent, high bits first on the chain. Forward: the QFT of the
   // pair. Read-back (B): each block's own inverse QFT, found as the two-block network run backwards.
   void span(const Block& lo, const Block& hi, bool read_back) {
     const int p = first_index(hi), s = lo.size + hi.size, split = hi.size;
     if (!read_back) {
-      auto w = wires_on(p, s);
-      auto g = layering(w, [](int, int) { return true; }, [](int a, int b) { return b - a; });
-      gates.insert(gates.end(), g.begin(), g.end());
+      append(layering(wires_on(p, s), [](int, int) { return true; }));
       return;
     }
     // The span is reversed now (layer A). The two-block network runs from the span in order to the
-    // span reversed; build it from the order it would start in, then emit it backwards, negated.
+    // span reversed; build it from the order it would start in, then emit it backwards, marked undo.
     std::vector<int> start(s);
     for (int t = 0; t < s; ++t) start[t] = wire_at_[p + s - 1 - t];
-    // Put the wires back in order for the dry build, remembering the reversed layout.
     const auto saved_pos = pos_;
-    const auto saved_at = wire_at_;
     for (int t = 0; t < s; ++t) {
       pos_[start[t]] = p + t;
       wire_at_[p + t] = start[t];
     }
-    auto g = layering(
-        start, [split](int a, int b) { return (a < split) == (b < split); },
-        [](int a, int b) { return b - a; });
+    auto g = layering(start, [split](int a, int b) { return (a < split) == (b < split); });
     // The layering ends with the span reversed, as layer A left it.
     for (int t = 0; t < s; ++t)
       if (pos_[start[t]] != saved_pos[start[t]]) throw std::logic_error("blockwise: read-back layout mismatch");
@@ -128,17 +120,40 @@ class Builder {
       pos_[start[t]] = p + t;
       wire_at_[p + t] = start[t];
     }
-    (void)saved_at;
     for (auto it = g.rbegin(); it != g.rend(); ++it) {
-      Gate x = *it;
-      if (has_angle(x.kind)) x.angle = -x.angle;
-      gates.push_back(x);
+      NetworkOp x = *it;
+      x.undo = true;
+      ops.push_back(x);
     }
   }
 
   int n_, m_;
   std::vector<int> wire_at_;  // processing index at each position
   std::vector<int> pos_;      // position of each processing index
+};
+
+// The construction's steps, kept (O(n m) of them), in chunks of about a thousand.
+class BlockwiseNetwork final : public QftNetwork {
+ public:
+  BlockwiseNetwork(int n, int m) : QftNetwork(n, std::max(0, std::min(n - 1, 2 * m - 1))), m_(m) {
+    Builder b(n, m);
+    b.run();
+    ops_ = std::move(b.ops);
+    final_ = b.positions();
+  }
+  std::string name() const override { return "blockwise"; }
+  int chunk_count() const override { return static_cast<int>((ops_.size() + kChunk - 1) / kChunk); }
+  void chunk(int c, std::vector<NetworkOp>& out) const override {
+    const std::size_t a = static_cast<std::size_t>(c) * kChunk, b = std::min(ops_.size(), a + kChunk);
+    out.assign(ops_.begin() + static_cast<std::ptrdiff_t>(a), ops_.begin() + static_cast<std::ptrdiff_t>(b));
+  }
+  std::vector<int> final_positions() const override { return final_; }
+
+ private:
+  static constexpr std::size_t kChunk = 1024;
+  int m_;
+  std::vector<NetworkOp> ops_;
+  std::vector<int> final_;
 };
 
 }  // namespace
@@ -159,38 +174,34 @@ std::vector<BlockTransform> blockwise_schedule(int n, int m) {
   return out;
 }
 
+std::unique_ptr<QftNetwork> make_blockwise_network(int wires, int block_length) {
+  if (wires < 1 || block_length < 1) throw std::invalid_argument("blockwise: need n >= 1 and m >= 1");
+  return std::make_unique<BlockwiseNetwork>(wires, block_length);
+}
+
 std::vector<int> emit_blockwise_qft(int n, int m, bool inverse, std::span<const int> chain, GateSink& sink) {
   if (static_cast<int>(chain.size()) != n) throw std::invalid_argument("blockwise: chain and register sizes differ");
-  if (n < 1 || m < 1) throw std::invalid_argument("blockwise: need n >= 1 and m >= 1");
-  Builder b(n, m);
-  b.run();
-  GateRun out(sink);
-  auto put = [&](Gate g) {
-    g.q0 = chain[g.q0];
-    if (g.q1 >= 0) g.q1 = chain[g.q1];
-    if (inverse && has_angle(g.kind)) g.angle = -g.angle;
-    out.put(g);
-    out.flush_if_full();
-  };
-  if (!inverse)
-    for (const Gate& g : b.gates) put(g);
-  else
-    for (auto it = b.gates.rbegin(); it != b.gates.rend(); ++it) put(*it);
-  out.flush();
-  return b.positions();
+  const auto net = make_blockwise_network(n, m);
+  QftSpec spec;
+  spec.qubits = n;
+  spec.block_length = m;
+  spec.inverse = inverse;
+  emit_chain_qft(spec, *net, chain, sink);
+  return net->final_positions();
 }
 
 int blockwise_two_qubit_depth(int n, int m) {
-  Builder b(n, m);
-  b.run();
+  const auto net = make_blockwise_network(n, m);
   std::vector<int> level(n, 0);
   int depth = 0;
-  for (const Gate& g : b.gates) {
-    if (!is_two_qubit(g.kind)) continue;
-    const int l = std::max(level[g.q0], level[g.q1]) + 1;
-    level[g.q0] = level[g.q1] = l;
-    depth = std::max(depth, l);
-  }
+  net->for_each_chunk([&](std::span<const NetworkOp> ops) {
+    for (const NetworkOp& op : ops) {
+      if (op.kind == NetworkOp::Kind::h) continue;
+      const int l = std::max(level[op.i], level[op.j]) + 1;
+      level[op.i] = level[op.j] = l;
+      depth = std::max(depth, l);
+    }
+  });
   return depth;
 }
 

@@ -28,12 +28,12 @@ QubitMaps chain_maps(const QftSpec& spec, const QftNetwork& network, std::span<c
 namespace {
 
 Gate to_gate(const NetworkOp& op, const QftSpec& spec, std::span<const int> chain, const std::vector<int>& pos) {
+  const auto angle = [&] { return op.undo ? -spec.rotation(op.j - op.i) : spec.rotation(op.j - op.i); };
   switch (op.kind) {
     case Kind::h: return make_gate(GateKind::h, chain[pos[op.i]]);
-    case Kind::cp: return make_gate(GateKind::cp, chain[pos[op.i]], chain[pos[op.j]], spec.rotation(op.j - op.i));
+    case Kind::cp: return make_gate(GateKind::cp, chain[pos[op.i]], chain[pos[op.j]], angle());
     case Kind::swap: return make_gate(GateKind::swap, chain[pos[op.i]], chain[pos[op.j]]);
-    case Kind::cp_swap:
-      return make_gate(GateKind::cp_swap, chain[pos[op.i]], chain[pos[op.j]], spec.rotation(op.j - op.i));
+    case Kind::cp_swap: return make_gate(GateKind::cp_swap, chain[pos[op.i]], chain[pos[op.j]], angle());
   }
   return {};
 }

@@ -234,8 +234,9 @@ std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec, EndOrder order, 
                        " network cannot end in order; use --end-order free or another --network");
     base = choose_network(spec, NetworkChoice::insertion);
   }
-  // A network asked for by name keeps its name: restore its order.
-  if (choice != NetworkChoice::automatic) return with_order_restored(std::move(base));
+  // A network asked for by name keeps its name, and the block construction is a unitary of its own:
+  // restore its order.
+  if (choice != NetworkChoice::automatic || spec.block_length) return with_order_restored(std::move(base));
   // The reversal network reverses the chain, which is exactly the order `same` asks for, and so does
   // the parity network on its meetings. Compare costs first: building the restored network holds
   // all its O(n^2) SWAPs.

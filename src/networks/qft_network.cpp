@@ -397,6 +397,8 @@ long long network_native_cost(const QftNetwork& network) {
 
 std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec) {
   const int n = spec.qubits, d = spec.max_distance();
+  // The block construction is its own unitary: only its network builds it.
+  if (spec.block_length) return make_blockwise_network(n, *spec.block_length);
   if (n <= 2) return make_anchored_network(n, d);
   if (!spec.effectively_exact() && d == 0) return make_hadamard_network(n);
   if (!spec.effectively_exact() && d == 1) return make_adjacent_network(n);
@@ -424,7 +426,7 @@ std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec) {
 namespace {
 constexpr std::array kNetworkChoices{NetworkChoice::automatic, NetworkChoice::reversal, NetworkChoice::anchored,
                                      NetworkChoice::leapfrog,  NetworkChoice::insertion, NetworkChoice::parity_insertion,
-                                     NetworkChoice::parity};
+                                     NetworkChoice::parity,    NetworkChoice::blockwise};
 }  // namespace
 
 std::span<const NetworkChoice> network_choices() { return kNetworkChoices; }
@@ -438,6 +440,7 @@ const char* network_choice_name(NetworkChoice c) {
     case NetworkChoice::insertion: return "insertion";
     case NetworkChoice::parity_insertion: return "parity-insertion";
     case NetworkChoice::parity: return "parity";
+    case NetworkChoice::blockwise: return "blockwise";
   }
   return "?";
 }
@@ -453,7 +456,12 @@ NetworkChoice parse_network_choice(const std::string& text) {
 
 std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec, NetworkChoice choice) {
   const int n = spec.qubits, d = spec.max_distance();
-  if (choice == NetworkChoice::automatic || n <= 1) return choose_network(spec);
+  if (spec.block_length && choice != NetworkChoice::automatic && choice != NetworkChoice::blockwise)
+    throw InputError(std::string("the ") + network_choice_name(choice) +
+                     " network does not build the block construction; use --network blockwise");
+  if (choice == NetworkChoice::blockwise && !spec.block_length)
+    throw InputError("the blockwise network needs its block length: --approx M sets blocks of M qubits");
+  if (choice == NetworkChoice::automatic || choice == NetworkChoice::blockwise || n <= 1) return choose_network(spec);
   // Reversal and parity are built as named at every degree: they end in order, which is why they
   // are asked for (and why `--end-order same` may pick them at degree 2).
   const bool in_order = choice == NetworkChoice::reversal || choice == NetworkChoice::parity;
@@ -475,6 +483,7 @@ std::unique_ptr<QftNetwork> choose_network(const QftSpec& spec, NetworkChoice ch
     case NetworkChoice::leapfrog: return make_leapfrog_network(n, d);
     case NetworkChoice::insertion: return make_insertion_network(n, d);
     case NetworkChoice::parity_insertion: return make_parity_insertion_network(n, d);
+    case NetworkChoice::blockwise:
     case NetworkChoice::automatic: break;
   }
   return choose_network(spec);

@@ -98,27 +98,58 @@ NetworkChoice network_by_objective(const Device& device, const QftSpec& spec, co
 // The degree choice on a chain: esp_total counted exactly on small registers, each degree with the network
 // --network auto would choose for it; above that, uniform errors give the ESP from the numbers of gates (no
 // dry run of the whole network), and otherwise the network's loads on the chain score it.
+DegreeCost chain_cost(const Device& device, const QftSpec& spec, const std::vector<int>& chain, const PlanOptions& options,
+                      bool uniform) {
+  const int n = spec.qubits;
+  PlanOptions chosen = options;
+  chosen.network = network_by_objective(device, spec, options, chain);
+  const auto net = choose_network(spec, options.end_order, chosen.network);
+  DegreeCost c;
+  if (blocks_of(n) <= kMaxCountedBlocks)
+    c.log_esp = counted_log_esp_total(device, spec, chosen, chain);
+  else
+    c.log_esp = uniform ? uniform_log_esp(device, *net, device.native_2q())
+                        : chain_log_esp(device, chain_loads_with_idling(device, spec, *net, options.measure, options.budget),
+                                        chain);
+  c.native_2q = network_native_cost(*net);
+  return c;
+}
+
 DegreeChoice choose_chain_degree(const Device& device, const QftSpec& base, const std::vector<int>& chain,
                                  const PlanOptions& options, bool* cut) {
   const bool uniform = uniform_errors(device);
   const int n = base.qubits;
+  if (options.network == NetworkChoice::blockwise) {
+    // --network blockwise --approx auto: the block lengths only.
+    DegreeChoice choice;
+    const auto cost = [&](int m) {
+      QftSpec spec = base;
+      spec.block_length = m;
+      return chain_cost(device, spec, chain, options, uniform);
+    };
+    if (!consider_block_lengths(n, options.approx_error, options.column_threshold(), cost, choice, cut))
+      throw PlanningError(fmt::format("no block length up to {} brings the block construction on {} qubits within "
+                                      "--approx-error {} (normalised Frobenius distance)",
+                                      kMaxBlockwiseFigureLength, n, *options.approx_error));
+    return choice;
+  }
   const auto cost = [&](std::optional<int> degree) {
     QftSpec spec = base;
     spec.approx_degree = degree;
-    PlanOptions chosen = options;
-    chosen.network = network_by_objective(device, spec, options, chain);
-    const auto net = choose_network(spec, options.end_order, chosen.network);
-    DegreeCost c;
-    if (blocks_of(n) <= kMaxCountedBlocks)
-      c.log_esp = counted_log_esp_total(device, spec, chosen, chain);
-    else
-      c.log_esp = uniform ? uniform_log_esp(device, *net, device.native_2q())
-                          : chain_log_esp(device, chain_loads_with_idling(device, spec, *net, options.measure, options.budget),
-                                          chain);
-    c.native_2q = network_native_cost(*net);
-    return c;
+    return chain_cost(device, spec, chain, options, uniform);
   };
-  return choose_degree(n, static_cast<long long>(n) * (n - 1) / 2 <= kMaxScoredBlocks, cost, cut);
+  DegreeChoice choice = choose_degree(n, static_cast<long long>(n) * (n - 1) / 2 <= kMaxScoredBlocks, cost, cut);
+  // With the user's consent (--approx-error EPS) the block construction competes too, at the shortest block
+  // length that meets EPS.
+  if (options.approx_error && options.network == NetworkChoice::automatic) {
+    const auto block_cost = [&](int m) {
+      QftSpec spec = base;
+      spec.block_length = m;
+      return chain_cost(device, spec, chain, options, uniform);
+    };
+    consider_block_lengths(n, options.approx_error, options.column_threshold(), block_cost, choice, cut);
+  }
+  return choice;
 }
 
 // A first chain: found by the chain finder (TimeLimitReached / PlanningError when there is none).
@@ -211,9 +242,12 @@ PreparedPlan prepare_chain(const Device& device, const PlanOptions& options) {
   for (int round = 0; round < 2; ++round) {
     if (options.auto_approx) {
       bool cut = false;
+      plan.spec.approx_degree.reset();
+      plan.spec.block_length.reset();
       plan.degree_choice = choose_chain_degree(device, plan.spec, chain, options, &cut);
       if (cut) note_cut_short(plan, "the approximation-degree scoring");
       plan.spec.approx_degree = plan.degree_choice->chosen;
+      plan.spec.block_length = plan.degree_choice->chosen_block_length;
       if (options.placement) chain = pinned_chain();
     }
     const NetworkChoice before = chosen.network;

@@ -33,6 +33,7 @@ RoutedCircuit cheapest_cascade(const Device& device, const QftSpec& spec, const 
 
 PreparedPlan prepare_cover(const Device& device, const PlanOptions& options) {
   PreparedPlan plan = start_plan(device, options, "cover");
+  refuse_block_construction(plan, options);
   if (options.placement)
     throw SettingError("placement", " pins a chain; the cover strategy chooses its own region");
   if (plan.spec.qubits > kCoverMaxQubits)

@@ -17,9 +17,25 @@ double plan_log_score(double log_esp_total, double log_readout_success) { return
 double plan_log_readout_success(const PreparedPlan& plan) {
   if (plan.degree_choice)
     for (const auto& c : plan.degree_choice->considered)
-      if (c.degree == plan.spec.approx_degree) return c.approx.log_readout_success;
-  return approx_figures(plan.spec.qubits, plan.spec.approx_degree, false).log_readout_success;
+      if (c.degree == plan.spec.approx_degree && c.block_length == plan.spec.block_length) return c.approx.log_readout_success;
+  return spec_figures(plan.spec, false).log_readout_success;
 }
+
+namespace {
+
+// The best score of the candidates (near-ties within 1e-12 to the fewest native two-qubit gates, then
+// to the later candidate: a larger degree, exact, a block length).
+void pick_best(DegreeChoice& out) {
+  double best = -INFINITY;
+  for (const auto& c : out.considered) best = std::max(best, c.log_score);
+  const DegreeCandidate* pick = nullptr;
+  for (const auto& c : out.considered)
+    if (c.log_score >= best - 1e-12 && (!pick || c.native_2q <= pick->native_2q)) pick = &c;
+  out.chosen = pick->degree;
+  out.chosen_block_length = pick->block_length;
+}
+
+}  // namespace
 
 DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCost(std::optional<int>)>& cost,
                            bool* cut) {
@@ -48,13 +64,48 @@ DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCo
     if (cut) *cut = true;
     if (out.considered.empty()) return out;
   }
-  double best = -INFINITY;
-  for (const auto& c : out.considered) best = std::max(best, c.log_score);
-  const DegreeCandidate* pick = nullptr;
-  for (const auto& c : out.considered)  // increasing degree, exact last
-    if (c.log_score >= best - 1e-12 && (!pick || c.native_2q <= pick->native_2q)) pick = &c;
-  out.chosen = pick->degree;
+  pick_best(out);
   return out;
+}
+
+bool consider_block_lengths(int n, std::optional<double> max_error, double threshold,
+                            const std::function<DegreeCost(int)>& cost, DegreeChoice& choice, bool* cut) {
+  bool met = !max_error;
+  try {
+    double previous = -INFINITY;
+    int falls = 0;
+    for (int m = 1; m <= kMaxBlockwiseFigureLength; ++m) {
+      QftSpec spec;
+      spec.qubits = n;
+      spec.block_length = m;
+      DegreeCandidate c;
+      c.block_length = m;
+      c.approx = spec_figures(spec, false, max_error.value_or(threshold));
+      const double frobenius = c.approx.blockwise ? c.approx.blockwise->frobenius : 0.0;
+      if (max_error && frobenius > *max_error && !spec.effectively_exact()) continue;
+      const DegreeCost d = cost(m);
+      c.log_esp = d.log_esp;
+      c.native_2q = d.native_2q;
+      // Every column within the distance bound 2 of a unitary's; the fidelity bound of the textbook
+      // degrees does not apply to a construction exact on some inputs and far on others.
+      c.fidelity_bound = spec.effectively_exact() ? 1.0 : 0.0;
+      c.log_score = plan_log_score(c.log_esp, c.approx.log_readout_success);
+      c.score = std::exp(c.log_score);
+      choice.considered.push_back(c);
+      if (max_error || spec.effectively_exact()) {
+        met = true;
+        break;
+      }
+      if (c.approx.readout_success >= 1.0 - 1e-9) break;
+      falls = c.log_score < previous ? falls + 1 : 0;
+      if (falls >= 3) break;
+      previous = std::max(previous, c.log_score);
+    }
+  } catch (const TimeLimitReached&) {
+    if (cut) *cut = true;
+  }
+  if (!choice.considered.empty()) pick_best(choice);
+  return met;
 }
 
 void choose_degree_by_counting(const Device& device, PreparedPlan& plan, const CountSettings& settings,

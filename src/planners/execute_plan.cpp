@@ -47,7 +47,8 @@ PlanReport assemble_report(const Device& device, const PlanOptions& options, con
   r.noise = f.noise;
   r.calibrated = device.has_calibration();
   r.measured = options.measure;
-  r.approx = approx_figures(plan.spec.qubits, plan.spec.approx_degree);
+  r.approx = spec_figures(plan.spec, true, options.column_threshold());
+  r.block_length = plan.spec.block_length;
   r.approx_error_bound = r.approx.error_bound;
   r.degree_choice = plan.degree_choice;
   r.placement_choice = plan.placement;
@@ -61,6 +62,8 @@ PlanReport assemble_report(const Device& device, const PlanOptions& options, con
   // form a chain of n-1 two-qubit gates that must run one after another (when d >= 1).
   r.lower_bound_blocks = plan.spec.kept_rotations();
   r.lower_bound_depth_2q = plan.spec.qubits >= 2 && plan.spec.max_distance() >= 1 ? plan.spec.qubits - 1 : 0;
+  // The block construction is another unitary: the bounds of the textbook transform do not apply to it.
+  if (plan.spec.block_length) r.lower_bound_blocks = r.lower_bound_depth_2q = 0;
   // The semi-classical readout turns every rotation into a phase conditioned on a measured bit: it needs
   // no two-qubit gate, and the bounds of the unitary transform do not apply.
   if (plan.circuit->measures_itself()) r.lower_bound_blocks = r.lower_bound_depth_2q = 0;

@@ -105,6 +105,20 @@ PlanOptions plan_options(const PlanSettings& s) {
   opt.format = s.format;
   opt.peephole = s.peephole;
   opt.readout = parse_readout(s.readout);
+  if (s.approx_error && !(*s.approx_error > 0 && *s.approx_error <= 2))
+    throw SettingError("approx-error", fmt::format(" {} is outside (0, 2], the range of a distance between unitaries' columns",
+                                                   *s.approx_error));
+  opt.approx_error = s.approx_error;
+  // The block construction takes its block length from --approx M (--approx auto: chosen).
+  if (opt.network == NetworkChoice::blockwise) {
+    if (s.approx == "none")
+      throw SettingError("network", " blockwise needs its block length: --approx M builds blocks of M qubits, --approx auto "
+                                    "chooses M");
+    opt.spec.block_length = opt.spec.approx_degree;
+    opt.spec.approx_degree.reset();
+  }
+  if (opt.approx_error && !opt.auto_approx && opt.network != NetworkChoice::blockwise)
+    throw SettingError("approx-error", " applies to the block construction: give --network blockwise or --approx auto");
   // The semi-classical form measures as it goes: without a measurement it is not the transform.
   if (opt.readout == Readout::semiclassical && !opt.measure)
     throw SettingError("readout", " semiclassical needs a measured plan (--measure): the semi-classical transform "
@@ -125,6 +139,10 @@ void validate_spec(const Device& device, const QftSpec& spec) {
                                     device.name(), device.usable_qubit_count(),
                                     device.qubit_count() - device.usable_qubit_count(), spec.qubits));
   }
+  if (spec.block_length && !spec.effectively_exact() && *spec.block_length > kMaxBlockwiseFigureLength)
+    throw SettingError("approx", fmt::format(" {} as a block length: the block construction's error is computed for blocks of "
+                                             "at most {} qubits (or of half the register or more, which is exact)",
+                                             *spec.block_length, kMaxBlockwiseFigureLength));
   if (spec.approx_degree && *spec.approx_degree < 1)
     throw SettingError("approx", fmt::format(" must be at least 1 (1 keeps Hadamards only), got {}", *spec.approx_degree));
 }
@@ -172,6 +190,13 @@ PreparedPlan start_plan(const Device& device, const PlanOptions& options, const 
   plan.strategy = strategy;
   plan.gates = options.gates.value_or(gate_set_of(device.native_2q()));
   return plan;
+}
+
+void refuse_block_construction(const PreparedPlan& plan, const PlanOptions& options) {
+  if (plan.spec.block_length || options.network == NetworkChoice::blockwise)
+    throw PlanningError(fmt::format("the {} strategy builds its own circuit; the block construction runs as a chain network "
+                                    "(chain or spine strategy)",
+                                    plan.strategy));
 }
 
 CountSettings count_settings(const PlanOptions& options, GateSet gates) {

@@ -8,6 +8,7 @@ namespace qftplan {
 
 PreparedPlan prepare_routed(const Device& device, const PlanOptions& options) {
   PreparedPlan plan = start_plan(device, options, "routed");
+  refuse_block_construction(plan, options);
   if (options.placement)
     throw SettingError("placement", " pins a chain; the routed strategy chooses its own starting region");
   RoutingOptions ro = options.routing;

@@ -124,6 +124,19 @@ PreparedPlan prepare_measured(const Device& device, const PlanOptions& options,
     p.readout = choice;
     return p;
   }
+  // The block construction is a unitary circuit of its own; the semi-classical form measures the
+  // textbook transform.
+  if (options.spec.block_length) {
+    if (options.readout == Readout::semiclassical)
+      throw SettingError("readout", " semiclassical measures the textbook transform as it goes; the block construction "
+                                    "(--network blockwise) has no such form");
+    PreparedPlan p = unitary(device, options);
+    choice.chosen = "unitary";
+    choice.reason = "the block construction has no semi-classical form";
+    choice.semiclassical_note = "not planned (--network blockwise)";
+    p.readout = choice;
+    return p;
+  }
   if (options.readout == Readout::semiclassical) {
     // A named strategy plans a unitary circuit: it is never replaced silently.
     if (options.strategy != "auto")

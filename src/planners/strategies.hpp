@@ -25,6 +25,9 @@ bool uniform_errors(const Device& device);
 /// A new plan of `strategy` for `options` before any decision: the spec (degree cleared for
 /// --approx auto, validated) and the emitted gate set.
 PreparedPlan start_plan(const Device& device, const PlanOptions& options, const char* strategy);
+/// PlanningError for a strategy that builds its own circuit (cover, routed) when the plan asks for the
+/// block construction, which only the chain networks build.
+void refuse_block_construction(const PreparedPlan& plan, const PlanOptions& options);
 
 /// The settings of a count of a circuit planned with `options`, emitted in `gates` (every count made while
 /// planning and reporting is built here, so that all of them see the same measurement, format and pass).
@@ -62,6 +65,15 @@ double plan_log_readout_success(const PreparedPlan& plan);
 /// far and sets `*cut` (the exact transform when none was).
 DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCost(std::optional<int>)>& cost,
                            bool* cut);
+
+/// The block construction's candidates for --approx auto, appended to `choice` (block lengths m = 1, 2,
+/// ... up to kMaxBlockwiseFigureLength or the first exact one): with `max_error` (--approx-error) only the
+/// shortest whose normalised Frobenius distance is at most max_error; without, every length until the
+/// readout success is 1 to within 1e-9 or the score has fallen three lengths in a row. Then the best
+/// score of all candidates is chosen again (near-ties to the fewest native two-qubit gates; a degree
+/// before a block length). Returns false when no block length meets max_error.
+bool consider_block_lengths(int n, std::optional<double> max_error, double threshold,
+                            const std::function<DegreeCost(int)>& cost, DegreeChoice& choice, bool* cut);
 
 /// choose_degree for a strategy that builds its whole circuit per degree: `make(spec)` gives the circuit,
 /// scored by streaming it through the counters with `settings` (its gate set: the device's native one). Sets

@@ -62,7 +62,8 @@ QasmVersion parse_qasm_version(const std::string& text) {
 std::string describe_transform(const QftSpec& spec) {
   std::string s = spec.inverse ? "inverse QFT" : "QFT";
   s += fmt::format(" on {} qubit{}", spec.qubits, spec.qubits == 1 ? "" : "s");
-  if (spec.approx_degree) s += fmt::format(", approximate (degree {})", *spec.approx_degree);
+  if (spec.block_length) s += fmt::format(", block construction (blocks of {})", *spec.block_length);
+  else if (spec.approx_degree) s += fmt::format(", approximate (degree {})", *spec.approx_degree);
   else s += ", exact";
   return s;
 }
@@ -84,6 +85,11 @@ std::optional<QftSpec> parse_transform(std::string_view text) {
   if (!take("QFT on ") || !number(spec.qubits) || !(take(" qubits, ") || take(" qubit, "))) return std::nullopt;
   if (take("exact")) return text.empty() ? std::optional(spec) : std::nullopt;
   int degree = 0;
+  if (take("block construction (blocks of ")) {
+    if (!number(degree) || !take(")") || !text.empty()) return std::nullopt;
+    spec.block_length = degree;
+    return spec;
+  }
   if (!take("approximate (degree ") || !number(degree) || !take(")") || !text.empty()) return std::nullopt;
   spec.approx_degree = degree;
   return spec;

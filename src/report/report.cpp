@@ -9,6 +9,28 @@
 
 namespace qftplan {
 
+namespace {
+
+// The block construction's figures (core/blockwise_error.hpp).
+nlohmann::ordered_json blockwise_to_json(const BlockwiseFigures& b) {
+  const auto sampled = [&b](double v) { return b.sampled ? nlohmann::ordered_json(v) : nlohmann::ordered_json(nullptr); };
+  nlohmann::ordered_json x;
+  x["block_length"] = b.block_length;
+  x["blocks"] = b.blocks;
+  x["exact"] = b.exact;
+  x["method"] = b.exact ? "exact" : b.sampled ? "sampled" : "enumeration";
+  x["inputs"] = b.inputs;
+  x["frobenius_distance"] = b.frobenius;
+  x["frobenius_standard_error"] = sampled(b.frobenius_standard_error);
+  x["column_threshold"] = b.threshold;
+  x["columns_above"] = b.fraction_above;
+  x["columns_above_standard_error"] = sampled(b.fraction_above_standard_error);
+  x["worst_column"] = b.worst_column;
+  return x;
+}
+
+}  // namespace
+
 nlohmann::ordered_json report_to_json(const PlanReport& r) {
   nlohmann::ordered_json j;
   j["schema_version"] = kReportSchemaVersion;
@@ -18,6 +40,7 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
   j["strategy"] = r.strategy;
   j["network"] = r.network;
   j["approx_degree"] = r.approx_degree ? nlohmann::ordered_json(*r.approx_degree) : nlohmann::ordered_json(nullptr);
+  j["block_length"] = r.block_length ? nlohmann::ordered_json(*r.block_length) : nlohmann::ordered_json(nullptr);
   j["inverse"] = r.inverse;
   j["gates"] = r.gates;
   j["native_2q"] = r.native_2q;
@@ -59,19 +82,27 @@ nlohmann::ordered_json report_to_json(const PlanReport& r) {
   j["approx_distance"] = r.approx.distance ? nlohmann::ordered_json(*r.approx.distance) : nlohmann::ordered_json(nullptr);
   j["approx_infidelity"] = r.approx.infidelity;
   j["readout_success"] = r.approx.readout_success;
+  j["readout_standard_error"] = r.approx.method == ReadoutMethod::sampled ? nlohmann::ordered_json(r.approx.readout_standard_error)
+                                                                         : nlohmann::ordered_json(nullptr);
   j["readout_method"] = readout_method_name(r.approx.method);
+  j["blockwise"] = r.approx.blockwise ? blockwise_to_json(*r.approx.blockwise) : nlohmann::ordered_json(nullptr);
   if (r.degree_choice) {
     nlohmann::ordered_json d;
     d["chosen"] = r.degree_choice->chosen ? nlohmann::ordered_json(*r.degree_choice->chosen) : nlohmann::ordered_json(nullptr);
+    d["chosen_block_length"] = r.degree_choice->chosen_block_length ? nlohmann::ordered_json(*r.degree_choice->chosen_block_length)
+                                                                    : nlohmann::ordered_json(nullptr);
     auto& list = d["considered"] = nlohmann::ordered_json::array();
     for (const auto& c : r.degree_choice->considered)
       list.push_back({{"degree", c.degree ? nlohmann::ordered_json(*c.degree) : nlohmann::ordered_json(nullptr)},
+                      {"block_length", c.block_length ? nlohmann::ordered_json(*c.block_length) : nlohmann::ordered_json(nullptr)},
                       {"esp_total", std::exp(c.log_esp)},
                       {"approx_error_bound", c.approx.error_bound},
                       {"approx_distance", c.approx.distance ? nlohmann::ordered_json(*c.approx.distance)
                                                             : nlohmann::ordered_json(nullptr)},
                       {"readout_success", c.approx.readout_success},
                       {"readout_method", readout_method_name(c.approx.method)},
+                      {"frobenius_distance", c.approx.blockwise ? nlohmann::ordered_json(c.approx.blockwise->frobenius)
+                                                                : nlohmann::ordered_json(nullptr)},
                       {"fidelity_bound", c.fidelity_bound},
                       {"score", c.score}});
     j["approx_choice"] = d;
@@ -155,7 +186,7 @@ std::string short_list(const std::vector<int>& v) {
 }  // namespace
 
 std::string format_plan_summary(const PlanReport& r) {
-  QftSpec spec{r.qubits, r.approx_degree, r.inverse};
+  QftSpec spec{r.qubits, r.approx_degree, r.inverse, r.block_length};
   std::string s;
   s += fmt::format("{} on {} ({})\n", describe_transform(spec), r.device, count_of(r.device_qubits, "qubit"));
   s += fmt::format("  strategy        {} ({} network)\n", r.strategy, r.network);
@@ -175,7 +206,20 @@ std::string format_plan_summary(const PlanReport& r) {
   if (r.readout) s += fmt::format("  readout         {} ({})\n", r.readout->chosen, readout_figures(*r.readout));
   if (r.end_order == "same")
     s += fmt::format("  end order       same as the start ({} SWAP{} added)\n", r.end_swaps, r.end_swaps == 1 ? "" : "s");
-  if (r.approx_degree) {
+  if (r.approx.blockwise && r.approx.blockwise->exact) {
+    s += fmt::format("  approximation   none: {} block{} of at most {} (the construction is the exact QFT)\n",
+                     r.approx.blockwise->blocks, r.approx.blockwise->blocks == 1 ? "" : "s", r.approx.blockwise->block_length);
+  } else if (r.approx.blockwise) {
+    const auto& b = *r.approx.blockwise;
+    const auto pm = [&b](double se) { return b.sampled ? fmt::format(" +- {:.2g}", se) : std::string(); };
+    s += fmt::format("  approximation   {} blocks of {}: Frobenius distance {:.3g}{} (normalised), average-gate infidelity {:.3g}\n",
+                     b.blocks, b.block_length, b.frobenius, pm(b.frobenius_standard_error), r.approx.infidelity);
+    s += fmt::format("  inputs          {:.3g}%{} of columns farther than {:.3g} from the QFT's (worst seen {:.3g}; bound {:.3g})\n",
+                     100 * b.fraction_above, b.sampled ? fmt::format(" +- {:.2g}", 100 * b.fraction_above_standard_error) : "",
+                     b.threshold, b.worst_column, r.approx_error_bound);
+    s += fmt::format("  readout success {:.6g}{} ({}, {} input{})\n", r.approx.readout_success, pm(r.approx.readout_standard_error),
+                     readout_method_name(r.approx.method), b.inputs, b.inputs == 1 ? "" : "s");
+  } else if (r.approx_degree) {
     s += "  approximation   ";
     if (r.approx.distance) s += fmt::format("distance {:.3g} (operator norm), ", *r.approx.distance);
     s += fmt::format("bound {:.3g}, average-gate infidelity {:.3g}\n", r.approx_error_bound, r.approx.infidelity);
@@ -218,21 +262,30 @@ std::string format_plan_explanation(const PlanReport& r) {
   }
   if (r.degree_choice) {
     const auto& d = *r.degree_choice;
-    auto name = [](const std::optional<int>& m) { return m ? std::to_string(*m) : std::string("exact"); };
-    s += fmt::format("approximation degree: {} chosen\n", name(d.chosen));
-    s += "  degree   esp_total    x readout    = score        distance     bound\n";
+    // A degree, "exact", or a block length of the block construction ("blocks 8").
+    auto name = [](const std::optional<int>& m, const std::optional<int>& blocks) {
+      return blocks ? fmt::format("blocks {}", *blocks) : m ? std::to_string(*m) : std::string("exact");
+    };
+    s += fmt::format("approximation degree: {} chosen\n", name(d.chosen, d.chosen_block_length));
+    s += "  degree     esp_total    x readout    = score        distance     bound\n";
     std::optional<double> exact_log;
     for (const auto& c : d.considered)
-      if (!c.degree) exact_log = c.log_score;
+      if (!c.degree && !c.block_length) exact_log = c.log_score;
+    bool frobenius = false;
     for (const auto& c : d.considered) {
-      const bool mark = c.degree == d.chosen;
-      const std::string dist = c.approx.distance ? fmt::format("{:.3g}", *c.approx.distance) : std::string("-");
-      s += fmt::format("  {:<6}   {:<11.4g}  {:<11.6g}  {:<11.4g}  {:<11}  {:.3g}{}\n", name(c.degree), std::exp(c.log_esp),
-                       c.approx.readout_success, c.score, dist, c.approx.error_bound, mark ? "  <- chosen" : "");
+      const bool mark = c.degree == d.chosen && c.block_length == d.chosen_block_length;
+      // The block construction's distance is the normalised Frobenius one (marked F), not the operator norm.
+      std::string dist = c.approx.distance ? fmt::format("{:.3g}", *c.approx.distance) : std::string("-");
+      if (c.approx.blockwise && !c.approx.blockwise->exact) dist = fmt::format("{:.3g} F", c.approx.blockwise->frobenius), frobenius = true;
+      s += fmt::format("  {:<9}  {:<11.4g}  {:<11.6g}  {:<11.4g}  {:<11}  {:.3g}{}\n", name(c.degree, c.block_length),
+                       std::exp(c.log_esp), c.approx.readout_success, c.score, dist, c.approx.error_bound,
+                       mark ? "  <- chosen" : "");
     }
+    if (frobenius) s += "  (F: normalised Frobenius distance of the block construction, arXiv:2505.00701)\n";
     if (exact_log) {
       for (const auto& c : d.considered)
-        if (c.degree == d.chosen) s += fmt::format("  chosen against exact: {:.4g}x the score\n", std::exp(c.log_score - *exact_log));
+        if (c.degree == d.chosen && c.block_length == d.chosen_block_length)
+          s += fmt::format("  chosen against exact: {:.4g}x the score\n", std::exp(c.log_score - *exact_log));
     } else {
       s += "  exact not scored (too large to plan twice)\n";
     }

@@ -59,6 +59,12 @@ QftSpec spec_of(const ReportFields& f, const Device& device) {
     if (!d.is_number_integer() || d.get<long long>() < 1) f.fail("field 'approx_degree' must be null or a degree >= 1");
     spec.approx_degree = d.get<int>();
   }
+  // The block construction (reports from before it have no such field).
+  if (const auto it = f.j.find("block_length"); it != f.j.end() && !it->is_null()) {
+    if (!it->is_number_integer() || it->get<long long>() < 1) f.fail("field 'block_length' must be null or a length >= 1");
+    spec.block_length = it->get<int>();
+    spec.approx_degree.reset();
+  }
   const auto& inv = f.at("inverse");
   if (!inv.is_boolean()) f.fail("field 'inverse' must be true or false");
   spec.inverse = inv.get<bool>();

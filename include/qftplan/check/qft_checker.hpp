@@ -97,10 +97,12 @@ struct CheckTransform {
 };
 
 /// Each setting the caller gives wins (`qubits`; `degree`, whose inner nullopt means exact;
-/// `inverse`); the others come from the header. SettingError when the register size is given by
-/// neither; a header that names no transform in our form counts as absent.
+/// `inverse`; `block_length`, the block construction); the others come from the header. A degree or a
+/// block length given names the transform on its own (the header's other one is dropped). SettingError
+/// when the register size is given by neither; a header that names no transform in our form counts as absent.
 CheckTransform check_transform(const QasmProgram& program, std::optional<int> qubits,
-                               std::optional<std::optional<int>> degree, std::optional<bool> inverse);
+                               std::optional<std::optional<int>> degree, std::optional<bool> inverse,
+                               std::optional<int> block_length = std::nullopt);
 
 /// The exact QFT of a logical state vector (index bit k = bit k of the register): forward
 /// b_y = 2^(-n/2) sum_j exp(+2 pi i j y / 2^n) a_j, inverse with the opposite sign. Radix-2 FFT.

@@ -11,6 +11,9 @@
 #include <cstdint>
 #include <optional>
 
+#include "qftplan/core/blockwise_error.hpp"
+#include "qftplan/core/qft_spec.hpp"
+
 namespace qftplan {
 
 /// Largest register whose operator-norm distance approx_distance computes exactly.
@@ -48,8 +51,9 @@ enum class ReadoutMethod {
   exact,        ///< nothing dropped: 1 and 0
   enumeration,  ///< summed over every input (the n - M bits that matter), exact up to rounding
   transfer,     ///< the bit-chain transfer operator on a Chebyshev grid (approximation.cpp), error ~1e-13
+  sampled,      ///< a seeded sample of inputs (the block construction above 16 qubits), with a standard error
 };
-/// "exact", "enumeration" or "transfer" (the report's `readout_method`).
+/// "exact", "enumeration", "transfer" or "sampled" (the report's `readout_method`).
 const char* readout_method_name(ReadoutMethod m);
 
 /// The figures of one degree.
@@ -65,11 +69,25 @@ struct ApproxFigures {
   /// F_avg = (d |Tr(QFT^dag AQFT)/d|^2 + 1)/(d + 1), d = 2^n.
   double infidelity = 0;
   ReadoutMethod method = ReadoutMethod::exact;
+  double readout_standard_error = 0;  ///< of a sampled readout_success; 0 otherwise
+  /// The block construction's own figures (spec.block_length), absent for the textbook transform.
+  std::optional<BlockwiseFigures> blockwise;
 };
 
 /// Every figure of degree `degree` on n qubits (the distance only for n <= kMaxExactDistanceQubits, and
 /// only `with_distance`).
 ApproxFigures approx_figures(int n, std::optional<int> degree, bool with_distance = true);
+
+/// Column distance beyond which an input counts as badly served by the block construction, unless the
+/// plan names one (--approx-error).
+inline constexpr double kDefaultColumnThreshold = 0.1;
+
+/// The figures of the transform `spec` asks for: approx_figures of its degree, or for the block
+/// construction (spec.block_length) blockwise_figures with its columns counted beyond `threshold`: the
+/// readout success and infidelity from them, the bound 2 (no better one holds for every input: the
+/// construction's worst columns are about sqrt 2 from the QFT's) and no operator-norm distance. A
+/// construction of at most two blocks is the exact QFT and reported as such.
+ApproxFigures spec_figures(const QftSpec& spec, bool with_distance = true, double threshold = kDefaultColumnThreshold);
 
 /// The input average of the per-input products over `bits` = n - M bits, both by one method:
 /// readout = E_x prod_b cos^2(pi delta_b(x)) and overlap = E_x prod_b (1 + e^{-2 pi i delta_b(x)})/2

@@ -24,16 +24,25 @@ struct QftSpec {
   /// Absent: exact.
   std::optional<int> approx_degree;
   bool inverse = false;
+  /// The block construction of Kahanamoku-Meyer, Blue, Bergamaschi, Gidney and Chuang (arXiv:2505.00701,
+  /// 2025) with blocks of this many bits (networks/blockwise_qft.hpp; approx_degree is then absent): a
+  /// different unitary from the textbook approximate QFT, exact with at most two blocks.
+  std::optional<int> block_length;
 
   /// Largest distance j - i in processing order whose controlled phase is kept: M - 1, or n - 1
   /// when exact (the rotation between processing indices i < j is R_{j-i+1}, angle pi/2^(j-i)).
   int max_distance() const {
     const int full = qubits - 1;
+    // The block construction's rotations span at most a block pair (distance 2m - 1).
+    if (block_length) return std::max(0, std::min(full, 2 * *block_length - 1));
     if (!approx_degree) return full;
     return std::max(0, std::min(full, *approx_degree - 1));
   }
-  /// True when the degree keeps every rotation.
-  bool effectively_exact() const { return max_distance() == qubits - 1; }
+  /// True when the degree keeps every rotation (the block construction: at most two blocks).
+  bool effectively_exact() const {
+    if (block_length) return *block_length >= 1 && 2LL * *block_length >= qubits;
+    return max_distance() == qubits - 1;
+  }
   /// The controlled-phase angle between processing indices at distance `dist` (>= 1):
   /// pi/2^dist, negated for the inverse.
   Angle rotation(int dist) const {

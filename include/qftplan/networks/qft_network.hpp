@@ -19,7 +19,11 @@ namespace qftplan {
 /// neighbouring chain positions at that moment.
 struct NetworkOp {
   enum class Kind : unsigned char { h, cp, swap, cp_swap };
+  NetworkOp() = default;
+  NetworkOp(Kind k, int wire_i, int wire_j = -1, bool undone = false) : kind(k), undo(undone), i(wire_i), j(wire_j) {}
   Kind kind = Kind::h;
+  /// The step belongs to an inverse block transform (the block construction): its rotation is negated.
+  bool undo = false;
   int i = 0;
   int j = -1;
 };
@@ -98,6 +102,12 @@ std::unique_ptr<QftNetwork> make_anchored_network(int wires, int max_distance);
 /// for the exact QFT. Its steps, counts and positions are the reversal network's.
 std::unique_ptr<QftNetwork> make_parity_network(int wires, int max_distance);
 
+/// The block construction of the QFT (Kahanamoku-Meyer et al., arXiv:2505.00701, 2025) with blocks of m
+/// wires: three layers of block transforms, each a reversal network on at most 2m neighbours
+/// (blockwise_qft.hpp), so its depth depends on m, not on the register. The steps of the read-back layer
+/// are marked `undo`.
+std::unique_ptr<QftNetwork> make_blockwise_network(int wires, int block_length);
+
 /// Distance d = 1: wires stay in order and only neighbours interact (n-1 controlled phases, no SWAP).
 std::unique_ptr<QftNetwork> make_adjacent_network(int wires);
 
@@ -113,10 +123,11 @@ enum class NetworkChoice {
   insertion,  ///< the insertion network (approximate degrees 3 .. n-1 only)
   parity_insertion,  ///< the insertion network in parity form (approximate degrees 3 .. n-1 only)
   parity,     ///< the parity network
+  blockwise,  ///< the block construction (arXiv:2505.00701), blocks of --approx M bits; never chosen by auto
 };
 /// Every choice, in the order --help lists them.
 std::span<const NetworkChoice> network_choices();
-/// "auto", "reversal", "anchored", "leapfrog", "insertion", "parity-insertion", "parity".
+/// "auto", "reversal", "anchored", "leapfrog", "insertion", "parity-insertion", "parity", "blockwise".
 const char* network_choice_name(NetworkChoice c);
 /// Parses a --network value; InputError listing the valid ones otherwise.
 NetworkChoice parse_network_choice(const std::string& text);

@@ -66,6 +66,12 @@ struct PlanOptions {
   NetworkChoice network = NetworkChoice::automatic;  ///< chain network of the chain and spine strategies
   bool peephole = true;                          ///< the peephole pass on native output (sinks/peephole.hpp)
   Readout readout = Readout::automatic;          ///< with `measure`: unitary, semi-classical or the better
+  /// --approx-error: the largest normalised Frobenius distance to the QFT the user accepts from the block
+  /// construction (consent for --approx auto to consider it), and the column distance beyond which the
+  /// report counts an input as badly served. Absent: the block construction only when named.
+  std::optional<double> approx_error;
+  /// The column distance the report counts inputs beyond (approx_error, else kDefaultColumnThreshold).
+  double column_threshold() const { return approx_error.value_or(kDefaultColumnThreshold); }
 };
 
 /// The settings of one plan as the front ends (command line, Python, surveys, fuzzers, benchmarks) take
@@ -87,6 +93,7 @@ struct PlanSettings {
   QasmVersion format = QasmVersion::v3;
   bool peephole = true;                          ///< the peephole pass on native output (off: the gates as decomposed)
   std::string readout = "auto";                  ///< "unitary", "semiclassical" or "auto" (measured plans)
+  std::optional<double> approx_error;            ///< --approx-error EPS (PlanOptions::approx_error)
 };
 
 /// PlanOptions for `settings`; InputError naming the setting for a value out of range or unknown.
@@ -94,7 +101,8 @@ PlanOptions plan_options(const PlanSettings& settings);
 
 /// One approximation degree considered by the automatic choice.
 struct DegreeCandidate {
-  std::optional<int> degree;     ///< absent: exact
+  std::optional<int> degree;     ///< absent: exact (or the block construction)
+  std::optional<int> block_length;  ///< the block construction with blocks of this length (--approx-error, --network blockwise)
   double log_esp = 0;            ///< ln esp_total of the planned circuit with this degree
   ApproxFigures approx;          ///< distance, bound, readout success and infidelity of this degree
   double fidelity_bound = 1;     ///< lower bound on the state fidelity to the exact QFT (from the distance, else the bound)
@@ -105,7 +113,8 @@ struct DegreeCandidate {
 
 /// How the degree was chosen (--approx auto).
 struct DegreeChoice {
-  std::optional<int> chosen;
+  std::optional<int> chosen;                ///< the degree chosen (absent: exact, or the block construction)
+  std::optional<int> chosen_block_length;   ///< the block construction was chosen, with blocks of this length
   std::vector<DegreeCandidate> considered;  ///< every degree scored, in increasing order, exact last
 };
 
@@ -174,6 +183,7 @@ struct PlanReport {
   std::string strategy;
   std::string network;
   std::optional<int> approx_degree;
+  std::optional<int> block_length;     ///< blocks of the block construction (--network blockwise); absent otherwise
   bool inverse = false;
   std::string gates;
   std::string native_2q;
