@@ -27,13 +27,19 @@ std::optional<std::vector<int>> map_arg(const py::object& v, const char* option)
 }
 
 Verdict check_program(const QasmProgram& prog, const std::string& source, const py::object& device, int qubits,
-                      const py::object& approx, bool inverse, const py::object& initial, const py::object& final_) {
+                      const py::object& approx, bool inverse, const py::object& initial, const py::object& final_,
+                      std::optional<int> block_length) {
   const auto dev = device_arg(device);
   CheckRequest req;
   req.spec.qubits = qubits;
   const std::string approx_str = approx_text(approx);
   // `check` takes a degree or none (an automatic choice names no transform to check against).
   req.spec.approx_degree = parse_approx_degree(approx_str);
+  if (block_length) {
+    if (req.spec.approx_degree) throw SettingError("block_length", " and approx name two different transforms");
+    if (*block_length < 1) throw SettingError("block_length", " must be at least 1");
+    req.spec.block_length = block_length;
+  }
   req.spec.inverse = inverse;
   if (qubits < 1) throw SettingError("qubits", " must be at least 1");
   if (auto m = map_arg(initial, "initial")) req.placement = *m;
@@ -54,6 +60,7 @@ Verdict check_program(const QasmProgram& prog, const std::string& source, const 
 const char* const kCheckDoc =
     "Decides whether the circuit implements the QFT of `qubits` qubits on `device`, like `qftplan check`:\n"
     "  approx    'none' or an int degree M (the approximate QFT of degree M)\n"
+    "  block_length  M: the block construction with blocks of M (plan(network='blockwise'))\n"
     "  inverse   expect the inverse QFT\n"
     "  initial   placement (list of ints or 'a,b,c'); default: the '// placement:' header comment\n"
     "  final     final placement; default: the '// final_placement:' header comment\n"
@@ -111,25 +118,25 @@ void bind_check(py::module_& m) {
   m.def(
       "check",
       [](const std::string& circuit, const py::object& device, int qubits, const py::object& approx, bool inverse,
-         const py::object& initial, const py::object& final_, const std::string& source) {
+         const py::object& initial, const py::object& final_, const std::string& source, std::optional<int> block_length) {
         const QasmProgram prog = parse_qasm(circuit, source);
-        return check_program(prog, source, device, qubits, approx, inverse, initial, final_);
+        return check_program(prog, source, device, qubits, approx, inverse, initial, final_, block_length);
       },
       py::arg("circuit"), py::arg("device"), py::arg("qubits"), py::kw_only(), py::arg("approx") = "none",
       py::arg("inverse") = false, py::arg("initial") = py::none(), py::arg("final") = py::none(),
-      py::arg("source") = "<string>",
+      py::arg("source") = "<string>", py::arg("block_length") = py::none(),
       kCheckTextDoc.c_str());
   m.def(
       "check_file",
       [](const py::object& path, const py::object& device, int qubits, const py::object& approx, bool inverse,
-         const py::object& initial, const py::object& final_) {
+         const py::object& initial, const py::object& final_, std::optional<int> block_length) {
         const std::string file = py::str(py::module_::import("os").attr("fspath")(path));
         const QasmProgram prog = load_qasm_file(file);
-        return check_program(prog, file, device, qubits, approx, inverse, initial, final_);
+        return check_program(prog, file, device, qubits, approx, inverse, initial, final_, block_length);
       },
       py::arg("path"), py::arg("device"), py::arg("qubits"), py::kw_only(), py::arg("approx") = "none",
       py::arg("inverse") = false, py::arg("initial") = py::none(), py::arg("final") = py::none(),
-      kCheckFileDoc.c_str());
+      py::arg("block_length") = py::none(), kCheckFileDoc.c_str());
 }
 
 }  // namespace qftplan::python

@@ -49,7 +49,7 @@ Plan make_plan(const py::object& device, int qubits, const py::object& approx, b
                const py::object& placement, std::uint64_t seed, bool measure, const std::string& end_order,
                const std::string& strategy, const std::string& objective, const py::object& format, bool circuit,
                std::optional<double> time_limit, const std::string& network, bool peephole,
-               const std::string& readout) {
+               const std::string& readout, std::optional<double> approx_error) {
   const auto t0 = std::chrono::steady_clock::now();
   Plan p;
   p.device = device_arg(device);
@@ -68,6 +68,7 @@ Plan make_plan(const py::object& device, int qubits, const py::object& approx, b
   settings.measure = measure;
   settings.peephole = peephole;
   settings.readout = readout;
+  settings.approx_error = approx_error;
   p.version = version_arg(format);
   settings.format = p.version;
   p.options = plan_options(settings);
@@ -175,7 +176,7 @@ void bind_plan(py::module_& m) {
         py::arg("seed") = 1, py::arg("measure") = false, py::arg("end_order") = "free", py::arg("strategy") = "auto",
         py::arg("objective") = "esp", py::arg("format") = "qasm3", py::arg("circuit") = true,
         py::arg("time_limit") = py::none(), py::arg("network") = "auto", py::arg("peephole") = true,
-        py::arg("readout") = "auto",
+        py::arg("readout") = "auto", py::arg("approx_error") = py::none(),
         "Plans a QFT of `qubits` qubits on `device` (a Device, a spec such as 'grid:4x4' or a YAML path),\n"
         "like `qftplan plan`:\n"
         "  approx      'none' (exact), an int degree M, or 'auto'\n"
@@ -191,7 +192,9 @@ void bind_plan(py::module_& m) {
         "  objective   what strategy 'auto' optimises: 'esp' (esp_total), 'depth' (native two-qubit depth),\n"
         "              'duration' (schedule length, ns) or 'cx' (native two-qubit gates)\n"
         "  network     chain network: 'auto', 'reversal', 'anchored', 'leapfrog', 'insertion',\n"
-        "              'parity-insertion' or 'parity'\n"
+        "              'parity-insertion', 'parity' or 'blockwise' (the block construction, blocks of `approx`)\n"
+        "  approx_error  the normalised Frobenius distance accepted from the block construction\n"
+        "              (`approx` 'auto' then considers it; the report counts columns beyond it)\n"
         "  format      'qasm3' or 'qasm2' (or 3, 2) for the text\n"
         "  circuit     False: report only, no text kept (for very large registers)\n"
         "  time_limit  seconds; when it runs out the best plan so far is returned with a RuntimeWarning\n"

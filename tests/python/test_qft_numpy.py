@@ -88,3 +88,84 @@ def test_module_text_equals_the_command_line_output(qftplan, tmp_path):
     run_cli("plan", "--device", device, "--qubits", 7, "--approx", 3, "--measure", "--output", out, check=True)
     plan = qftplan.plan(device, 7, approx=3, measure=True)
     assert plan.qasm == out.read_text()
+
+
+def blockwise_matrix(n, m, inverse=False):
+    """The block construction of Kahanamoku-Meyer, Blue, Bergamaschi, Gidney and Chuang ("A log-depth
+    in-place quantum Fourier transform that rarely needs ancillas", arXiv:2505.00701, 2025) from its
+    description, with numpy's FFT for each block transform: blocks of m bits from bit 0; A, the in-place
+    transform of each block pair (2i+1, 2i); B, each block of those pairs read back by its inverse; C, block
+    0, each pair (2i+2, 2i+1), and the top block when A paired it. An in-place transform of a bit range is
+    the QFT of the range's value (sqrt(S) ifft, as qft_matrix) followed by reversing the range's bits (the
+    textbook circuit without its final swaps, Nielsen & Chuang 2000, eq. 5.4); the output bits are read in
+    the order of eq. 5.2 (all bits reversed at the end)."""
+    dim = 2 ** n
+    blocks = [(low, min(m, n - low)) for low in range(0, n, m)]
+    k = len(blocks)
+    steps = [(blocks[b - 1][0], blocks[b - 1][1] + blocks[b][1], False) for b in range(1, k, 2)]
+    for b in range(1, k, 2):
+        steps += [(blocks[b][0], blocks[b][1], True), (blocks[b - 1][0], blocks[b - 1][1], True)]
+    steps.append((blocks[0][0], blocks[0][1], False))
+    steps += [(blocks[b - 1][0], blocks[b - 1][1] + blocks[b][1], False) for b in range(2, k, 2)]
+    if k % 2 == 0 and k > 1:
+        steps.append((blocks[k - 1][0], blocks[k - 1][1], False))
+
+    # Tensor axes: axis t holds bit n-1-t of the row index; the last axis is the column.
+    def reverse_range(u, low, size):
+        axes = list(range(n + 1))
+        lo, hi = n - low - size, n - low  # the range's axes, most significant first
+        axes[lo:hi] = axes[lo:hi][::-1]
+        return u.transpose(axes)
+
+    def range_qft(u, low, size, inv):
+        lo = n - low - size
+        shape = u.shape
+        v = u.reshape(shape[:lo] + (2 ** size,) + shape[lo + size:])
+        s = 2 ** size
+        v = np.fft.fft(v, axis=lo) / np.sqrt(s) if inv else np.fft.ifft(v, axis=lo) * np.sqrt(s)
+        return v.reshape(shape)
+
+    def in_place(u, low, size, inv):  # the in-place transform of a range, or its inverse
+        if not inv:
+            return reverse_range(range_qft(u, low, size, False), low, size)
+        return range_qft(reverse_range(u, low, size), low, size, True)
+
+    u = np.eye(dim, dtype=complex).reshape((2,) * n + (dim,))
+    if not inverse:
+        for low, size, inv in steps:
+            u = in_place(u, low, size, inv)
+        u = reverse_range(u, 0, n)
+    else:  # every step undone, in reverse order
+        u = reverse_range(u, 0, n)
+        for low, size, inv in steps[::-1]:
+            u = in_place(u, low, size, not inv)
+    return u.reshape(dim, dim)
+
+
+def test_blockwise_numpy_reference_is_exact_with_two_blocks():
+    # With at most two blocks the construction is the QFT (the paper's base case): the reference agrees.
+    for n, m in [(4, 2), (5, 3), (6, 6)]:
+        assert np.allclose(blockwise_matrix(n, m), qft_matrix(n))
+        assert np.allclose(blockwise_matrix(n, m, inverse=True), qft_matrix(n, inverse=True))
+    assert not np.allclose(blockwise_matrix(7, 2), qft_matrix(7), atol=1e-3)
+
+
+@pytest.mark.parametrize("device", ["line:8", "grid:3x3"])
+@pytest.mark.parametrize("m", [1, 2, 3])
+@pytest.mark.parametrize("inverse", [False, True])
+def test_blockwise_plan_matches_numpy(qftplan, device, m, inverse):
+    n = 8
+    plan = qftplan.plan(device, n, approx=m, network="blockwise", inverse=inverse, strategy="chain")
+    assert plan.report["block_length"] == m
+    u = simulate(plan)
+    ref = blockwise_matrix(n, m, inverse)
+    assert equal_up_to_phase(u, ref)
+    # The report's figures against the reference: readout success E_x |<QFT x|U x>|^2 and the normalised
+    # Frobenius distance ||U - QFT||_F / sqrt(2^n) (no phase removed), both over every basis input.
+    f = qft_matrix(n, inverse)
+    overlaps = np.einsum("ij,ij->j", f.conj(), ref)
+    if not inverse:
+        assert abs(plan.report["readout_success"] - np.mean(np.abs(overlaps) ** 2)) < 1e-9
+        frob = np.linalg.norm(ref - f) / np.sqrt(2 ** n)
+        assert abs(plan.report["blockwise"]["frobenius_distance"] - frob) < 1e-9
+    assert qftplan.check(plan.qasm, device, n, block_length=m, inverse=inverse).outcome == "proved"
