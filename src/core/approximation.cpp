@@ -427,10 +427,10 @@ ApproxFigures approx_figures(int n, std::optional<int> degree, bool with_distanc
   return f;
 }
 
-ApproxFigures spec_figures(const QftSpec& spec, bool with_distance, double threshold) {
+ApproxFigures spec_figures(const QftSpec& spec, bool with_distance, double threshold, double work) {
   if (!spec.block_length) return approx_figures(spec.qubits, spec.approx_degree, with_distance);
   ApproxFigures f;
-  const BlockwiseFigures b = blockwise_figures(spec.qubits, *spec.block_length, threshold);
+  const BlockwiseFigures b = blockwise_figures(spec.qubits, *spec.block_length, threshold, 1, work);
   f.blockwise = b;
   if (b.exact) {
     f.distance = 0.0;

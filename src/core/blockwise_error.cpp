@@ -167,7 +167,7 @@ BlockwiseFigures blockwise_figures(int n, int m, double threshold, std::uint64_t
   f.sampled = n > enumerate_up_to;
   const double per_input = std::max(1.0, f.blocks / 2.0 * std::ldexp(1.0, m));
   const long long count =
-      f.sampled ? std::clamp(static_cast<long long>(work / per_input), 64LL, 4096LL) : (1LL << n);
+      f.sampled ? std::clamp(static_cast<long long>(work / per_input), 8LL, 4096LL) : (1LL << n);
   std::vector<std::uint8_t> bits(n);
   std::mt19937_64 rng(seed);
   double sum_r = 0, sum_r2 = 0, sum_c = 0, sum_c2 = 0, above = 0;

@@ -128,9 +128,9 @@ DegreeChoice choose_chain_degree(const Device& device, const QftSpec& base, cons
       return chain_cost(device, spec, chain, options, uniform);
     };
     if (!consider_block_lengths(n, options.approx_error, options.column_threshold(), cost, choice, cut))
-      throw PlanningError(fmt::format("no block length up to {} brings the block construction on {} qubits within "
+      throw PlanningError(fmt::format("no block length up to 16 brings the block construction on {} qubits within "
                                       "--approx-error {} (normalised Frobenius distance)",
-                                      kMaxBlockwiseFigureLength, n, *options.approx_error));
+                                      n, *options.approx_error));
     return choice;
   }
   const auto cost = [&](std::optional<int> degree) {

@@ -68,19 +68,25 @@ DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCo
   return out;
 }
 
+// Longest block scored by --approx auto, and the sampling work of each candidate's figures: every
+// length costs (n/m) 2^m a sampled input, so the scan stays within seconds at 4096 qubits. A longer
+// block can still be asked for by --approx M.
+constexpr int kMaxAutoBlockLength = 16;
+constexpr double kAutoFigureWork = 2e6;
+
 bool consider_block_lengths(int n, std::optional<double> max_error, double threshold,
                             const std::function<DegreeCost(int)>& cost, DegreeChoice& choice, bool* cut) {
   bool met = !max_error;
   try {
     double previous = -INFINITY;
     int falls = 0;
-    for (int m = 1; m <= kMaxBlockwiseFigureLength; ++m) {
+    for (int m = 1; m <= kMaxAutoBlockLength; ++m) {
       QftSpec spec;
       spec.qubits = n;
       spec.block_length = m;
       DegreeCandidate c;
       c.block_length = m;
-      c.approx = spec_figures(spec, false, max_error.value_or(threshold));
+      c.approx = spec_figures(spec, false, max_error.value_or(threshold), kAutoFigureWork);
       const double frobenius = c.approx.blockwise ? c.approx.blockwise->frobenius : 0.0;
       if (max_error && frobenius > *max_error && !spec.effectively_exact()) continue;
       const DegreeCost d = cost(m);

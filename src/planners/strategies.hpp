@@ -67,9 +67,10 @@ DegreeChoice choose_degree(int n, bool score_exact, const std::function<DegreeCo
                            bool* cut);
 
 /// The block construction's candidates for --approx auto, appended to `choice` (block lengths m = 1, 2,
-/// ... up to kMaxBlockwiseFigureLength or the first exact one): with `max_error` (--approx-error) only the
-/// shortest whose normalised Frobenius distance is at most max_error; without, every length until the
-/// readout success is 1 to within 1e-9 or the score has fallen three lengths in a row. Then the best
+/// ... up to 16 or the first exact one, each with figures from a small sample above 16 qubits): with
+/// `max_error` (--approx-error) only the shortest whose normalised Frobenius distance is at most
+/// max_error; without, every length until the readout success is 1 to within 1e-9 or three lengths in a
+/// row score below the best so far. Then the best
 /// score of all candidates is chosen again (near-ties to the fewest native two-qubit gates; a degree
 /// before a block length). Returns false when no block length meets max_error.
 bool consider_block_lengths(int n, std::optional<double> max_error, double threshold,

@@ -87,7 +87,9 @@ inline constexpr double kDefaultColumnThreshold = 0.1;
 /// readout success and infidelity from them, the bound 2 (no better one holds for every input: the
 /// construction's worst columns are about sqrt 2 from the QFT's) and no operator-norm distance. A
 /// construction of at most two blocks is the exact QFT and reported as such.
-ApproxFigures spec_figures(const QftSpec& spec, bool with_distance = true, double threshold = kDefaultColumnThreshold);
+/// `work` bounds the sampling (blockwise_figures).
+ApproxFigures spec_figures(const QftSpec& spec, bool with_distance = true, double threshold = kDefaultColumnThreshold,
+                           double work = 1e7);
 
 /// The input average of the per-input products over `bits` = n - M bits, both by one method:
 /// readout = E_x prod_b cos^2(pi delta_b(x)) and overlap = E_x prod_b (1 + e^{-2 pi i delta_b(x)})/2

@@ -58,7 +58,7 @@ struct BlockwiseFigures {
 };
 
 /// Figures by enumeration (n <= `enumerate_up_to`) or by a seeded sample of about `work` / ((n/m) 2^m)
-/// inputs (at least 64, at most 4096). m must be at most kMaxBlockwiseFigureLength.
+/// inputs (at least 8, at most 4096). m must be at most kMaxBlockwiseFigureLength.
 BlockwiseFigures blockwise_figures(int n, int m, double threshold, std::uint64_t seed = 1, double work = 1e7,
                                    int enumerate_up_to = kMaxEnumeratedBlockwiseQubits);
 
