@@ -267,7 +267,11 @@ std::string format_plan_explanation(const PlanReport& r) {
       return blocks ? fmt::format("blocks {}", *blocks) : m ? std::to_string(*m) : std::string("exact");
     };
     s += fmt::format("approximation degree: {} chosen\n", name(d.chosen, d.chosen_block_length));
-    s += "  degree     esp_total    x readout    = score        distance     bound\n";
+    // The first column widens for block lengths ("blocks 12").
+    bool any_blocks = false;
+    for (const auto& c : d.considered) any_blocks = any_blocks || c.block_length.has_value();
+    const int width = any_blocks ? 9 : 6;
+    s += fmt::format("  {:<{}}   esp_total    x readout    = score        distance     bound\n", "degree", width);
     std::optional<double> exact_log;
     for (const auto& c : d.considered)
       if (!c.degree && !c.block_length) exact_log = c.log_score;
@@ -277,7 +281,7 @@ std::string format_plan_explanation(const PlanReport& r) {
       // The block construction's distance is the normalised Frobenius one (marked F), not the operator norm.
       std::string dist = c.approx.distance ? fmt::format("{:.3g}", *c.approx.distance) : std::string("-");
       if (c.approx.blockwise && !c.approx.blockwise->exact) dist = fmt::format("{:.3g} F", c.approx.blockwise->frobenius), frobenius = true;
-      s += fmt::format("  {:<9}  {:<11.4g}  {:<11.6g}  {:<11.4g}  {:<11}  {:.3g}{}\n", name(c.degree, c.block_length),
+      s += fmt::format("  {:<{}}   {:<11.4g}  {:<11.6g}  {:<11.4g}  {:<11}  {:.3g}{}\n", name(c.degree, c.block_length), width,
                        std::exp(c.log_esp), c.approx.readout_success, c.score, dist, c.approx.error_bound,
                        mark ? "  <- chosen" : "");
     }
