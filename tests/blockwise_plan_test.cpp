@@ -142,7 +142,8 @@ TEST(BlockwisePlan, AutomaticBlockLength) {
   EXPECT_GT(degrees, 1);
   // Without consent the construction is never considered.
   any.approx_error.reset();
-  for (const auto& c : plan_qft(dev, plan_options(any)).degree_choice->considered) EXPECT_FALSE(c.block_length);
+  const PlanReport without = plan_qft(dev, plan_options(any));
+  for (const auto& c : without.degree_choice->considered) EXPECT_FALSE(c.block_length);
 }
 
 // What is refused, with one message naming the setting.
