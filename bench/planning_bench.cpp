@@ -23,6 +23,8 @@ struct PlanCase {
   std::optional<GateSet> gates;
   bool write_file = false;
   double target_s = 0;
+  std::string network = "auto";   // --network
+  std::optional<int> block_length;  // --network blockwise --approx M (absent with auto_approx: chosen)
 };
 
 void run_plan_case(benchmark::State& state, const PlanCase& c) {
@@ -36,6 +38,8 @@ void run_plan_case(benchmark::State& state, const PlanCase& c) {
     opt.spec.qubits = n;
     opt.auto_approx = c.auto_approx;
     opt.gates = c.gates;
+    opt.network = parse_network_choice(c.network);
+    opt.spec.block_length = c.block_length;
     const PreparedPlan plan = prepare_plan(dev, opt);
     if (c.write_file) {
       AtomicFile file(path);
@@ -49,7 +53,9 @@ void run_plan_case(benchmark::State& state, const PlanCase& c) {
     benchmark::DoNotOptimize(last.noise.log_esp);
   }
   bench::record(state, bench::total_gates(last.gate_counts), c.target_s, static_cast<double>(last.output_bytes));
-  state.SetLabel(device + (last.approx_degree ? " M=" + std::to_string(*last.approx_degree) : " exact"));
+  state.SetLabel(device + (last.block_length     ? " blocks of " + std::to_string(*last.block_length)
+                           : last.approx_degree ? " M=" + std::to_string(*last.approx_degree)
+                                                : " exact"));
 }
 
 // Exact QFT, n = 1024 on grid:32x32, --gates cx, OpenQASM 3 to a file: under 1 s.
@@ -71,6 +77,14 @@ BENCHMARK(exact_line_report)->Arg(4096);
 // bytes into a rate).
 void exact_line_file(benchmark::State& s) { run_plan_case(s, {"", false, std::nullopt, true, 0}); }
 BENCHMARK(exact_line_file)->Arg(4096);
+
+// The block construction (--network blockwise) on line:4096: blocks of 12 with the error figures from
+// a seeded sample, report only, under 1 s; the block length chosen by --approx auto (every length
+// 1 .. 16 counted and sampled), under 5 s.
+void blockwise_line(benchmark::State& s) { run_plan_case(s, {"", false, std::nullopt, false, 1.0, "blockwise", 12}); }
+BENCHMARK(blockwise_line)->Arg(4096)->Unit(benchmark::kMillisecond);
+void blockwise_auto_line(benchmark::State& s) { run_plan_case(s, {"", true, std::nullopt, false, 5.0, "blockwise"}); }
+BENCHMARK(blockwise_auto_line)->Arg(4096)->Unit(benchmark::kMillisecond);
 
 // Doubling series: exact time may grow at most 4.5x per doubling of n, approximate at most 2.3x.
 BENCHMARK(exact_line_report)->Name("doubling_exact")->Arg(512)->Arg(1024)->Arg(2048)->Arg(4096)->Arg(8192);
