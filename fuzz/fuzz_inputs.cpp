@@ -457,11 +457,12 @@ void plan_input(std::string_view data) {
   require(rep.noise.esp >= 0 && rep.noise.esp <= 1 && rep.noise.log_esp <= 1e-12, "ESP outside [0, 1]");
   require(rep.noise.esp_idle <= 1 + 1e-12 && rep.noise.esp_total <= rep.noise.esp * (1 + 1e-12),
           "idling and readout cannot raise the ESP");
-  require(rep.approx_error_bound >= 0 && rep.approx_error_bound <= 2 &&
-              (plan.spec.approx_degree || rep.approx_error_bound == 0),
+  // The textbook degrees and the block construction (of three blocks or more) are the approximate transforms.
+  const bool approximate = plan.spec.approx_degree || (plan.spec.block_length && !plan.spec.effectively_exact());
+  require(rep.approx_error_bound >= 0 && rep.approx_error_bound <= 2 && (approximate || rep.approx_error_bound == 0),
           "error bound of the exact transform, and never above 2");
   require(rep.approx.readout_success >= 0 && rep.approx.readout_success <= 1 &&
-              (plan.spec.approx_degree || rep.approx.readout_success == 1),
+              (approximate || rep.approx.readout_success == 1),
           "readout success is a probability, 1 for the exact transform");
 
   // The written file reads back with the same maps and passes the checker, simulation included.

@@ -66,6 +66,19 @@ TEST(BlockwisePlan, CommandLinePlanThenCheck) {
   EXPECT_EQ(exact.status, 1) << exact.out << exact.err;
 }
 
+// The report's rotation count is the spec's (one controlled phase a rotation of every block transform:
+// common practice, s(s-1)/2 for a QFT of s bits), for register sizes that end in a full or a short block.
+TEST(BlockwisePlan, RotationCountIsEveryBlockTransforms) {
+  for (int n : {5, 9, 12, 24, 31})
+    for (int m : {1, 2, 3, 4}) {
+      const PlanReport r = plan_qft(make_line(n), plan_options(blockwise_settings(n, std::to_string(m))));
+      QftSpec spec;
+      spec.qubits = n;
+      spec.block_length = m;
+      EXPECT_EQ(r.rotations, spec.kept_rotations()) << n << " " << m;
+    }
+}
+
 // Two blocks or fewer: the construction is the exact QFT (reported as such, no approximation figures),
 // and the checker proves its file against the exact QFT.
 TEST(BlockwisePlan, TwoBlocksAreReportedExact) {

@@ -57,11 +57,29 @@ struct QftSpec {
   /// Processing index whose wire holds output bit `k` at the end.
   int output_wire(int k) const { return inverse ? qubits - 1 - k : k; }
 
-  /// Number of controlled phases kept: sum over distances 1..max_distance of (n - dist).
+  /// Number of controlled phases kept: sum over distances 1..max_distance of (n - dist). The block
+  /// construction: every rotation of its block transforms (pairs in layers A and C, single blocks in B and
+  /// for block 0 and a top block in C), s(s-1)/2 for a transform of s bits.
   long long kept_rotations() const {
+    if (block_length) return block_rotations();
     const long long n = qubits, d = max_distance();
     return d * n - d * (d + 1) / 2;
   }
+
+ private:
+  long long block_rotations() const {
+    const long long m = std::max(1, *block_length), k = (qubits + m - 1) / m;
+    const auto size = [&](long long b) { return std::min(m, qubits - b * m); };
+    const auto pairs = [](long long s) { return s * (s - 1) / 2; };
+    long long r = pairs(size(0));
+    for (long long b = 1; b < k; b += 2)  // A, then B on each of its two blocks
+      r += pairs(size(b - 1) + size(b)) + pairs(size(b - 1)) + pairs(size(b));
+    for (long long b = 2; b < k; b += 2) r += pairs(size(b - 1) + size(b));
+    if (k % 2 == 0 && k > 1) r += pairs(size(k - 1));
+    return r;
+  }
+
+ public:
 };
 
 }  // namespace qftplan
