@@ -74,6 +74,19 @@ State planned_column(int n, const std::vector<Gate>& gates, const std::vector<in
   return out;
 }
 
+// The forward construction on the chain 0..n-1: its gates, and where each processing index ends.
+struct Emitted {
+  std::vector<Gate> gates;
+  std::vector<int> pos;
+};
+Emitted emitted(int n, int m) {
+  std::vector<int> chain(n);
+  for (int p = 0; p < n; ++p) chain[p] = p;
+  Collect sink;
+  auto pos = emit_blockwise_qft(n, m, false, chain, sink);
+  return {std::move(sink.gates), std::move(pos)};
+}
+
 // The QFT of Nielsen & Chuang (2000), eq. 5.2, on bits [low, low+size) of the register as a number of
 // its own: |v> -> 2^(-size/2) sum_w exp(2 pi i v w / 2^size) |w>, (inverse: the conjugate).
 void block_qft(State& s, int low, int size, bool inverse) {
@@ -149,12 +162,9 @@ double distance(const State& a, const State& b) {
 TEST(BlockwiseQft, GatesMatchTheConstructionsDefinition) {
   for (int n = 1; n <= 8; ++n)
     for (int m = 1; m <= n; ++m) {
-      std::vector<int> chain(n);
-      for (int p = 0; p < n; ++p) chain[p] = p;
-      Collect sink;
-      const auto pos = emit_blockwise_qft(n, m, false, chain, sink);
+      const auto [gates, pos] = emitted(n, m);
       for (int x = 0; x < (1 << n); ++x)
-        ASSERT_LT(distance(planned_column(n, sink.gates, pos, x), defined_column(n, m, x)), 1e-9)
+        ASSERT_LT(distance(planned_column(n, gates, pos, x), defined_column(n, m, x)), 1e-9)
             << "n=" << n << " m=" << m << " x=" << x;
     }
 }
@@ -165,12 +175,9 @@ TEST(BlockwiseQft, TwoBlocksOrFewerAreExactAgainstFftw) {
   for (int n : {2, 5, 8}) {
     const auto ref = testing::fftw_qft_matrix(n, false);
     for (int m = (n + 1) / 2; m <= n; ++m) {
-      std::vector<int> chain(n);
-      for (int p = 0; p < n; ++p) chain[p] = p;
-      Collect sink;
-      const auto pos = emit_blockwise_qft(n, m, false, chain, sink);
+      const auto [gates, pos] = emitted(n, m);
       for (int x = 0; x < (1 << n); ++x) {
-        const State col = planned_column(n, sink.gates, pos, x);
+        const State col = planned_column(n, gates, pos, x);
         ASSERT_LT(distance(col, ref[x]), 1e-9) << "n=" << n << " m=" << m << " x=" << x;
       }
     }
@@ -200,14 +207,11 @@ TEST(BlockwiseQft, InverseUndoesForward) {
 TEST(BlockwiseQft, ErrorShrinksWithBlockLength) {
   const int n = 10, N = 1 << n;
   const auto ref = testing::fftw_qft_matrix(n, false);
-  std::vector<int> chain(n);
-  for (int p = 0; p < n; ++p) chain[p] = p;
   double previous = 3;
   for (int m = 2; m <= 4; ++m) {
-    Collect sink;
-    const auto pos = emit_blockwise_qft(n, m, false, chain, sink);
+    const auto [gates, pos] = emitted(n, m);
     double sum = 0;
-    for (int x = 0; x < N; ++x) sum += std::pow(distance(planned_column(n, sink.gates, pos, x), ref[x]), 2);
+    for (int x = 0; x < N; ++x) sum += std::pow(distance(planned_column(n, gates, pos, x), ref[x]), 2);
     const double frob = std::sqrt(sum / N);
     EXPECT_GT(frob, 1e-3) << m;
     EXPECT_LT(frob, previous) << m;
@@ -234,12 +238,9 @@ TEST(BlockwiseError, OverlapMatchesSimulationAgainstFftw) {
   for (int n = 1; n <= 9; ++n) {
     const auto ref = testing::fftw_qft_matrix(n, false);
     for (int m = 1; m <= n; ++m) {
-      std::vector<int> chain(n);
-      for (int p = 0; p < n; ++p) chain[p] = p;
-      Collect sink;
-      const auto pos = emit_blockwise_qft(n, m, false, chain, sink);
+      const auto [gates, pos] = emitted(n, m);
       for (int x = 0; x < (1 << n); ++x) {
-        const State col = planned_column(n, sink.gates, pos, x);
+        const State col = planned_column(n, gates, pos, x);
         cd want = 0;
         for (int y = 0; y < (1 << n); ++y) want += std::conj(ref[x][y]) * col[y];
         std::vector<std::uint8_t> bits(n);
@@ -259,14 +260,11 @@ TEST(BlockwiseError, EnumeratedFiguresMatchSimulation) {
   const int n = 10, N = 1 << n;
   const auto ref = testing::fftw_qft_matrix(n, false);
   for (int m : {2, 3, 4, 5}) {
-    std::vector<int> chain(n);
-    for (int p = 0; p < n; ++p) chain[p] = p;
-    Collect sink;
-    const auto pos = emit_blockwise_qft(n, m, false, chain, sink);
+    const auto [gates, pos] = emitted(n, m);
     double readout = 0, frob2 = 0, above = 0, worst = 0;
     cd trace = 0;
     for (int x = 0; x < N; ++x) {
-      const State col = planned_column(n, sink.gates, pos, x);
+      const State col = planned_column(n, gates, pos, x);
       cd ov = 0;
       for (int y = 0; y < N; ++y) ov += std::conj(ref[x][y]) * col[y];
       const double d = distance(col, ref[x]);

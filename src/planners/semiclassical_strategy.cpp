@@ -116,26 +116,23 @@ double counted_log_esp_total(const Device& device, const PlanOptions& options, P
 PreparedPlan prepare_measured(const Device& device, const PlanOptions& options,
                               PreparedPlan (*unitary)(const Device&, const PlanOptions&)) {
   ReadoutChoice choice;
-  if (options.readout == Readout::unitary) {
+  // The unitary form only, for `reason`.
+  const auto unitary_only = [&](const char* reason, const char* semiclassical_note) {
     PreparedPlan p = unitary(device, options);
     choice.chosen = "unitary";
-    choice.reason = "pinned by --readout unitary";
-    choice.semiclassical_note = "not planned (--readout unitary)";
+    choice.reason = reason;
+    choice.semiclassical_note = semiclassical_note;
     p.readout = choice;
     return p;
-  }
+  };
+  if (options.readout == Readout::unitary) return unitary_only("pinned by --readout unitary", "not planned (--readout unitary)");
   // The block construction is a unitary circuit of its own; the semi-classical form measures the
   // textbook transform.
   if (options.spec.block_length) {
     if (options.readout == Readout::semiclassical)
       throw SettingError("readout", " semiclassical measures the textbook transform as it goes; the block construction "
                                     "(--network blockwise) has no such form");
-    PreparedPlan p = unitary(device, options);
-    choice.chosen = "unitary";
-    choice.reason = "the block construction has no semi-classical form";
-    choice.semiclassical_note = "not planned (--network blockwise)";
-    p.readout = choice;
-    return p;
+    return unitary_only("the block construction has no semi-classical form", "not planned (--network blockwise)");
   }
   if (options.readout == Readout::semiclassical) {
     // A named strategy plans a unitary circuit: it is never replaced silently.
