@@ -241,8 +241,7 @@ CheckResult check_qft_circuit(const Device& device, const QasmProgram& program, 
   if (request.structural && request.spec.block_length) {
     // The proof follows one Hadamard a wire (the textbook transform and its approximations); the block
     // construction has three: the state-vector comparison decides.
-    CheckResult lost = cannot_prove("it follows the textbook transform, not the block construction", 0);
-    structural = lost;
+    structural = cannot_prove("it follows the textbook transform, not the block construction", 0);
   } else if (request.structural) {
     structural = structural_proof(device, program, request);
     if (structural->outcome == CheckOutcome::wrong) return *structural;

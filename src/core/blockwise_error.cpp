@@ -31,7 +31,7 @@
 // spread through D_{s_h}((u - theta*)/2^m), which is small unless u wraps round (theta* near 2^m): the
 // rare inputs with large error. With at most two blocks every factor is 1 (theta_top = theta*_top).
 // The same derivation with the output bits reversed once more gives the QFT of eq. 5.2; the test
-// (tests/blockwise_error_test.cpp) checks every overlap against the emitted gates and FFTW.
+// (tests/blockwise_qft_test.cpp) checks every overlap against the emitted gates and FFTW.
 
 #include "qftplan/core/blockwise_error.hpp"
 
@@ -160,7 +160,7 @@ BlockwiseFigures blockwise_figures(int n, int m, double threshold, std::uint64_t
   f.block_length = m;
   f.blocks = blockwise_blocks(n, m);
   f.threshold = threshold;
-  f.exact = f.blocks <= 2;
+  f.exact = blockwise_exact(n, m);
   if (f.exact) return f;
   if (m > kMaxBlockwiseFigureLength)
     throw std::invalid_argument("blockwise_figures: block length above " + std::to_string(kMaxBlockwiseFigureLength));

@@ -135,7 +135,7 @@ class Builder {
 // The construction's steps, kept (O(n m) of them), in chunks of about a thousand.
 class BlockwiseNetwork final : public QftNetwork {
  public:
-  BlockwiseNetwork(int n, int m) : QftNetwork(n, std::max(0, std::min(n - 1, 2 * m - 1))), m_(m) {
+  BlockwiseNetwork(int n, int m) : QftNetwork(n, std::max(0, std::min(n - 1, 2 * m - 1))) {
     Builder b(n, m);
     b.run();
     ops_ = std::move(b.ops);
@@ -151,28 +151,11 @@ class BlockwiseNetwork final : public QftNetwork {
 
  private:
   static constexpr std::size_t kChunk = 1024;
-  int m_;
   std::vector<NetworkOp> ops_;
   std::vector<int> final_;
 };
 
 }  // namespace
-
-std::vector<BlockTransform> blockwise_schedule(int n, int m) {
-  if (n < 1 || m < 1) throw std::invalid_argument("blockwise: need n >= 1 and m >= 1");
-  const auto blocks = blocks_of(n, m);
-  const int k = static_cast<int>(blocks.size());
-  std::vector<BlockTransform> out;
-  for (int b = 1; b < k; b += 2) out.push_back({blocks[b - 1].low, blocks[b - 1].size + blocks[b].size, false});
-  for (int b = 1; b < k; b += 2) {
-    out.push_back({blocks[b].low, blocks[b].size, true});
-    out.push_back({blocks[b - 1].low, blocks[b - 1].size, true});
-  }
-  out.push_back({blocks[0].low, blocks[0].size, false});
-  for (int b = 2; b < k; b += 2) out.push_back({blocks[b - 1].low, blocks[b - 1].size + blocks[b].size, false});
-  if (k % 2 == 0 && k > 1) out.push_back({blocks[k - 1].low, blocks[k - 1].size, false});
-  return out;
-}
 
 std::unique_ptr<QftNetwork> make_blockwise_network(int wires, int block_length) {
   if (wires < 1 || block_length < 1) throw std::invalid_argument("blockwise: need n >= 1 and m >= 1");

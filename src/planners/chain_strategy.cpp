@@ -119,15 +119,15 @@ DegreeChoice choose_chain_degree(const Device& device, const QftSpec& base, cons
                                  const PlanOptions& options, bool* cut) {
   const bool uniform = uniform_errors(device);
   const int n = base.qubits;
+  const auto block_cost = [&](int m) {
+    QftSpec spec = base;
+    spec.block_length = m;
+    return chain_cost(device, spec, chain, options, uniform);
+  };
   if (options.network == NetworkChoice::blockwise) {
     // --network blockwise --approx auto: the block lengths only.
     DegreeChoice choice;
-    const auto cost = [&](int m) {
-      QftSpec spec = base;
-      spec.block_length = m;
-      return chain_cost(device, spec, chain, options, uniform);
-    };
-    if (!consider_block_lengths(n, options.approx_error, options.column_threshold(), cost, choice, cut))
+    if (!consider_block_lengths(n, options.approx_error, options.column_threshold(), block_cost, choice, cut))
       throw PlanningError(fmt::format("no block length up to 16 brings the block construction on {} qubits within "
                                       "--approx-error {} (normalised Frobenius distance)",
                                       n, *options.approx_error));
@@ -141,14 +141,8 @@ DegreeChoice choose_chain_degree(const Device& device, const QftSpec& base, cons
   DegreeChoice choice = choose_degree(n, static_cast<long long>(n) * (n - 1) / 2 <= kMaxScoredBlocks, cost, cut);
   // With the user's consent (--approx-error EPS) the block construction competes too, at the shortest block
   // length that meets EPS.
-  if (options.approx_error && options.network == NetworkChoice::automatic) {
-    const auto block_cost = [&](int m) {
-      QftSpec spec = base;
-      spec.block_length = m;
-      return chain_cost(device, spec, chain, options, uniform);
-    };
+  if (options.approx_error && options.network == NetworkChoice::automatic)
     consider_block_lengths(n, options.approx_error, options.column_threshold(), block_cost, choice, cut);
-  }
   return choice;
 }
 

@@ -7,6 +7,7 @@
 #include <string>
 
 #include "qftplan/core/angle.hpp"
+#include "qftplan/core/blockwise_error.hpp"
 
 namespace qftplan {
 
@@ -40,7 +41,7 @@ struct QftSpec {
   }
   /// True when the degree keeps every rotation (the block construction: at most two blocks).
   bool effectively_exact() const {
-    if (block_length) return *block_length >= 1 && 2LL * *block_length >= qubits;
+    if (block_length) return *block_length >= 1 && blockwise_exact(qubits, *block_length);
     return max_distance() == qubits - 1;
   }
   /// The controlled-phase angle between processing indices at distance `dist` (>= 1):
@@ -61,13 +62,10 @@ struct QftSpec {
   /// construction: every rotation of its block transforms (pairs in layers A and C, single blocks in B and
   /// for block 0 and a top block in C), s(s-1)/2 for a transform of s bits.
   long long kept_rotations() const {
-    if (block_length) return block_rotations();
-    const long long n = qubits, d = max_distance();
-    return d * n - d * (d + 1) / 2;
-  }
-
- private:
-  long long block_rotations() const {
+    if (!block_length) {
+      const long long n = qubits, d = max_distance();
+      return d * n - d * (d + 1) / 2;
+    }
     const long long m = std::max(1, *block_length), k = (qubits + m - 1) / m;
     const auto size = [&](long long b) { return std::min(m, qubits - b * m); };
     const auto pairs = [](long long s) { return s * (s - 1) / 2; };
@@ -78,8 +76,6 @@ struct QftSpec {
     if (k % 2 == 0 && k > 1) r += pairs(size(k - 1));
     return r;
   }
-
- public:
 };
 
 }  // namespace qftplan

@@ -24,16 +24,6 @@
 
 namespace qftplan {
 
-/// One block transform of the construction: the QFT (or inverse) of `size` bits starting at bit `low`.
-struct BlockTransform {
-  int low = 0;
-  int size = 0;
-  bool inverse = false;
-};
-
-/// The construction's block transforms in order (layers A, B, C above) for n bits and blocks of m.
-std::vector<BlockTransform> blockwise_schedule(int n, int m);
-
 /// The construction on a chain of n positions (chain[p] = physical qubit at position p, consecutive
 /// ones coupled), processing index p (input bit n-1-p) at position p at the start. Gates go to `sink`
 /// (the inverse transform: the forward gates backwards with negated angles). Returns the chain position
