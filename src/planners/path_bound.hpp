@@ -24,6 +24,8 @@ class PathBound {
   /// The bound for a path from `start` through qubits with usable[q] != 0. Costs O(qubits + couplers)
   /// of the part reachable from `start`; adds that to `work`.
   int from(int start, const std::vector<char>& usable, long long& work);
+  /// The qubits the last call to `from` reached (`start` first), valid until the next call.
+  const std::vector<int>& reached() const { return touched_; }
 
  private:
   const Device& dev_;

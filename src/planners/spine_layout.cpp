@@ -10,6 +10,7 @@
 #include "qftplan/core/run_budget.hpp"
 #include "qftplan/planners/chain_search.hpp"
 #include "qftplan/planners/plan.hpp"
+#include "line_polish.hpp"
 #include "spine_growth.hpp"
 
 namespace qftplan {
@@ -27,6 +28,8 @@ namespace {
 // Seeded random starts of spines besides the three above, on pieces of at most kSpineStartsLimit qubits.
 constexpr int kSpineStarts = 12;
 constexpr int kSpineStartsLimit = 2000;
+// Searches for a chain one qubit longer than the longest so far (grow_spines).
+constexpr int kLongerChainSteps = 64;
 
 // Breadth-first distances from `from` inside the piece; the farthest qubit (lowest number on ties).
 int farthest(const Device& device, const std::vector<char>& inside, int from) {
@@ -68,6 +71,17 @@ std::vector<std::vector<int>> grow_spines(const Device& device, const std::vecto
   // Bounded so that a large device costs the search a few passes over its couplers, not more.
   cso.work_budget = std::min<long long>(cso.work_budget, 200LL * device.coupler_count() + 100'000);
   std::vector<int> chain = find_chain(device, size, cso).longest;
+  // Asking for the whole piece leaves the complete search little to prune with; asking for one qubit
+  // more than the longest so far lets its reach bound cut (measured on the defective heavy-hex:4x4 of
+  // qftplan_spread: 64 -> 69 qubits, the longest there is). Each step has the same bounded budget; on
+  // pieces of up to kSpineStartsLimit qubits.
+  for (int step = 0; step < kLongerChainSteps && size <= kSpineStartsLimit && !chain.empty() &&
+                     static_cast<int>(chain.size()) < size && !poll.stop();
+       ++step) {
+    ChainSearchResult more = find_chain(device, static_cast<int>(chain.size()) + 1, cso);
+    if (more.chain.empty()) break;
+    chain = more.longest.size() > more.chain.size() ? std::move(more.longest) : std::move(more.chain);
+  }
   const bool usable = !chain.empty() && std::all_of(chain.begin(), chain.end(), [&](int q) { return inside[q] != 0; });
   if (usable) consider(std::move(chain), seed + 2);
   // The longest spine is not always the cheapest: what hangs off it matters too (a long branch left
@@ -262,6 +276,9 @@ LineDetours line_detours(const Device& device, const Forest& f, const std::vecto
 }  // namespace
 
 constexpr int kSplits = 32;
+// Lines of up to this many qubits are polished by local moves (line_polish.cpp): its distance table
+// has n^2 entries and a pass costs O(n) per move tried.
+constexpr int kPolishLimit = 1000;
 
 SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, const RunBudget* budget, bool in_place,
                               bool fused_swaps) {
@@ -301,6 +318,18 @@ SpineLayout make_spine_layout(const Device& device, int n, std::uint64_t seed, c
         }
       std::reverse(spine.begin(), spine.end());
     }
+  // Local moves then shorten what the tree readings left long (not with `in_place`: the moves gather
+  // qubits wherever detours are cheapest, as the gathered readings do).
+  if (!in_place && n <= kPolishLimit && !out.detours.empty()) {
+    const LineDistances dist(device, out.line);
+    BudgetPoll poll(budget, 16);
+    std::vector<int> polished = polish_line(device, dist, out.line, fused_swaps, poll);
+    const long long cost = line_cost(device, dist, polished, fused_swaps);
+    if (cost >= 0 && cost < best) {
+      out.detours = line_detours_by_distance(device, dist, polished, fused_swaps);
+      out.line = std::move(polished);
+    }
+  }
   out.spine = std::move(best_spine);
   // The spine reported is the one the chosen line runs along.
   if (!out.line.empty() && std::find(out.spine.begin(), out.spine.end(), out.line.front()) != out.spine.begin())
