@@ -12,6 +12,8 @@
 #include <functional>
 #include <random>
 
+#include "../src/planners/complete_chain_search.hpp"
+#include "qftplan/core/run_budget.hpp"
 #include "qftplan/device/device.hpp"
 #include "qftplan/device/lattices.hpp"
 #include "qftplan/planners/chain_search.hpp"
@@ -113,6 +115,76 @@ TEST(ChainSearch, RandomSparseGraphsMatchTheBruteForce) {
     const Device g = random_graph(n, n + i % 7, rng);
     expect_matches_brute_force(g, "graph " + std::to_string(i));
   }
+}
+
+// Every register size with the complete search alone: a chain up to the longest, a proof above it.
+void expect_complete_search_matches_brute_force(const Device& d) {
+  const int longest = brute_force_longest(d);
+  BudgetPoll poll(nullptr);
+  for (int n = 2; n <= longest + 1; ++n) {
+    const CompleteSearchResult r = complete_chain_search(d, n, 1'000'000'000, poll);
+    if (n <= longest) {
+      ASSERT_EQ(static_cast<int>(r.chain.size()), n) << d.name() << " n=" << n;
+      EXPECT_TRUE(is_chain(d, r.chain)) << d.name();
+    } else {
+      EXPECT_TRUE(r.chain.empty()) << d.name();
+      EXPECT_TRUE(r.proved_none) << d.name();
+    }
+  }
+}
+
+TEST(ChainSearch, TheCompleteSearchAloneMatchesTheBruteForce) {
+  // The complete search without the greedy passes in front of it (which find most chains first). Its
+  // transposition table cuts a branch whose (end, reachable free qubits) was searched before; a wrong
+  // cut would show here as a miss (a wrongly keyed table rarely cuts a branch that holds the chain on
+  // chips this small: the next test checks the keys themselves).
+  for (std::uint64_t seed = 1; seed <= 6; ++seed)
+    for (const Device& d : {make_defective_chip("grid:5x5", 1, 1 + seed % 3, seed),
+                            make_defective_chip("heavy-hex:3x3", 1, 2, seed)})
+      expect_complete_search_matches_brute_force(d);
+  for (std::uint64_t seed = 1; seed <= 4; ++seed) {
+    // Chips of 108 to 110 qubits at their longest chain, where the search backtracks (13k to 180k
+    // inspections) before it finds one.
+    for (const Device& d : {make_defective_chip("heavy-hex:4x4", 2, 4, seed),
+                            make_defective_chip("heavy-hex:4x4", 1, 2, seed + 10)}) {
+      const int longest = brute_force_longest(d);
+      BudgetPoll poll(nullptr);
+      const CompleteSearchResult r = complete_chain_search(d, longest, 1'000'000'000, poll);
+      ASSERT_EQ(static_cast<int>(r.chain.size()), longest) << d.name();
+      EXPECT_TRUE(is_chain(d, r.chain)) << d.name();
+    }
+  }
+  std::mt19937_64 rng(19);
+  for (int i = 0; i < 60; ++i) {
+    const int n = 8 + i % 10;
+    expect_complete_search_matches_brute_force(random_graph(n, n + i % 5, rng));
+  }
+}
+
+TEST(ChainSearch, TheTranspositionTableKeysTheEndAndTheReachableSet) {
+  // The state of a path is its end and the set of free qubits its end can reach: the key must not
+  // depend on the order the set is listed in, and must tell apart another end or another set.
+  FailureTable table(10);
+  const auto k = table.key({3, 5, 7, 9});
+  const auto same = table.key({3, 9, 7, 5});
+  const auto other_end = table.key({5, 3, 7, 9});
+  const auto other_set = table.key({3, 5, 7, 8});
+  const auto moved_end = table.key({4, 5, 7, 9});  // the same free set, another end
+  EXPECT_TRUE(k.a == same.a && k.b == same.b);
+  EXPECT_FALSE(k.a == other_end.a && k.b == other_end.b);
+  EXPECT_FALSE(k.a == moved_end.a && k.b == moved_end.b);
+  EXPECT_FALSE(k.a == other_set.a && k.b == other_set.b);
+  // A failure to find 4 more qubits also rules out 5 more, not 3.
+  EXPECT_FALSE(table.failed(k, 4));
+  table.record(k, 4);
+  EXPECT_TRUE(table.failed(k, 4));
+  EXPECT_TRUE(table.failed(same, 5));
+  EXPECT_FALSE(table.failed(k, 3));
+  EXPECT_FALSE(table.failed(other_end, 4));
+  EXPECT_FALSE(table.failed(other_set, 4));
+  EXPECT_FALSE(table.failed(moved_end, 4));
+  table.record(k, 2);
+  EXPECT_TRUE(table.failed(k, 3));
 }
 
 TEST(ChainSearch, DefectiveLatticesMatchTheBruteForce) {
