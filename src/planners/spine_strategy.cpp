@@ -4,6 +4,7 @@
 // (the setting of Gao, Jin, Guo, Chen and Zhang, arXiv:2402.09705, 2024) and defective chips.
 
 #include "qftplan/core/run_budget.hpp"
+#include "qftplan/planners/circuit_figures.hpp"
 #include "qftplan/planners/spine_layout.hpp"
 #include "strategies.hpp"
 
@@ -27,6 +28,25 @@ PreparedPlan spine_plan(const Device& device, const PlanOptions& options, const 
   return plan;
 }
 
+// The line of the layout or one of its alternatives, whichever gives the fewest native two-qubit gates
+// when counted (ties: the layout's own line).
+SpineLayout cheapest_line(const Device& device, const PlanOptions& options, SpineLayout layout, const QftSpec& spec) {
+  if (layout.alternatives.empty()) return layout;
+  const CountSettings settings = count_settings(options, options.gates.value_or(gate_set_of(device.native_2q())));
+  auto cx = [&](const SpineLayout& l) { return count_circuit(device, *spine_plan(device, options, l, spec).circuit, settings, nullptr).cx_count; };
+  long long best = cx(layout);
+  SpineLayout candidate;
+  candidate.spine = layout.spine;
+  for (auto& [line, detours] : layout.alternatives) {
+    candidate.line = line;
+    candidate.detours = detours;
+    const long long c = cx(candidate);
+    if (c < best) best = c, layout.line = std::move(line), layout.detours = std::move(detours);
+  }
+  layout.alternatives.clear();
+  return layout;
+}
+
 }  // namespace
 
 PreparedPlan prepare_spine(const Device& device, const PlanOptions& options) {
@@ -34,12 +54,13 @@ PreparedPlan prepare_spine(const Device& device, const PlanOptions& options) {
   if (options.auto_approx) spec.approx_degree.reset();
   validate_spec(device, spec);
   if (options.placement) throw SettingError("placement", " pins a chain; the spine strategy chooses its own line");
-  const SpineLayout layout = make_spine_layout(device, spec.qubits, options.search.seed, options.budget,
+  SpineLayout layout = make_spine_layout(device, spec.qubits, options.search.seed, options.budget,
                                                  options.objective == Objective::depth ||
                                                      options.objective == Objective::duration,
                                                  choose_network(spec, options.end_order, options.network)->rendering() ==
                                                      QftNetwork::Rendering::parity);
   throw_if_interrupted(options.budget);
+  layout = cheapest_line(device, options, std::move(layout), spec);
   if (layout.detours.empty() || static_cast<int>(layout.spine.size()) >= spec.qubits)
     throw PlanningError("the register fits on one chain: the chain strategy covers it");
   if (!options.auto_approx) return spine_plan(device, options, layout, spec);
