@@ -88,9 +88,9 @@ double plan_every_qubit(const Device& dev, Objective objective = Objective::esp,
 }
 
 TEST(Spine, EveryLiveQubitOfDefectiveHeavyHexagonChips) {
-  // Issue 17 asks CX <= 1.5 x (N^2 - 1) here. Measured on these seeds 1.16 to 1.64, median 1.30 (bench/
-  // every_qubit_spread.cpp has a wider spread): chips whose longest chain holds under about 65% of
-  // the qubits (long branches hang off it) miss it. Asserted: the median of the spread within 1.5,
+  // Issue 17 asks CX <= 1.5 x (N^2 - 1) here. Measured on these seeds 1.11 to 1.55, median 1.23 (bench/
+  // every_qubit_spread.cpp has a wider spread): the chip that misses it (2x2, seed 2) has lost most of
+  // its hexagons, so long branches hang off its longest chain. Asserted: the median of the spread within 1.5,
   // every chip within the issue's bound for any connected graph, 2 x (N^2 - 1). The exact QFT needs at
   // least n(n-1)/2 two-qubit interactions (common practice), so the ratio cannot fall below about 0.5;
   // a wrong count of gates shows here.
@@ -111,6 +111,15 @@ TEST(Spine, EveryLiveQubitOfDefectiveHeavyHexagonChips) {
     }
   std::sort(ratios.begin(), ratios.end());
   EXPECT_LE(ratios[ratios.size() / 2], 1.5) << "median of " << ratios.size() << " chips";
+}
+
+TEST(Spine, LocalMovesShortenTheDetoursOfABranchyChip) {
+  // heavy-hex:4x4 with 3 dead qubits and 6 broken couplers (seed 2: 107 qubits, 6 of its 16 hexagons
+  // left, longest chain 69): reading the trees off the chain alone gives 1.65 x (N^2 - 1) CX; with the
+  // line's local moves (src/planners/line_polish.cpp) and the longer chain 1.53 (measured).
+  const Device dev = testing::make_defective_chip("heavy-hex:4x4", 3, 6, 2);
+  ASSERT_EQ(dev.qubit_count(), 107);
+  EXPECT_LE(plan_every_qubit(dev), 1.56);
 }
 
 TEST(Spine, EveryQubitOfTreesAndRandomGraphsWithinTwiceNSquared) {
