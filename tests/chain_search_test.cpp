@@ -239,6 +239,27 @@ TEST(ChainSearch, DISABLED_SurveyOfDefectiveChips) {
   }
 }
 
+TEST(ChainSearch, DISABLED_LongestChainsOfHeavilyDefectiveChips) {
+  // The sizes of issue 17's catalogue with more defects (4 dead qubits, 8 broken couplers): the
+  // longest chain found by climbing one qubit at a time, whether one more was proved impossible, and
+  // whether asking for the longest directly finds it (README "Finding a chain").
+  for (const std::string spec : {"heavy-hex:3x3", "heavy-hex:4x4", "heavy-hex:5x5", "grid:10x10", "grid:12x12"})
+    for (std::uint64_t seed = 1; seed <= 5; ++seed) {
+      const Device d = make_defective_chip(spec, 4, 8, seed);
+      int longest = static_cast<int>(find_chain(d, d.qubit_count()).longest.size());
+      ChainSearchResult next;
+      while (true) {
+        next = find_chain(d, longest + 1);
+        if (next.chain.empty() && static_cast<int>(next.longest.size()) <= longest) break;
+        longest = std::max(longest + 1, static_cast<int>(next.longest.size()));
+      }
+      const bool direct = !find_chain(d, longest).chain.empty();
+      std::printf("%-14s seed %llu: N=%d longest %d, n+1 proved none: %s, found when asked: %s\n", spec.c_str(),
+                  static_cast<unsigned long long>(seed), d.qubit_count(), longest, next.proved_none ? "yes" : "no",
+                  direct ? "yes" : "no");
+    }
+}
+
 }  // namespace
 }  // namespace qftplan
 
