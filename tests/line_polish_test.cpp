@@ -11,17 +11,10 @@
 #include "../src/planners/line_polish.hpp"
 #include "qftplan/core/run_budget.hpp"
 #include "qftplan/device/device.hpp"
+#include "test_support.hpp"
 
 namespace qftplan {
 namespace {
-
-Device from_edges(const std::string& name, int n, const std::vector<std::pair<int, int>>& edges) {
-  DeviceDescription d;
-  d.name = name;
-  d.qubits = n;
-  for (const auto& [a, b] : edges) d.couplers.push_back({a, b, {}, {}});
-  return Device(d);
-}
 
 // A random tree on n qubits, with `extra` couplers more (seeded).
 Device random_piece(int n, int extra, std::uint64_t seed) {
@@ -33,7 +26,15 @@ Device random_piece(int n, int extra, std::uint64_t seed) {
     const auto e = std::pair{std::min(a, b), std::max(a, b)};
     if (a != b && std::find(edges.begin(), edges.end(), e) == edges.end()) edges.push_back(e);
   }
-  return from_edges("piece", n, edges);
+  return testing::device_from_edges("piece", n, edges);
+}
+
+// The qubits 0 .. n-1 in a seeded random order.
+std::vector<int> shuffled_line(int n, std::uint64_t seed) {
+  std::vector<int> line(static_cast<std::size_t>(n));
+  std::iota(line.begin(), line.end(), 0);
+  std::shuffle(line.begin(), line.end(), std::mt19937_64(seed));
+  return line;
 }
 
 // Hop distances by breadth-first search, written here (independent of LineDistances).
@@ -71,9 +72,7 @@ TEST(LinePolish, CostMatchesItsDefinition) {
   for (std::uint64_t seed = 1; seed <= 20; ++seed) {
     const Device d = random_piece(12, static_cast<int>(seed % 4), seed);
     const auto h = hops(d);
-    std::vector<int> line(12);
-    std::iota(line.begin(), line.end(), 0);
-    std::shuffle(line.begin(), line.end(), std::mt19937_64(seed));
+    const std::vector<int> line = shuffled_line(12, seed);
     const LineDistances dist(d, line);
     EXPECT_EQ(line_cost(d, dist, line, true), cost_by_definition(d, h, line)) << "seed " << seed;
   }
@@ -96,9 +95,7 @@ TEST(LinePolish, ReachesTheBestOrderOfSmallTreesMostOfTheTime) {
       const long long c = cost_by_definition(d, h, order);
       if (best < 0 || c < best) best = c;
     } while (std::next_permutation(order.begin(), order.end()));
-    std::vector<int> start(8);
-    std::iota(start.begin(), start.end(), 0);
-    std::shuffle(start.begin(), start.end(), std::mt19937_64(static_cast<std::uint64_t>(seed)));
+    const std::vector<int> start = shuffled_line(8, static_cast<std::uint64_t>(seed));
     const LineDistances dist(d, start);
     BudgetPoll poll(nullptr);
     const std::vector<int> polished = polish_line(d, dist, start, true, poll);
@@ -118,9 +115,7 @@ TEST(LinePolish, DetoursArePathsOfTheDeviceAndCostWhatTheLineCosts) {
   for (std::uint64_t seed = 1; seed <= 20; ++seed) {
     const Device d = random_piece(16, static_cast<int>(seed % 5), seed);
     const auto h = hops(d);
-    std::vector<int> line(16);
-    std::iota(line.begin(), line.end(), 0);
-    std::shuffle(line.begin(), line.end(), std::mt19937_64(seed));
+    const std::vector<int> line = shuffled_line(16, seed);
     const LineDistances dist(d, line);
     const auto detours = line_detours_by_distance(d, dist, line, true);
     std::vector<int> position(16);

@@ -38,19 +38,11 @@ class CouplerCheckSink final : public GateSink {
   const Device& dev_;
 };
 
-Device from_edges(const std::string& name, int n, const std::vector<std::pair<int, int>>& edges) {
-  DeviceDescription d;
-  d.name = name;
-  d.qubits = n;
-  for (const auto& [a, b] : edges) d.couplers.push_back({a, b, {}, {}});
-  return Device(d);
-}
-
 TEST(DetourSink, ALongDetourActsAsTheGateOnItsEnds) {
   // On the path 0-1-2-3, cp(0, 3) along 0, 1, 2, 3 must act as cp(0, 3) itself: diag(1,1,1,e^{it}) on
   // qubits 0 and 3 (Nielsen and Chuang, "Quantum Computation and Quantum Information", 2000, sec. 4.3),
   // with qubits 1 and 2 left as they were. Checked on every basis state of the four qubits.
-  const Device dev = from_edges("path4", 4, {{0, 1}, {1, 2}, {2, 3}});
+  const Device dev = testing::device_from_edges("path4", 4, {{0, 1}, {1, 2}, {2, 3}});
   VectorSink out;
   DetourSink detour(out);
   detour.add(Detour{0, 3, {1, 2}});
@@ -138,7 +130,7 @@ TEST(Spine, EveryQubitOfTreesAndRandomGraphsWithinTwiceNSquared) {
           graph.push_back({std::min(a, b), std::max(a, b)});
       }
       for (const auto& [name, edges] : {std::pair{std::string("tree"), tree}, std::pair{std::string("graph"), graph}}) {
-        const Device dev = from_edges(name + "-" + std::to_string(n) + "-" + std::to_string(seed), n, edges);
+        const Device dev = testing::device_from_edges(name + "-" + std::to_string(n) + "-" + std::to_string(seed), n, edges);
         const double ratio = plan_every_qubit(dev, Objective::cx, "auto");
         EXPECT_LE(ratio, 2.0) << dev.name();
         EXPECT_GE(ratio, 0.5) << dev.name();
@@ -232,7 +224,7 @@ TEST(Spine, TwoHopQubitsOfATreeMatchFftw) {
   // A spider: legs of 3, 3 and 2 qubits from qubit 0 (9 qubits; longest chain 7). The two qubits of
   // the short leg not on the spine include one two hops away from it, reached by a detour along two
   // couplers. Every column of the planned unitary is compared with FFTW's.
-  const Device dev = from_edges("spider", 9, {{0, 1}, {1, 2}, {2, 3}, {0, 4}, {4, 5}, {5, 6}, {0, 7}, {7, 8}});
+  const Device dev = testing::device_from_edges("spider", 9, {{0, 1}, {1, 2}, {2, 3}, {0, 4}, {4, 5}, {5, 6}, {0, 7}, {7, 8}});
   const SpineLayout layout = make_spine_layout(dev, 9, 1);
   std::size_t longest = 0;
   for (const Detour& d : layout.detours) longest = std::max(longest, d.via.size());

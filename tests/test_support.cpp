@@ -63,6 +63,14 @@ RunResult run_qftplan_counting_clock(const std::string& args, double tick_second
   return run_with_prefix("QFTPLAN_TEST_CLOCK_TICK=" + std::to_string(tick_seconds) + " ", args);
 }
 
+Device device_from_edges(const std::string& name, int qubits, const std::vector<std::pair<int, int>>& edges) {
+  DeviceDescription d;
+  d.name = name;
+  d.qubits = qubits;
+  for (const auto& [a, b] : edges) d.couplers.push_back({std::min(a, b), std::max(a, b), {}, {}});
+  return Device(std::move(d));
+}
+
 Device make_defective_chip(const std::string& spec, int dead_qubits, int broken_couplers, std::uint64_t seed,
                            bool largest_component) {
   return with_defects(make_lattice(spec), dead_qubits, broken_couplers, seed, largest_component);

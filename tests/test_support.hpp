@@ -33,6 +33,9 @@ std::string read_file(const std::filesystem::path& path);
 
 namespace qftplan::testing {
 
+/// A device named `name` with `qubits` qubits and the given couplers (no positions, no calibration).
+Device device_from_edges(const std::string& name, int qubits, const std::vector<std::pair<int, int>>& edges);
+
 /// A defective chip as real files describe them: the built-in lattice `spec` with `dead_qubits` qubits
 /// and `broken_couplers` couplers removed at random (seeded), the remaining qubits renumbered in a
 /// random order, no positions and no calibration. With `largest_component`, only the largest connected
