@@ -294,6 +294,45 @@ TEST(SurveyNetworkRefusals, AnUnknownNetworkStopsTheSurveyBeforeAnyRun) {
   EXPECT_EQ(r.out, "");
 }
 
+// The block construction in a survey (issue 19, item 5: degrees and networks in one chart): its rows
+// carry the block length the plan report gives (the degree column would say "exact": the construction
+// has no degree), the table names it, and the JSON lines read back the same; rows written before the
+// field existed read as no block construction.
+TEST(SurveyNetworkRows, BlockConstructionRowsCarryTheBlockLength) {
+  const auto dir = temp_dir();
+  const auto r = run_qftplan("survey line:24 --qubits 24 --approx 3,4 --network blockwise,auto --jobs 1 --no-timing --csv " +
+                             quoted(dir / "b.csv") + " --jsonl " + quoted(dir / "b.jsonl"));
+  ASSERT_EQ(r.status, 0) << r.err;
+  const auto rs = csv_records(read_file(dir / "b.csv"));
+  ASSERT_EQ(rs.size(), 4u);
+  for (const auto& row : rs) {
+    SCOPED_TRACE(row.at("asked_network") + " " + row.at("asked_approx"));
+    ASSERT_EQ(row.at("status"), "ok");
+    const auto p = run_qftplan("plan --device line:24 --qubits 24 --approx " + row.at("asked_approx") + " --network " +
+                               row.at("asked_network") + " --report -");
+    ASSERT_EQ(p.status, 0) << p.err;
+    const auto rep = nlohmann::json::parse(p.out);
+    EXPECT_EQ(rep.at("block_length").is_null() ? "" : std::to_string(rep.at("block_length").get<int>()),
+              row.at("block_length"));
+    if (row.at("asked_network") == "blockwise") {
+      EXPECT_EQ(row.at("block_length"), row.at("asked_approx"));
+      EXPECT_EQ(row.at("approx_degree"), "");
+    } else {
+      EXPECT_EQ(row.at("block_length"), "");
+    }
+  }
+  EXPECT_NE(r.out.find("blocks of 3"), std::string::npos) << r.out;
+  EXPECT_NE(r.out.find("blocks of 4"), std::string::npos) << r.out;
+  const auto back = parse_survey_jsonl(read_file(dir / "b.jsonl"), "b.jsonl");
+  ASSERT_EQ(back.size(), 4u);
+  EXPECT_EQ(back[0].block_length, std::optional<int>(3));
+  EXPECT_FALSE(back[2].block_length.has_value());
+  auto j = survey_row_to_json(back[0], SurveyTiming::omit);
+  j.erase("block_length");
+  EXPECT_FALSE(parse_survey_jsonl(j.dump() + "\n", "old.jsonl").at(0).block_length.has_value());
+  std::filesystem::remove_all(dir);
+}
+
 // Rows written before surveys took --network have no asked_network: they asked for auto, and merge
 // reads them so.
 TEST(SurveyNetworkRows, OlderRowsReadAsAuto) {

@@ -45,7 +45,7 @@ nlohmann::ordered_json optional_json(const std::optional<T>& v) {
 
 std::vector<std::string> survey_csv_columns(SurveyTiming timing) {
   std::vector<std::string> c = {"index", "series", "device", "device_qubits", "qubits", "asked_strategy", "asked_approx",
-                                "inverse", "status", "strategy", "asked_network", "network", "approx_degree", "swaps", "blocks",
+                                "inverse", "status", "strategy", "asked_network", "network", "approx_degree", "block_length", "swaps", "blocks",
                                 "rotations", "depth_2q", "cx_count", "cx_depth", "esp", "log_esp",
                                 "esp_total", "log_esp_total", "duration_ns",
                                 "lower_bound_blocks", "lower_bound_depth_2q", "blocks_ratio", "depth_2q_ratio"};
@@ -79,6 +79,7 @@ std::string survey_csv(const std::vector<SurveyRow>& rows, SurveyTiming timing) 
     f.push_back(r.network);
     const auto when_ok = [&](long long v) { return r.ok ? std::to_string(v) : std::string(); };
     f.push_back(optional_text(r.approx_degree));
+    f.push_back(optional_text(r.block_length));
     f.push_back(when_ok(r.swaps));
     f.push_back(when_ok(r.blocks));
     f.push_back(when_ok(r.rotations));
@@ -124,6 +125,7 @@ nlohmann::ordered_json survey_row_to_json(const SurveyRow& r, SurveyTiming timin
   j["asked_network"] = r.asked_network;
   j["network"] = r.ok ? nlohmann::ordered_json(r.network) : nlohmann::ordered_json(nullptr);
   j["approx_degree"] = optional_json(r.approx_degree);
+  j["block_length"] = optional_json(r.block_length);
   j["swaps"] = when_ok(r.swaps);
   j["blocks"] = when_ok(r.blocks);
   j["rotations"] = when_ok(r.rotations);
@@ -252,6 +254,8 @@ std::vector<SurveyRow> parse_survey_jsonl(const std::string& text, const std::st
     r.asked_network = j.contains("asked_network") ? rd.text("asked_network") : std::string("auto");
     r.network = rd.text_or_empty("network");
     r.approx_degree = rd.optional_int("approx_degree");
+    // Rows written before surveys reported the block construction have no such field.
+    r.block_length = j.contains("block_length") ? rd.optional_int("block_length") : std::nullopt;
     r.swaps = rd.integer_or_zero("swaps");
     r.blocks = rd.integer_or_zero("blocks");
     r.rotations = rd.integer_or_zero("rotations");

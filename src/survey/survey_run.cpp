@@ -68,6 +68,7 @@ SurveyRow run_survey_case(const SurveyRequest& request, const SurveyCase& c) {
     row.strategy = r.strategy;
     row.network = r.network;
     row.approx_degree = r.approx_degree;
+    row.block_length = r.block_length;
     row.swaps = r.swaps;
     row.blocks = r.two_qubit_blocks;
     row.rotations = r.rotations;

@@ -31,6 +31,7 @@ struct SurveyRow {
   std::string strategy;                 ///< strategy used (empty when failed)
   std::string network;                  ///< network or routing used (empty when failed)
   std::optional<int> approx_degree;     ///< degree planned; absent when exact
+  std::optional<int> block_length;      ///< blocks of the block construction (--network blockwise); absent otherwise
   long long swaps = 0;                  ///< SWAPs, fused ones included
   long long blocks = 0;                 ///< two-qubit blocks (a fused cp+swap is one)
   long long rotations = 0;              ///< controlled phases kept
