@@ -69,6 +69,8 @@ class StructuralChecker final : public GateSink {
   void gate(const Gate& g) override { gate(g, 0); }
   /// Checks the end state against `final_placement` and returns the verdict.
   CheckResult finish(const std::vector<int>& final_placement);
+  /// The stream's end as a sink (nothing to do: the verdict needs the final placement above).
+  using GateSink::finish;
   bool failed() const;
   /// Number of gates fed so far.
   long long gate_count() const;
