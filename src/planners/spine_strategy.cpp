@@ -33,7 +33,9 @@ PreparedPlan spine_plan(const Device& device, const PlanOptions& options, const 
 SpineLayout cheapest_line(const Device& device, const PlanOptions& options, SpineLayout layout, const QftSpec& spec) {
   if (layout.alternatives.empty()) return layout;
   const CountSettings settings = count_settings(options, options.gates.value_or(gate_set_of(device.native_2q())));
-  auto cx = [&](const SpineLayout& l) { return count_circuit(device, *spine_plan(device, options, l, spec).circuit, settings, nullptr).cx_count; };
+  auto cx = [&](const SpineLayout& l) {
+    return count_circuit(device, *spine_plan(device, options, l, spec).circuit, settings, nullptr).cx_count;
+  };
   long long best = cx(layout);
   SpineLayout candidate;
   candidate.spine = layout.spine;
