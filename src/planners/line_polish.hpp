@@ -44,7 +44,8 @@ long long line_cost(const Device& device, const LineDistances& dist, const std::
 /// qubit at the end of an uncoupled line pair and each qubit coupled to it, the run of one to three
 /// line qubits ending or starting there is moved (as it is or reversed) beside that qubit, or the
 /// stretch of line between them is reversed so that the two become line neighbours. The first
-/// improving move is kept. Returns the improved line (a permutation of `line`).
+/// improving move is kept; the moves stop after a fixed amount of work. Returns the improved line (a
+/// permutation of `line`).
 std::vector<int> polish_line(const Device& device, const LineDistances& dist, std::vector<int> line, bool fused,
                              BudgetPoll& poll);
 
