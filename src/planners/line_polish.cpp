@@ -54,9 +54,9 @@ int fusable_side(const Device& device, const LineDistances& dist, const std::vec
   return 0;
 }
 
-// The qubits after `from` on a shortest path from `from` to `to` (ending before `to`), `from` first.
-std::vector<int> shortest_via(const Device& device, const LineDistances& dist, int from, int to) {
-  std::vector<int> via{from};
+// The qubits strictly between `from` and `to` on a shortest path through line qubits, appended to `via`.
+std::vector<int> shortest_via(const Device& device, const LineDistances& dist, int from, int to,
+                              std::vector<int> via = {}) {
   for (int cur = from; dist(cur, to) > 1;) {
     for (int w : device.neighbours(cur))
       if (dist.contains(w) && dist(w, to) == dist(cur, to) - 1) {
@@ -184,19 +184,13 @@ std::vector<Detour> line_detours_by_distance(const Device& device, const LineDis
     const int a = line[p], b = line[p + 1], d = dist(a, b);
     if (d <= 1) continue;
     const int side = fused ? fusable_side(device, dist, line, p, d) : 0;
-    if (side == 1) {
-      out.push_back(Detour{a, b, shortest_via(device, dist, line[p - 1], b)});
-    } else if (side == 2) {
-      out.push_back(Detour{b, a, shortest_via(device, dist, line[p + 2], a)});
-    } else {
-      int first = -1;
-      for (int w : device.neighbours(a))
-        if (dist.contains(w) && dist(w, b) == d - 1) {
-          first = w;
-          break;
-        }
-      out.push_back(Detour{a, b, shortest_via(device, dist, first, b)});
-    }
+    // The end that steps aside first moves onto its other line neighbour, when that fuses.
+    if (side == 1)
+      out.push_back(Detour{a, b, shortest_via(device, dist, line[p - 1], b, {line[p - 1]})});
+    else if (side == 2)
+      out.push_back(Detour{b, a, shortest_via(device, dist, line[p + 2], a, {line[p + 2]})});
+    else
+      out.push_back(Detour{a, b, shortest_via(device, dist, a, b)});
   }
   return out;
 }

@@ -186,7 +186,8 @@ class RecordReader {
     if (v.is_null()) return 0;
     return integer(name);
   }
-  std::optional<int> optional_int(const char* name) const {
+  std::optional<int> optional_int(const char* name, bool may_be_missing = false) const {
+    if (may_be_missing && j_.find(name) == j_.end()) return std::nullopt;
     const auto& v = field(name, true);
     if (v.is_null()) return std::nullopt;
     return static_cast<int>(integer(name));
@@ -255,7 +256,7 @@ std::vector<SurveyRow> parse_survey_jsonl(const std::string& text, const std::st
     r.network = rd.text_or_empty("network");
     r.approx_degree = rd.optional_int("approx_degree");
     // Rows written before surveys reported the block construction have no such field.
-    r.block_length = j.contains("block_length") ? rd.optional_int("block_length") : std::nullopt;
+    r.block_length = rd.optional_int("block_length", true);
     r.swaps = rd.integer_or_zero("swaps");
     r.blocks = rd.integer_or_zero("blocks");
     r.rotations = rd.integer_or_zero("rotations");
