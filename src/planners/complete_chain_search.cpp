@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cstdint>
+#include <tuple>
 
 #include "path_bound.hpp"
 
@@ -28,28 +29,45 @@ class CompleteSearch {
     // Chains tend to end on qubits of few couplers: try those first (finds chains sooner; the
     // order does not matter for the proof).
     std::stable_sort(starts.begin(), starts.end(), [&](int a, int b) { return dev_.degree(a) < dev_.degree(b); });
-    bool stopped = false;
-    for (int s : starts) {
-      push(s);
-      const bool found = extend();
-      if (found) {
-        r.chain = path_;
-        break;
-      }
-      pop();
-      if (out_of_budget()) {
-        stopped = true;
-        break;
+    // Rounds of restarts with growing caps: the time a depth-first search takes to find a path is
+    // heavy-tailed in its first choices, so one start searched to the end can spend the whole budget
+    // while another would find the chain at once (Gomes, Selman, Kautz, "Boosting combinatorial
+    // search through randomization", AAAI 1998). Round r gives each start not yet searched to the
+    // end kFirstCap * 4^r work and breaks ties between equal Warnsdorff counts by a hash salted
+    // with r, so each round walks differently. A start whose search ends within its cap is done
+    // for good; the failure table keeps what every round proved, so a later round does not search
+    // a failed state again. The proof ("none") needs every start done.
+    std::vector<char> done(starts.size(), 0);
+    std::size_t left = starts.size();
+    for (long long cap = kFirstCap; left > 0 && !spent(); cap *= 4, ++round_) {
+      for (std::size_t i = 0; i < starts.size() && !spent(); ++i) {
+        if (done[i]) continue;
+        stop_at_ = std::min(budget_, work_ + cap);
+        push(starts[i]);
+        const bool found = extend();
+        if (found) {
+          r.chain = path_;
+          r.longest = longest_;
+          r.work = work_;
+          return r;
+        }
+        pop();
+        if (work_ <= stop_at_ && !poll_.stopped()) done[i] = 1, --left;
       }
     }
     r.longest = longest_;
     r.work = work_;
-    r.proved_none = r.chain.empty() && !stopped && !out_of_budget();
+    r.proved_none = left == 0;
     return r;
   }
 
  private:
-  bool out_of_budget() { return work_ > budget_ || poll_.stop(); }
+  // The work each start gets in the first round of restarts.
+  static constexpr long long kFirstCap = 20'000;
+
+  // The whole search's budget, and the current start's cap.
+  bool spent() { return work_ > budget_ || poll_.stop(); }
+  bool out_of_budget() { return work_ > stop_at_ || poll_.stop(); }
 
   void push(int q) {
     free_[static_cast<std::size_t>(q)] = 0;
@@ -77,11 +95,12 @@ class CompleteSearch {
     const int need = n_ - static_cast<int>(path_.size());
     const auto state = seen_.key(bound_.reached());
     if (seen_.failed(state, need)) return false;
-    std::vector<std::pair<int, int>> next;  // (free degree, qubit)
+    std::vector<std::tuple<int, std::uint64_t, int>> next;  // (free degree, tie-break, qubit)
     for (int w : dev_.neighbours(end))
-      if (free_[static_cast<std::size_t>(w)]) next.emplace_back(free_degree(w), w);
+      if (free_[static_cast<std::size_t>(w)])
+        next.emplace_back(free_degree(w), round_ == 0 ? 0 : splitmix64(static_cast<std::uint64_t>(w) * 64 + round_), w);
     std::sort(next.begin(), next.end());
-    for (const auto& [deg, w] : next) {
+    for (const auto& [deg, tie, w] : next) {
       push(w);
       if (extend()) return true;
       pop();
@@ -100,6 +119,8 @@ class CompleteSearch {
   std::vector<char> free_;
   std::vector<int> path_, longest_;
   long long work_ = 0;
+  long long stop_at_ = 0;  // work at which the current start's search stops (its cap)
+  std::uint64_t round_ = 0;
 };
 
 }  // namespace
