@@ -24,31 +24,8 @@
 namespace qftplan {
 namespace {
 
+using testing::brute_force_longest;
 using testing::make_defective_chip;
-
-// The number of qubits of the longest simple path, by plain depth-first enumeration of every simple
-// path from every start (exponential; for graphs of up to ~20 qubits). Independent of the library's
-// search: no ordering, no pruning, no bounds.
-int brute_force_longest(const Device& d) {
-  const int N = d.qubit_count();
-  std::vector<char> on(static_cast<std::size_t>(N), 0);
-  int best = 0;
-  std::function<void(int, int)> walk = [&](int v, int len) {
-    best = std::max(best, len);
-    for (int w : d.neighbours(v))
-      if (!on[static_cast<std::size_t>(w)]) {
-        on[static_cast<std::size_t>(w)] = 1;
-        walk(w, len + 1);
-        on[static_cast<std::size_t>(w)] = 0;
-      }
-  };
-  for (int s = 0; s < N; ++s) {
-    on[static_cast<std::size_t>(s)] = 1;
-    walk(s, 1);
-    on[static_cast<std::size_t>(s)] = 0;
-  }
-  return best;
-}
 
 Device graph(int n, const std::vector<std::pair<int, int>>& edges, const std::string& name) {
   DeviceDescription d;

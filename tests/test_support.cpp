@@ -6,6 +6,7 @@
 #include <atomic>
 #include <cstdlib>
 #include <fstream>
+#include <functional>
 #include <random>
 #include <sstream>
 #include <stdexcept>
@@ -74,6 +75,27 @@ Device device_from_edges(const std::string& name, int qubits, const std::vector<
 Device make_defective_chip(const std::string& spec, int dead_qubits, int broken_couplers, std::uint64_t seed,
                            bool largest_component) {
   return with_defects(make_lattice(spec), dead_qubits, broken_couplers, seed, largest_component);
+}
+
+int brute_force_longest(const Device& d) {
+  const int N = d.qubit_count();
+  std::vector<char> on(static_cast<std::size_t>(N), 0);
+  int best = 0;
+  std::function<void(int, int)> walk = [&](int v, int len) {
+    best = std::max(best, len);
+    for (int w : d.neighbours(v))
+      if (!on[static_cast<std::size_t>(w)]) {
+        on[static_cast<std::size_t>(w)] = 1;
+        walk(w, len + 1);
+        on[static_cast<std::size_t>(w)] = 0;
+      }
+  };
+  for (int s = 0; s < N; ++s) {
+    on[static_cast<std::size_t>(s)] = 1;
+    walk(s, 1);
+    on[static_cast<std::size_t>(s)] = 0;
+  }
+  return best;
 }
 
 }  // namespace qftplan::testing

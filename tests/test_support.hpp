@@ -43,4 +43,9 @@ Device device_from_edges(const std::string& name, int qubits, const std::vector<
 Device make_defective_chip(const std::string& spec, int dead_qubits, int broken_couplers, std::uint64_t seed,
                            bool largest_component = true);
 
+/// The number of qubits of the longest simple path of `d`, by plain depth-first enumeration of every
+/// simple path from every start (exponential; for graphs of up to ~20 qubits). Independent of the
+/// library's searches: no ordering, no pruning, no bounds.
+int brute_force_longest(const Device& d);
+
 }  // namespace qftplan::testing

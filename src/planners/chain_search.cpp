@@ -2,12 +2,14 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 #include <optional>
 #include <random>
 
 #include "qftplan/core/run_budget.hpp"
 #include "complete_chain_search.hpp"
 #include "path_bound.hpp"
+#include "path_stretch.hpp"
 
 namespace qftplan {
 
@@ -54,7 +56,16 @@ class Searcher {
         if (static_cast<int>(best_.size()) >= n_) break;
       }
     }
-    if (static_cast<int>(best_.size()) < n_ && searchable_qubits() <= opt_.complete_limit && !out_of_budget()) {
+    // Still short: re-route stretches of the longest path through the qubits it missed. Where the
+    // complete search follows, with a quarter of what is left (its proofs need the rest).
+    const bool complete = searchable_qubits() <= opt_.complete_limit;
+    if (static_cast<int>(best_.size()) < n_ && best_.size() >= 2 && !out_of_budget()) {
+      std::vector<int> p = best_;
+      const long long left = std::max(0LL, limit_ - work_);
+      stretch_path(dev_, p, n_, complete ? left / 4 : left, work_, poll_);
+      if (p.size() > best_.size()) best_ = std::move(p);
+    }
+    if (static_cast<int>(best_.size()) < n_ && complete && !out_of_budget()) {
       const auto c = complete_chain_search(dev_, n_, opt_.work_budget - work_, poll_);
       // (The guided pass may have spent the whole budget on a large chip: then this stops at once.)
       work_ += c.work;

@@ -29,35 +29,38 @@ class CompleteSearch {
     // Chains tend to end on qubits of few couplers: try those first (finds chains sooner; the
     // order does not matter for the proof).
     std::stable_sort(starts.begin(), starts.end(), [&](int a, int b) { return dev_.degree(a) < dev_.degree(b); });
-    // Rounds of restarts with growing caps: the time a depth-first search takes to find a path is
-    // heavy-tailed in its first choices, so one start searched to the end can spend the whole budget
-    // while another would find the chain at once (Gomes, Selman, Kautz, "Boosting combinatorial
-    // search through randomization", AAAI 1998). Round r gives each start not yet searched to the
-    // end kFirstCap * 4^r work and breaks ties between equal Warnsdorff counts by a hash salted
-    // with r, so each round walks differently. A start whose search ends within its cap is done
-    // for good; the failure table keeps what every round proved, so a later round does not search
-    // a failed state again. The proof ("none") needs every start done.
+    // Two halves. First, one deep search per start in turn (the one-by-one order finds most chains
+    // at once and settles most proofs). Then rounds of restarts with growing caps: the time a
+    // depth-first search takes to find a path is heavy-tailed in its first choices, so one start
+    // searched to the end can spend the whole budget while another would find the chain at once
+    // (Gomes, Selman, Kautz, "Boosting combinatorial search through randomization", AAAI 1998).
+    // Round r gives each start not yet searched to the end kFirstCap * 4^r work and breaks ties
+    // between equal Warnsdorff counts by a hash salted with r, so each round walks differently. A
+    // start whose search ends within its cap is done for good; the failure table keeps what every
+    // round proved, so a later round does not search a failed state again. The proof ("none")
+    // needs every start done.
     std::vector<char> done(starts.size(), 0);
     std::size_t left = starts.size();
-    for (long long cap = kFirstCap; left > 0 && !spent(); cap *= 4, ++round_) {
-      for (std::size_t i = 0; i < starts.size() && !spent(); ++i) {
-        if (done[i]) continue;
-        stop_at_ = std::min(budget_, work_ + cap);
-        push(starts[i]);
-        const bool found = extend();
-        if (found) {
-          r.chain = path_;
-          r.longest = longest_;
-          r.work = work_;
-          return r;
-        }
-        pop();
-        if (work_ <= stop_at_ && !poll_.stopped()) done[i] = 1, --left;
-      }
-    }
+    // Searches from start i until the work reaches stop_at (or the budget); true when it found the chain.
+    auto search = [&](std::size_t i, long long stop_at) {
+      stop_at_ = std::min(budget_, stop_at);
+      push(starts[i]);
+      if (extend()) return true;
+      pop();
+      if (work_ <= stop_at_ && !poll_.stopped()) done[i] = 1, --left;
+      return false;
+    };
+    bool found = false;
+    const long long half = budget_ / 2;
+    for (std::size_t i = 0; i < starts.size() && !found && work_ <= half && !spent(); ++i) found = search(i, half);
+    round_ = 1;
+    for (long long cap = kFirstCap; !found && left > 0 && !spent(); cap *= 4, ++round_)
+      for (std::size_t i = 0; i < starts.size() && !found && !spent(); ++i)
+        if (!done[i]) found = search(i, work_ + cap);
+    if (found) r.chain = path_;
     r.longest = longest_;
     r.work = work_;
-    r.proved_none = left == 0;
+    r.proved_none = !found && left == 0;
     return r;
   }
 
