@@ -56,22 +56,28 @@ class Searcher {
         if (static_cast<int>(best_.size()) >= n_) break;
       }
     }
-    // Still short: re-route stretches of the longest path through the qubits it missed. Where the
-    // complete search follows, with a quarter of what is left (its proofs need the rest).
+    // Still short: where the complete search applies, a short run of it first settles the easy
+    // cases (a chain near the greedy one, or a register the reach bound rules out at once).
     const bool complete = searchable_qubits() <= opt_.complete_limit;
-    if (static_cast<int>(best_.size()) < n_ && best_.size() >= 2 && !out_of_budget()) {
+    auto run_complete = [&](long long budget) {
+      const auto c = complete_chain_search(dev_, n_, budget, poll_);
+      work_ += c.work;
+      if (c.longest.size() > best_.size()) best_ = c.longest;
+      r.proved_none = c.proved_none;
+    };
+    if (static_cast<int>(best_.size()) < n_ && complete && !out_of_budget())
+      run_complete(std::min(kQuickComplete, opt_.work_budget - work_));
+    // Then re-route stretches of the longest path through the qubits it missed; where the complete
+    // search follows, with a quarter of what is left (its proofs need the rest).
+    if (static_cast<int>(best_.size()) < n_ && !r.proved_none && best_.size() >= 2 && !out_of_budget()) {
       std::vector<int> p = best_;
       const long long left = std::max(0LL, limit_ - work_);
       stretch_path(dev_, p, n_, complete ? left / 4 : left, work_, poll_);
       if (p.size() > best_.size()) best_ = std::move(p);
     }
-    if (static_cast<int>(best_.size()) < n_ && complete && !out_of_budget()) {
-      const auto c = complete_chain_search(dev_, n_, opt_.work_budget - work_, poll_);
-      // (The guided pass may have spent the whole budget on a large chip: then this stops at once.)
-      work_ += c.work;
-      if (c.longest.size() > best_.size()) best_ = c.longest;
-      r.proved_none = c.proved_none;
-    }
+    // (The guided pass may have spent the whole budget on a large chip: then this stops at once.)
+    if (static_cast<int>(best_.size()) < n_ && !r.proved_none && complete && !out_of_budget())
+      run_complete(opt_.work_budget - work_);
     if (static_cast<int>(best_.size()) >= n_) r.chain.assign(best_.begin(), best_.begin() + n_);
     r.longest = best_;
     r.work = work_;
@@ -248,6 +254,8 @@ class Searcher {
     return total;
   }
 
+  // Work of the short complete search run before the stretch.
+  static constexpr long long kQuickComplete = 2'000'000;
   // Starts of the guided pass (each costs a bound per step and candidate).
   static constexpr std::size_t kGuidedStarts = 3;
 
