@@ -4,30 +4,36 @@
 // Quantum Fourier Transform for Arbitrary Qubit Connectivity Graphs", arXiv:2510.09824, 2025: wire i
 // (after its Hadamard) travels through the device, meeting every unfinished wire once, and stops on a
 // qubit whose removal leaves the rest connected. Their covering paths and their bound
-// (2n^2 - 2n - 2 CNOT) are theirs; the walk below (a fixed root, a path plus a forest chosen greedily
-// per stage, fusing each first meeting with the move) and the weaker bound proved here are ours.
+// (2n^2 - 2n - 2 CNOT) are theirs; the walk below (a fixed root, a path plus a forest chosen per
+// stage, fusing each first meeting with the move, and excursions into the forest as exchanges that
+// leave a parity behind, as in the parity networks of Klaver et al., arXiv:2408.10907, 2024) and the
+// bound proved here (2n^2 - 3n, at or below theirs for every n >= 2) are ours.
 //
 // The construction. A root qubit s of the region never moves out of the register. Stage k (m wires
 // still unfinished, all on `alive` qubits, a connected set): the wire on s is declared wire k (the
 // numbering is fixed by simulation, so wire k is whichever wire the earlier walks left on s); it gets
 // its Hadamard, then walks: a path s = p0, p1, ..., pd = t of alive qubits (d >= 1) and a forest F of
 // the other alive qubits hanging from p0 .. p(d-1). At p_i it visits each forest child c: a forest
-// leaf gets cp (the wire stays); an inner forest qubit gets cp_swap (the wire steps onto c, meeting
-// c's wire), its children are visited from there, and a swap brings the wire back (c's wire returns
-// to c). Then cp_swap(p_i, p_{i+1}) meets p_{i+1}'s wire and steps on. The wire parks on t; t holds
-// no forest child, so alive minus t stays connected (the path minus t plus F is a spanning tree of
-// it), and the wire of p1 now sits on s for stage k+1. With two wires left a cp ends the job.
-// Every pair (k, j > k) meets exactly once, in stage k: after the Hadamard of k and before that of
-// j, so the circuit is the QFT (the structural checker proves each plan in the tests).
+// leaf gets cp (the wire stays); an inner forest qubit gets an exchange: with the walking wire's bit
+// w on u and c's bit x on c, cx c->u then cx u->c leave w ^ x on u and w on c; the meeting's phase
+// theta w x = theta/2 w + theta/2 x - theta/2 (w ^ x) is three rz (the one-bit terms before the
+// exchange, the parity's after it on u); c's children are visited from c (w stays plain there); then
+// cx u->c, cx c->u give x back to c and w to u. Then cp_swap(p_i, p_{i+1}) meets p_{i+1}'s wire and
+// steps on. The wire parks on t; t holds no forest child, so alive minus t stays connected (the path
+// minus t plus F is a spanning tree of it), and the wire of p1 now sits on s for stage k+1. With two
+// wires left a cp ends the job. Every pair (k, j > k) meets exactly once, in stage k: after the
+// Hadamard of k and before that of j, so the circuit is the QFT (the structural checker proves each
+// plan in the tests, and simulation against FFTW the small ones).
 //
-// The bound (ours). Stage cost, cp = 2 CX, swap = cp_swap = 3 CX: 3d + 2 per forest leaf + 6 per
-// inner forest qubit. With m >= 3 alive: if F is empty the cost is 3(m-1); else F has at least one
-// leaf, so the cost is at most 3d + 6(m-1-d) - 4 <= 6m - 13 (d >= 1). So a stage costs at most 6 at
-// m = 3 and at most 6m - 13 for m >= 4 (3(m-1) <= 6m - 13 there), and the last pair costs 2:
-// total <= 2 + 6 + sum_{m=4..n} (6m - 13) = 3n^2 - 10n + 11 for n >= 3. Dropped rotations (the
-// approximate QFT) only turn a cp into nothing and a cp_swap into a swap, which costs no more.
-// On chips the greedy path takes most qubits and the forest is mostly leaves, so plans land far
-// below this bound (README "Strategies" has the figures).
+// The bound (ours). Stage cost, cp = 2 CX, cp_swap = 3 CX, exchange and its undoing 2 CX each: 3 per
+// path step, 2 per forest leaf, 4 per inner forest qubit. With d path steps, L leaves and I inner
+// qubits, d + L + I = m - 1 and the cost is 3d + 2L + 4I = 4(m - 1) - d - 2L <= 4m - 5, since d >= 1.
+// The last pair costs 2. Total <= 2 + sum_{m=3..n} (4m - 5) = 2n^2 - 3n for n >= 2. Dropped
+// rotations (the approximate QFT) only turn a cp into nothing, a cp_swap into a swap (3 CX) and an
+// exchange into one without its rz: no step costs more. The stage keeps the cheapest of a few
+// candidate walks, so the bound holds whichever wins. On chips the greedy path takes most qubits and
+// the forest is mostly leaves, so plans land far below this bound (README "Strategies" has the
+// figures).
 
 #include "cover_walk.hpp"
 
@@ -51,6 +57,7 @@ struct Step {
   GateKind kind;
   int a, b;
   int token, partner;
+  bool back = false;  // a parity_step that undoes the exchange into a forest qubit
 };
 
 // A stage's walk: the path and the forest parent's children (by physical qubit).
@@ -105,9 +112,11 @@ class Cascade {
   std::vector<int> pos_of_;  // slot -> physical qubit now
 
  private:
-  // Records a two-qubit step and moves the wires a swap moves.
-  void step(GateKind kind, int a, int b) {
-    steps_.push_back({kind, a, b, slot_at_[a], slot_at_[b]});
+  // Records a two-qubit step and moves the wires a swap moves (an exchange moves them as a swap
+  // for what follows: the walking wire's value is on the far qubit, the other wire's returns when
+  // the exchange is undone).
+  void step(GateKind kind, int a, int b, bool back = false) {
+    steps_.push_back({kind, a, b, slot_at_[a], slot_at_[b], back});
     if (kind == GateKind::cp) return;
     std::swap(slot_at_[a], slot_at_[b]);
     pos_of_[slot_at_[a]] = a;
@@ -137,6 +146,46 @@ class Cascade {
       mark_[best] = stamp_;
       path.push_back(best);
     }
+  }
+
+  // A shortest path from the root to an alive qubit farthest from it (ties: the one with the fewest
+  // alive neighbours, so a pendant stretch loses its tip). The farthest qubit lies on no other
+  // qubit's shortest path to the root, so removing it keeps the rest connected: it can park.
+  std::vector<int> deepest_path() {
+    ++stamp_;
+    std::vector<int> parent_of_seen, order{root_};
+    parent_.assign(parent_.size() < alive_.size() ? alive_.size() : parent_.size(), -1);
+    mark_[root_] = stamp_;
+    parent_[root_] = -1;
+    for (std::size_t h = 0; h < order.size(); ++h)
+      for (int nb : dev_.neighbours(order[h]))
+        if (alive_[nb] && mark_[nb] != stamp_) {
+          mark_[nb] = stamp_;
+          parent_[nb] = order[h];
+          order.push_back(nb);
+        }
+    // The last qubit of the breadth-first order is at the largest distance; among those at that
+    // distance, the one with the fewest alive neighbours.
+    auto alive_degree = [&](int q) {
+      int k = 0;
+      for (int nb : dev_.neighbours(q)) k += alive_[nb];
+      return k;
+    };
+    int far = order.back();
+    std::vector<int> dist_unused;
+    for (auto it = order.rbegin(); it != order.rend(); ++it) {
+      if (depth_of(*it) != depth_of(far)) break;
+      if (alive_degree(*it) < alive_degree(far)) far = *it;
+    }
+    std::vector<int> path;
+    for (int v = far; v >= 0; v = parent_[v]) path.push_back(v);
+    std::reverse(path.begin(), path.end());
+    return path;
+  }
+  int depth_of(int q) const {
+    int d = 0;
+    for (int v = q; parent_[v] >= 0; v = parent_[v]) ++d;
+    return d;
   }
 
   // The forest of the alive qubits off `path`, hanging from path[0 .. d-1] by breadth-first levels;
@@ -174,20 +223,23 @@ class Cascade {
     }
     if (reached != alive_count_) return std::numeric_limits<long long>::max();
     for (int v : order)
-      if (level_[v] > 0) cost += children_[v].empty() ? 2 : 6;
+      if (level_[v] > 0) cost += children_[v].empty() ? 2 : 4;
     return cost;
   }
 
-  // Emits the visit of forest qubit c from u (the walking wire is on u).
+  // Emits the visit of forest qubit c from u (the walking wire is on u): a leaf by a controlled
+  // phase; an inner qubit by an exchange (parity_step: cx c->u, cx u->c leaves w^x on u and w on c,
+  // the meeting's phase goes on the parity), its children from c, and the exchange undone (cx u->c,
+  // cx c->u gives back x on c and w on u): 4 CX where a cp_swap and a swap back take 6.
   void visit(int c, int u) {
     if (children_[c].empty()) {
       step(GateKind::cp, u, c);
       return;
     }
-    step(GateKind::cp_swap, u, c);
+    step(GateKind::parity_step, u, c);
     const std::vector<int> kids = children_[c];
     for (int g : kids) visit(g, c);
-    step(GateKind::swap, c, u);
+    step(GateKind::parity_step, c, u, true);
   }
 
   // One stage with m >= 3 alive qubits: the cheapest of a few candidate walks (the last stage's path
@@ -199,6 +251,7 @@ class Cascade {
     if (previous.size() >= 3) candidates.push_back(greedy_path({previous.begin(), previous.end() - 1}, false));
     candidates.push_back(greedy_path({root_}, false));
     for (int r = 0; r < 2; ++r) candidates.push_back(greedy_path({root_}, true));
+    candidates.push_back(deepest_path());
     std::size_t best = 0;
     long long best_cost = std::numeric_limits<long long>::max();
     for (std::size_t i = 0; i < candidates.size(); ++i) {
@@ -224,7 +277,7 @@ class Cascade {
   std::mt19937_64 rng_;
   const RunBudget* budget_;
   std::vector<char> alive_;
-  std::vector<int> slot_at_, level_, mark_, touched_;
+  std::vector<int> slot_at_, level_, mark_, touched_, parent_;
   std::vector<std::vector<int>> children_;
   int stamp_ = 0;
   long long alive_count_ = 0;
@@ -282,9 +335,28 @@ RoutedCircuit build_cover_qft(const Device& device, const QftSpec& spec, const s
       cx += 3;
       continue;
     }
+    if (s.kind == GateKind::parity_step && s.back) {
+      c.gates.push_back(make_gate(GateKind::parity_step, s.a, s.b));
+      cx += 2;
+      continue;
+    }
     // The walking wire has the lower number: its partner is unfinished.
     const int dist = cascade.wire_of_slot_[s.partner] - cascade.wire_of_slot_[s.token];
     const bool kept = dist <= max_dist;
+    if (s.kind == GateKind::parity_step) {
+      // The meeting's phase theta w x = theta/2 w + theta/2 x - theta/2 (w ^ x): the one-bit terms
+      // on b (x) and a (w) before the exchange, the parity's on a after it.
+      if (kept) {
+        const Angle half = spec.rotation(dist).half();
+        c.gates.push_back(make_gate(GateKind::rz, s.b, -1, half));
+        c.gates.push_back(make_gate(GateKind::rz, s.a, -1, half));
+        c.gates.push_back(make_gate(GateKind::parity_step, s.a, s.b, -half));
+      } else {
+        c.gates.push_back(make_gate(GateKind::parity_step, s.a, s.b));
+      }
+      cx += 2;
+      continue;
+    }
     if (s.kind == GateKind::cp) {
       if (kept) c.gates.push_back(make_gate(GateKind::cp, s.a, s.b, spec.rotation(dist))), cx += 2;
     } else {
@@ -304,8 +376,19 @@ RoutedCircuit build_cover_qft(const Device& device, const QftSpec& spec, const s
   }
   if (spec.inverse) {
     // The inverse: the forward circuit backwards with negated angles (rotation() already negated
-    // them), so only the order and the maps turn around.
-    std::reverse(c.gates.begin(), c.gates.end());
+    // them), so the order and the maps turn around; an exchange parity_step(a, b, t) (cx b->a,
+    // cx a->b, rz(t) a) turns into rz(t) a then parity_step(b, a, 0), its inverse with t negated.
+    std::vector<Gate> backwards;
+    backwards.reserve(c.gates.size());
+    for (auto it = c.gates.rbegin(); it != c.gates.rend(); ++it) {
+      if (it->kind != GateKind::parity_step) {
+        backwards.push_back(*it);
+        continue;
+      }
+      if (!it->angle.is_zero()) backwards.push_back(make_gate(GateKind::rz, it->q0, -1, it->angle));
+      backwards.push_back(make_gate(GateKind::parity_step, it->q1, it->q0));
+    }
+    c.gates = std::move(backwards);
     std::swap(c.maps.placement, c.maps.final_placement);
   }
   if (cx_cost) *cx_cost = cx;
@@ -314,9 +397,8 @@ RoutedCircuit build_cover_qft(const Device& device, const QftSpec& spec, const s
 
 long long cover_cx_bound(int n) {
   if (n <= 1) return 0;
-  if (n == 2) return 2;
   const long long m = n;
-  return 3 * m * m - 10 * m + 11;
+  return 2 * m * m - 3 * m;
 }
 
 }  // namespace qftplan

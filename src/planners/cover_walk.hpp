@@ -25,12 +25,12 @@ CoverRegion cover_region(const Device& device, int n, std::uint64_t seed, const 
 
 /// The forward-or-inverse QFT of `spec` on `region` with every walk starting at `root` (a region
 /// qubit); `seed` varies the tie-breaking of the walks. `cx_cost` receives the CX count of the
-/// construction (cp 2, swap 3, cp_swap 3).
+/// construction (cp 2, swap 3, cp_swap 3, parity_step 2).
 RoutedCircuit build_cover_qft(const Device& device, const QftSpec& spec, const std::vector<int>& region, int root,
                               std::uint64_t seed, const RunBudget* budget, long long* cx_cost);
 
 /// The proved bound on the CX count of build_cover_qft for an n-qubit register (cp = 2 CX,
-/// swap = cp_swap = 3 CX): 0 for n <= 1, 2 for n = 2, 3n^2 - 10n + 11 for n >= 3.
+/// cp_swap = 3 CX, parity_step = 2 CX): 0 for n <= 1, 2n^2 - 3n for n >= 2.
 long long cover_cx_bound(int n);
 
 }  // namespace qftplan
