@@ -88,8 +88,9 @@ struct CompleteSearchResult {
 
 /// Depth-first search from every start qubit, extending one end in order of fewest free neighbours
 /// (Warnsdorff's rule) and cutting a branch when PathBound shows that the qubits still reachable from
-/// the path's end cannot make up n. Stops after `work_budget` inspections or when `poll` says so;
-/// `proved_none` only when it ran to the end. Deterministic.
+/// the path's end cannot make up n: half the budget one start after another, the rest in rounds of
+/// restarts with growing caps (complete_chain_search.cpp). Stops after `work_budget` inspections or
+/// when `poll` says so; `proved_none` only when every start was searched to its end. Deterministic.
 CompleteSearchResult complete_chain_search(const Device& device, int n, long long work_budget, BudgetPoll& poll);
 
 }  // namespace qftplan

@@ -76,6 +76,8 @@ class Cascade {
     level_.assign(N, -1);
     children_.assign(N, {});
     mark_.assign(N, 0);
+    parent_.assign(N, -1);
+    depth_.assign(N, 0);
     for (int s = 0; s < static_cast<int>(region.size()); ++s) {
       alive_[region[s]] = 1;
       slot_at_[region[s]] = s;
@@ -153,45 +155,37 @@ class Cascade {
   // qubit's shortest path to the root, so removing it keeps the rest connected: it can park.
   std::vector<int> deepest_path() {
     ++stamp_;
-    std::vector<int> parent_of_seen, order{root_};
-    parent_.assign(parent_.size() < alive_.size() ? alive_.size() : parent_.size(), -1);
+    std::vector<int> order{root_};
     mark_[root_] = stamp_;
     parent_[root_] = -1;
+    depth_[root_] = 0;
     for (std::size_t h = 0; h < order.size(); ++h)
       for (int nb : dev_.neighbours(order[h]))
         if (alive_[nb] && mark_[nb] != stamp_) {
           mark_[nb] = stamp_;
           parent_[nb] = order[h];
+          depth_[nb] = depth_[order[h]] + 1;
           order.push_back(nb);
         }
-    // The last qubit of the breadth-first order is at the largest distance; among those at that
-    // distance, the one with the fewest alive neighbours.
     auto alive_degree = [&](int q) {
       int k = 0;
       for (int nb : dev_.neighbours(q)) k += alive_[nb];
       return k;
     };
+    // The breadth-first order ends with the farthest level.
     int far = order.back();
-    std::vector<int> dist_unused;
-    for (auto it = order.rbegin(); it != order.rend(); ++it) {
-      if (depth_of(*it) != depth_of(far)) break;
+    for (auto it = order.rbegin(); it != order.rend() && depth_[*it] == depth_[far]; ++it)
       if (alive_degree(*it) < alive_degree(far)) far = *it;
-    }
     std::vector<int> path;
     for (int v = far; v >= 0; v = parent_[v]) path.push_back(v);
     std::reverse(path.begin(), path.end());
     return path;
   }
-  int depth_of(int q) const {
-    int d = 0;
-    for (int v = q; parent_[v] >= 0; v = parent_[v]) ++d;
-    return d;
-  }
 
   // The forest of the alive qubits off `path`, hanging from path[0 .. d-1] by breadth-first levels;
   // a qubit two or more levels out prefers a parent that already has children (fewer inner qubits,
-  // each of which costs a return swap). Returns the stage's CX cost, or max() when some qubit is
-  // reachable only through the path's end (then the end cannot park).
+  // each of which costs an exchange and its undoing). Returns the stage's CX cost, or max() when
+  // some qubit is reachable only through the path's end (then the end cannot park).
   long long build_forest(const std::vector<int>& path) {
     for (int q : touched_) children_[q].clear(), level_[q] = -1;
     touched_.clear();
@@ -277,7 +271,7 @@ class Cascade {
   std::mt19937_64 rng_;
   const RunBudget* budget_;
   std::vector<char> alive_;
-  std::vector<int> slot_at_, level_, mark_, touched_, parent_;
+  std::vector<int> slot_at_, level_, mark_, touched_, parent_, depth_;
   std::vector<std::vector<int>> children_;
   int stamp_ = 0;
   long long alive_count_ = 0;
