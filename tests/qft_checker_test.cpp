@@ -691,6 +691,7 @@ TEST(QftChecker, ParityNetworkIsProvedAndItsMutationsNeverFoolTheProof) {
     for (std::optional<int> degree : {std::optional<int>{}, std::optional<int>{1}, std::optional<int>{2}, std::optional<int>{3}})
       for (bool inverse : {false, true}) {
         const auto req = request(make_spec(n, degree, inverse), reversed(n), reversed(n));
+        SCOPED_TRACE("n=" + std::to_string(n) + " degree=" + std::to_string(degree.value_or(0)) + " inverse=" + std::to_string(inverse));
         expect_passes_both(line_device(n), parity_circuit(n, degree, inverse), req, "parity network");
       }
   std::mt19937 rng(77);

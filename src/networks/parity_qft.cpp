@@ -18,6 +18,10 @@ Angle meeting_weight(int dist, int d) {
   return dist == 1 ? rotation + Angle(-1, 0) : rotation;
 }
 
+// The last wire's Hadamard acts on its plain input bit (see `last_hadamard` below), so its meeting
+// with the wire before it carries the rotation alone: the -pi above is not there to take off.
+Angle last_meeting_weight(int d) { return 1 <= d ? Angle::pi_over_pow2(1) : Angle{}; }
+
 // Sum of c/2 over the meetings at distances 1..K that carry a weight, K = min(m, max(d, 1)), m >= 1:
 // -pi/4 + sum_{k=2..K} pi/2^(k+1) = -pi/2^(K+1) when the rotations are kept (a closed form: summing
 // term by term made the prologue and epilogue O(n^2) angle additions), the lone distance-1 weight's
@@ -73,32 +77,6 @@ QubitMaps emit_parity_qft(const QftSpec& spec, const QftNetwork& network, std::s
   Segment seg(spec.inverse, out);
   auto q = [&](const std::vector<int>& pos, int wire) { return chain[pos[wire]]; };
 
-  // The forward circuit's parts, each a function of the positions before it.
-  auto prologue = [&](const std::vector<int>& pos) {
-    // The input bits' one-bit terms: sum of c/2 over the kept meetings with earlier wires.
-    for (int b = 1; b < n; ++b) {
-      const Angle a = half_weights(b, d);
-      if (!a.is_zero()) seg.add(make_gate(GateKind::rz, q(pos, b), -1, a));
-    }
-  };
-  auto chunk = [&](std::span<const NetworkOp> ops, std::vector<int>& pos) {
-    for (const NetworkOp& op : ops) {
-      if (op.kind == Kind::h) {
-        seg.add(make_gate(GateKind::h, q(pos, op.i)));
-        // The qubit holds y_b XOR y_(b-1): rz(pi/2) on it, with -pi/2 on y_b and y_(b-1) at the
-        // end, cancels the pi y_(b-1) y_b the Hadamard made.
-        if (op.i > 0) seg.add(make_gate(GateKind::rz, q(pos, op.i), -1, Angle(1, 1)));
-        continue;
-      }
-      if (op.kind == Kind::cp) throw std::invalid_argument("the parity network has no plain controlled phases");
-      const int dist = op.j - op.i;
-      // The rz carries -c/2 on the parity y_a XOR x_b; a dropped rotation beyond distance 1 leaves the
-      // bare exchange.
-      const Angle t = -meeting_weight(dist, d).half();
-      seg.add(make_gate(GateKind::parity_step, q(pos, op.i), q(pos, op.j), t));
-      std::swap(pos[op.i], pos[op.j]);
-    }
-  };
   // rz gates carrying the sum of `terms` on qubit `qubit`, in order; a new gate starts where the
   // sum would not fit one exact angle (pi/2 + pi/2^300 has no 64-bit numerator).
   auto phases = [&](int qubit, std::initializer_list<Angle> terms) {
@@ -113,15 +91,57 @@ QubitMaps emit_parity_qft(const QftSpec& spec, const QftNetwork& network, std::s
     }
     if (!sum.is_zero()) seg.add(make_gate(GateKind::rz, qubit, -1, sum));
   };
+  // The last meeting's half weight less the usual distance-1 one (angles are kept modulo 2 pi, so the
+  // halves are taken of the weights as stored, as everywhere else).
+  const Angle last_correction = last_meeting_weight(d).half() - meeting_weight(1, d).half();
+  // The forward circuit's parts, each a function of the positions before it.
+  auto prologue = [&](const std::vector<int>& pos) {
+    // The input bits' one-bit terms: sum of c/2 over the kept meetings with earlier wires.
+    // The last wire's meeting with wire n-2 weighs last_meeting_weight: its half replaces the other's.
+    for (int b = 1; b < n; ++b) phases(q(pos, b), {half_weights(b, d), b == n - 1 ? last_correction : Angle{}});
+  };
+  auto chunk = [&](std::span<const NetworkOp> ops, std::vector<int>& pos) {
+    for (const NetworkOp& op : ops) {
+      if (op.kind == Kind::h) {
+        if (op.i == n - 1 && n >= 2) continue;  // the epilogue's (see last_hadamard)
+        seg.add(make_gate(GateKind::h, q(pos, op.i)));
+        // The qubit holds y_b XOR y_(b-1): rz(pi/2) on it, with -pi/2 on y_b and y_(b-1) at the
+        // end, cancels the pi y_(b-1) y_b the Hadamard made.
+        if (op.i > 0) seg.add(make_gate(GateKind::rz, q(pos, op.i), -1, Angle(1, 1)));
+        continue;
+      }
+      if (op.kind == Kind::cp) throw std::invalid_argument("the parity network has no plain controlled phases");
+      const int dist = op.j - op.i;
+      // The rz carries -c/2 on the parity y_a XOR x_b; a dropped rotation beyond distance 1 leaves the
+      // bare exchange.
+      const bool last_pair = op.i == n - 2 && op.j == n - 1;
+      const Angle t = -(last_pair ? last_meeting_weight(d) : meeting_weight(dist, d)).half();
+      seg.add(make_gate(GateKind::parity_step, q(pos, op.i), q(pos, op.j), t));
+      std::swap(pos[op.i], pos[op.j]);
+    }
+  };
   auto epilogue = [&](const std::vector<int>& pos) {
     // The CX ladder: wire a holds y_a XOR y_(a-1) and its neighbour towards the chain's end y_(a-1).
-    for (int a = 1; a < n; ++a) seg.add(make_gate(GateKind::cx, q(pos, a - 1), q(pos, a)));
+    for (int a = 1; a + 1 < n; ++a) seg.add(make_gate(GateKind::cx, q(pos, a - 1), q(pos, a)));
+    // The last wire (`last_hadamard`): its qubit holds x_(n-1) XOR y_(n-2) and wire n-2's now y_(n-2),
+    // so one cx leaves the plain input bit and the Hadamard makes y_(n-1) with no cross term: no
+    // rz(pi/2) after it, no -pi/2 on y_(n-1) or y_(n-2), no pi on y_(n-2), and no -pi in the last
+    // meeting's weight. The ladder's last cx is this one, moved before the Hadamard: the last wire's
+    // qubit then needs no one-qubit layer after it (the total depth drops by two, to 5n - 4).
+    if (n >= 2) {
+      seg.add(make_gate(GateKind::cx, q(pos, n - 2), q(pos, n - 1)));
+      seg.add(make_gate(GateKind::h, q(pos, n - 1)));
+    }
     // The output bits' one-bit terms: c/2 over the kept meetings with later wires, -pi/2 as wire b
-    // and -pi/2 as wire b-1 of the correction, and pi (= -pi) against the Hadamard's pi y_(b-1).
-    // The two pi/2 terms first: they cancel on every wire but the first and the last.
-    for (int a = 0; a < n; ++a)
-      phases(q(pos, a), {a >= 1 ? Angle(-1, 1) : Angle{}, a <= n - 2 ? Angle(1, 1) : Angle{},
-                         n - 1 - a >= 1 ? half_weights(n - 1 - a, d) : Angle{}});
+    // and -pi/2 as wire b-1 of the correction, and pi (= -pi) against the Hadamard's pi y_(b-1), for
+    // every wire b but the last. The two pi/2 terms first: they cancel on every wire but the first
+    // and the last two.
+    for (int a = 0; a < n; ++a) {
+      const bool own = a >= 1 && a <= n - 2, next = a <= n - 3;
+      // (Wire n-2's later meeting is the last one, as above.)
+      phases(q(pos, a), {own ? Angle(-1, 1) : Angle{}, next ? Angle(1, 1) : Angle{},
+                         n - 1 - a >= 1 ? half_weights(n - 1 - a, d) : Angle{}, a == n - 2 ? last_correction : Angle{}});
+    }
   };
 
   std::vector<NetworkOp> ops;

@@ -13,9 +13,13 @@
 /// the qubit holds y_b XOR y_(b-1) turns the Hadamard's phase into pi x_b y_b plus pi x_b y_(b-1)
 /// (taken off the meeting of b-1 and b), pi y_(b-1) y_b (cancelled by an rz on y_b XOR y_(b-1)) and
 /// pi y_(b-1). The one-bit terms go on x_b at the start and on y_a at the end, and a last CX ladder
-/// turns the differences y_a XOR y_(a-1) back into y_a. Cost: n(n-1)/2 parity steps and n-1 CX, that
-/// is n^2 - 1 CX for the exact QFT of n qubits (the fused network needs 3 n(n-1)/2), in 2n-1 block
-/// layers; the final placement is the reversal network's.
+/// turns the differences y_a XOR y_(a-1) back into y_a. The last wire is the exception: the ladder
+/// reaches wire n-2 before the last Hadamard, so the ladder's last cx (from y_(n-2) onto
+/// x_(n-1) XOR y_(n-2)) goes before that Hadamard, which then meets the plain x_(n-1): no cross terms,
+/// so the last meeting carries its rotation alone and nothing follows the Hadamard (total depth
+/// 5n - 4). Cost: n(n-1)/2 parity steps and n-1 CX, that is n^2 - 1 CX for the exact QFT of n qubits
+/// (the fused network needs 3 n(n-1)/2), in 2n-1 block layers; the final placement is the reversal
+/// network's.
 
 #include <span>
 
