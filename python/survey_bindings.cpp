@@ -22,7 +22,10 @@ namespace {
 std::string joined(const py::object& v, const std::function<std::string(const py::object&)>& item) {
   if (py::isinstance<py::str>(v) || !py::isinstance<py::sequence>(v)) return item(v);
   std::string out;
-  for (const auto& x : v) out += (out.empty() ? "" : ",") + item(py::reinterpret_borrow<py::object>(x));
+  for (const auto& x : v) {
+    if (!out.empty()) out += ',';
+    out += item(py::reinterpret_borrow<py::object>(x));
+  }
   return out;
 }
 

@@ -73,6 +73,8 @@ void check_cover(const Device& dev, int n, bool inverse = false, std::optional<i
     checker.gate(g);
   }
   const CheckResult verdict = checker.finish(plan.maps.final_placement);
+  // Every kept rotation once, those inside exchanges included (found by the plan fuzzer).
+  EXPECT_EQ(r.rotations, plan.spec.kept_rotations());
   EXPECT_TRUE(verdict.ok) << verdict.message;
   if (end == EndOrder::same) EXPECT_EQ(plan.maps.placement, plan.maps.final_placement);
   if (end == EndOrder::free) {

@@ -341,6 +341,7 @@ RoutedCircuit build_cover_qft(const Device& device, const QftSpec& spec, const s
       // The meeting's phase theta w x = theta/2 w + theta/2 x - theta/2 (w ^ x): the one-bit terms
       // on b (x) and a (w) before the exchange, the parity's on a after it.
       if (kept) {
+        ++c.exchange_rotations;
         const Angle half = spec.rotation(dist).half();
         c.gates.push_back(make_gate(GateKind::rz, s.b, -1, half));
         c.gates.push_back(make_gate(GateKind::rz, s.a, -1, half));

@@ -44,15 +44,23 @@ class GateListCircuit final : public PlannedCircuit {
   GateListCircuit(const QftSpec& spec, RoutedCircuit c, std::string network)
       : PlannedCircuit(spec, std::move(c.maps), std::move(c.region), {}),
         gates_(std::move(c.gates)),
-        network_(std::move(network)) {}
+        network_(std::move(network)),
+        exchange_rotations_(c.exchange_rotations) {}
 
   std::string network_name() const override { return network_; }
   bool region_is_line() const override { return false; }
+  std::optional<long long> rotations_inside_gates() const override {
+    if (exchange_rotations_ == 0) return std::nullopt;
+    long long fused = 0;
+    for (const Gate& g : gates_) fused += g.kind == GateKind::cp || g.kind == GateKind::cp_swap;
+    return fused + exchange_rotations_;
+  }
   void emit(GateSink& sink) const override { sink.batch(gates_); }
 
  private:
   std::vector<Gate> gates_;
   std::string network_;
+  long long exchange_rotations_;
 };
 
 // The semi-classical measured transform: one qubit at a time, measured as soon as it is done, the

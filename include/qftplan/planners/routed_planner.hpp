@@ -29,6 +29,9 @@ struct RoutedCircuit {
   std::vector<Gate> gates;
   QubitMaps maps;
   std::vector<int> region;          ///< physical qubits holding the register at the start
+  /// Kept rotations done inside exchanges (parity_step with its phase split over rz gates: the cover
+  /// strategy's forest visits), which a count of cp and cp_swap gates does not see.
+  long long exchange_rotations = 0;
 };
 
 /// Routes the QFT of `spec` on `device`. The register starts on a connected region grown around the
