@@ -18,7 +18,7 @@ Angle meeting_weight(int dist, int d) {
   return dist == 1 ? rotation + Angle(-1, 0) : rotation;
 }
 
-// The last wire's Hadamard acts on its plain input bit (see `last_hadamard` below), so its meeting
+// The last wire's Hadamard acts on its plain input bit (see the epilogue), so its meeting
 // with the wire before it carries the rotation alone: the -pi above is not there to take off.
 Angle last_meeting_weight(int d) { return 1 <= d ? Angle::pi_over_pow2(1) : Angle{}; }
 
@@ -103,7 +103,7 @@ QubitMaps emit_parity_qft(const QftSpec& spec, const QftNetwork& network, std::s
   auto chunk = [&](std::span<const NetworkOp> ops, std::vector<int>& pos) {
     for (const NetworkOp& op : ops) {
       if (op.kind == Kind::h) {
-        if (op.i == n - 1 && n >= 2) continue;  // the epilogue's (see last_hadamard)
+        if (op.i == n - 1 && n >= 2) continue;  // the epilogue's (see there)
         seg.add(make_gate(GateKind::h, q(pos, op.i)));
         // The qubit holds y_b XOR y_(b-1): rz(pi/2) on it, with -pi/2 on y_b and y_(b-1) at the
         // end, cancels the pi y_(b-1) y_b the Hadamard made.
@@ -123,7 +123,7 @@ QubitMaps emit_parity_qft(const QftSpec& spec, const QftNetwork& network, std::s
   auto epilogue = [&](const std::vector<int>& pos) {
     // The CX ladder: wire a holds y_a XOR y_(a-1) and its neighbour towards the chain's end y_(a-1).
     for (int a = 1; a + 1 < n; ++a) seg.add(make_gate(GateKind::cx, q(pos, a - 1), q(pos, a)));
-    // The last wire (`last_hadamard`): its qubit holds x_(n-1) XOR y_(n-2) and wire n-2's now y_(n-2),
+    // The last wire: its qubit holds x_(n-1) XOR y_(n-2) and wire n-2's now y_(n-2),
     // so one cx leaves the plain input bit and the Hadamard makes y_(n-1) with no cross term: no
     // rz(pi/2) after it, no -pi/2 on y_(n-1) or y_(n-2), no pi on y_(n-2), and no -pi in the last
     // meeting's weight. The ladder's last cx is this one, moved before the Hadamard: the last wire's
