@@ -57,7 +57,8 @@ class Searcher {
     }
     // Still short: where the complete search applies, a short run of it first settles the easy
     // cases (a chain near the greedy one, or a register the reach bound rules out at once).
-    const bool complete = searchable_qubits() <= opt_.complete_limit;
+    // (Counting the searchable qubits walks the components: only when the chain is still short.)
+    const bool complete = static_cast<int>(best_.size()) < n_ && searchable_qubits() <= opt_.complete_limit;
     auto run_complete = [&](long long budget) {
       const auto c = complete_chain_search(dev_, n_, budget, poll_);
       work_ += c.work;

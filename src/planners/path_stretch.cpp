@@ -95,13 +95,9 @@ class Stretcher {
     if (work_ > cap_ || spent()) return;
     const int end = route_.back();
     const int inner = static_cast<int>(route_.size()) - 1;
-    if (inner > have_ && inner > static_cast<int>(best_.size()) - 1) {
-      if (goal_ < 0) {
-        best_ = route_;
-      } else if (route_.size() > 1 && dev_.coupled(end, goal_)) {
-        best_ = route_;
-      }
-    }
+    // (inner > have_ >= 0: the route has left path[i], so its end is not path[i] itself.)
+    if (inner > have_ && inner > static_cast<int>(best_.size()) - 1 && (goal_ < 0 || dev_.coupled(end, goal_)))
+      best_ = route_;
     std::vector<std::pair<int, int>> next;
     for (int w : dev_.neighbours(end))
       if (free_[static_cast<std::size_t>(w)]) next.emplace_back(free_degree(w), w);
