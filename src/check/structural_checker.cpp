@@ -13,6 +13,56 @@
 namespace qftplan {
 
 
+namespace proof {
+
+Schedule Schedule::of(const QftSpec& spec) {
+  Schedule s;
+  const int n = spec.qubits;
+  if (n < 1) return s;
+  if (!spec.block_length) {
+    s.transforms.push_back({0, n, spec.inverse, spec.max_distance()});
+  } else {
+    // The block construction of Kahanamoku-Meyer, Blue, Bergamaschi, Gidney and Chuang (arXiv:2505.00701,
+    // 2025) as its description reads (the state-vector reference, qft_reference.cpp, follows the same
+    // text): bits cut into blocks of m from bit 0; A, the in-place transform of each pair (2i+1, 2i);
+    // B, each block of those pairs back by its inverse; C, block 0, each pair (2i+2, 2i+1), and the top
+    // block when A paired it. An in-place transform of bits [low, low + size) is the textbook circuit
+    // on them, most significant bit first: processing indices n - low - size .. n - 1 - low. The
+    // inverse transform runs the layers backwards, each inverted.
+    const int m = *spec.block_length;
+    std::vector<std::pair<int, int>> blocks;  // (low bit, size)
+    for (int low = 0; low < n; low += m) blocks.push_back({low, std::min(m, n - low)});
+    const int k = static_cast<int>(blocks.size());
+    auto on_bits = [&](int low, int size, bool inverse) { s.transforms.push_back({n - low - size, size, inverse, size - 1}); };
+    for (int b = 1; b < k; b += 2) on_bits(blocks[b - 1].first, blocks[b - 1].second + blocks[b].second, false);
+    for (int b = 1; b < k; b += 2) {
+      on_bits(blocks[b].first, blocks[b].second, true);
+      on_bits(blocks[b - 1].first, blocks[b - 1].second, true);
+    }
+    on_bits(blocks[0].first, blocks[0].second, false);
+    for (int b = 2; b < k; b += 2) on_bits(blocks[b - 1].first, blocks[b - 1].second + blocks[b].second, false);
+    if (k % 2 == 0 && k > 1) on_bits(blocks[k - 1].first, blocks[k - 1].second, false);
+    if (spec.inverse) {
+      std::reverse(s.transforms.begin(), s.transforms.end());
+      for (Transform& t : s.transforms) t.inverse = !t.inverse;
+    }
+  }
+  s.of_wire.assign(n, {});
+  s.entry.assign(s.transforms.size(), {});
+  for (int t = 0; t < static_cast<int>(s.transforms.size()); ++t) {
+    const Transform& tr = s.transforms[t];
+    for (int w = tr.first; w < tr.first + tr.size; ++w) {
+      s.entry[t].push_back(static_cast<int>(s.of_wire[w].size()));
+      s.of_wire[w].push_back(t);
+    }
+  }
+  s.generations = 0;
+  for (const auto& list : s.of_wire) s.generations = std::max(s.generations, static_cast<int>(list.size()));
+  return s;
+}
+
+}  // namespace proof
+
 StructuralChecker::Impl::Impl(const Device& dev, const QftSpec& s, std::vector<int> pl)
     : device(&dev), spec(s), n(s.qubits), d(s.max_distance()), nq(dev.qubit_count()), placement(std::move(pl)) {
   par.assign(nq, Parity{});
@@ -24,11 +74,16 @@ StructuralChecker::Impl::Impl(const Device& dev, const QftSpec& s, std::vector<i
     fail("the QFT needs at least one qubit", 0);
     return;
   }
-  occ.assign(2 * n, 0);
-  single.assign(2 * n, WideAngle{});
-  single_line.assign(2 * n, 0);
-  partners.assign(2 * n, {});
-  h_done.assign(n, 0);
+  schedule = proof::Schedule::of(spec);
+  const std::size_t variables = static_cast<std::size_t>(schedule.generations + 1) * static_cast<std::size_t>(n);
+  occ.assign(variables, 0);
+  single.assign(variables, WideAngle{});
+  single_line.assign(variables, 0);
+  partners.assign(variables, {});
+  gen.assign(n, 0);
+  cur.resize(n);
+  for (int w = 0; w < n; ++w) cur[w] = var(w, 0);
+  if (composed()) build_expected();
   h_line.assign(n, 0);
   place_inputs();
 }
@@ -88,8 +143,24 @@ std::string StructuralChecker::Impl::lqs(int w, int k) const {
 }
 
 std::string StructuralChecker::Impl::var_name(int v) const {
-  if (v < n) return "the input of " + lq(v);
-  return "output bit " + std::to_string(output_bit_of_wire(v - n));
+  const int w = wire_of(v), g = gen_of(v);
+  if (v == cur[w] && wire_done(w)) return "output bit " + std::to_string(output_bit_of_wire(w));
+  if (g == 0) return "the input of " + lq(w);
+  return "the wire of " + lq(w) + " after its block transform " + std::to_string(schedule.of_wire[w][g - 1] + 1);
+}
+
+std::string StructuralChecker::Impl::transform_name() const {
+  if (spec.block_length) return "block construction";
+  return spec.inverse ? "inverse QFT" : "QFT";
+}
+
+std::string StructuralChecker::Impl::in_transform(int t) const {
+  if (!composed()) return {};
+  const proof::Transform& tr = schedule.transforms[t];
+  const int a = logical_of_wire(tr.first), b = logical_of_wire(tr.first + tr.size - 1);
+  return ", in block transform " + std::to_string(t + 1) + " of " + std::to_string(schedule.transforms.size()) +
+         " (the " + (tr.inverse ? "inverse QFT" : "QFT") + " of logical qubits " + std::to_string(std::min(a, b)) +
+         ".." + std::to_string(std::max(a, b)) + ")";
 }
 
 std::string StructuralChecker::Impl::describe(const Parity& p) const {
@@ -191,7 +262,19 @@ bool StructuralChecker::Impl::acts_trivially(const Gate& g) const {
 // The qubit holds the input of a wire alone and that wire has not had its Hadamard: the one place
 // where the QFT's Hadamard of the wire can act.
 bool StructuralChecker::Impl::awaits_hadamard(int q) const {
-  return par[q].size == 1 && par[q].v[0] < n && !h_done[par[q].v[0]];
+  if (par[q].size != 1) return false;
+  const int v = par[q].v[0], w = wire_of(v);
+  return !wire_done(w) && v == cur[w];
+}
+
+// A cz with no H in either frame may be the wire's Hadamard merged with a sandwich's first h (feed_cz)
+// on a qubit that awaits it. In a composition of transforms the wire's Hadamard can only be here when
+// the terms it closes are all in place (in an inverse transform the wire meets its partners before its
+// Hadamard, so a cz on it is often a phase); the textbook transform keeps the plain rule.
+bool StructuralChecker::Impl::hadamard_may_merge(int q) {
+  if (!awaits_hadamard(q)) return false;
+  if (!composed()) return true;
+  return closes(par[q].v[0], false);
 }
 
 // Of two qubits, the one whose Hadamard is due first: a qubit awaiting its wire's Hadamard before
@@ -201,7 +284,13 @@ bool StructuralChecker::Impl::awaits_hadamard(int q) const {
 int StructuralChecker::Impl::hadamard_due(int a, int b) const {
   const bool wa = awaits_hadamard(a), wb = awaits_hadamard(b);
   if (wa != wb) return wa ? a : b;
-  if (wa) return (par[a].v[0] < par[b].v[0]) != spec.inverse ? a : b;
+  if (wa) {
+    // The earlier transform first; within one, the transform's order.
+    const int va = wire_of(par[a].v[0]), vb = wire_of(par[b].v[0]);
+    const int ta = due_transform(va), tb = due_transform(vb);
+    if (ta != tb) return ta < tb ? a : b;
+    return (va < vb) != schedule.transforms[ta].inverse ? a : b;
+  }
   return pend_h_line[a] <= pend_h_line[b] ? a : b;
 }
 
@@ -216,8 +305,9 @@ void StructuralChecker::Impl::feed_cz(int a, int b, int line) {
   if (pend_h[a] && pend_h[b]) release(hadamard_due(a, b));
   if (pend_h[b]) return apply(Gate{GateKind::cx, a, b, Angle{}}, line);
   if (pend_h[a]) return apply(Gate{GateKind::cx, b, a, Angle{}}, line);
-  if (awaits_hadamard(a) || awaits_hadamard(b)) {
-    const int t = hadamard_due(a, b), c = t == a ? b : a;
+  if (hadamard_may_merge(a) || hadamard_may_merge(b)) {
+    const int t = hadamard_may_merge(a) && hadamard_may_merge(b) ? hadamard_due(a, b) : hadamard_may_merge(a) ? a : b;
+    const int c = t == a ? b : a;
     apply(Gate{GateKind::h, t, -1, Angle{}}, line);
     if (failed) return;
     pend_h[t] = 1;
@@ -261,6 +351,11 @@ CheckResult StructuralChecker::Impl::finish(const std::vector<int>& final_placem
   r.structural_proved = true;
   std::string kind = spec.inverse ? "inverse QFT" : "QFT";
   std::string degree = spec.effectively_exact() ? "exact" : "approximate, degree " + std::to_string(*spec.approx_degree);
+  if (spec.block_length) {
+    kind = std::string(spec.inverse ? "inverse " : "") + "block construction";
+    degree = "blocks of " + std::to_string(*spec.block_length) + ", " + std::to_string(schedule.transforms.size()) +
+             " block transforms";
+  }
   r.message = "structural proof: the circuit is the " + kind + " on " + std::to_string(n) + " qubits (" + degree +
               "), " + std::to_string(terms_checked) + " controlled phases checked over " + std::to_string(gates) +
               " gates";
@@ -272,20 +367,45 @@ CheckResult StructuralChecker::Impl::finish(const std::vector<int>& final_placem
 void StructuralChecker::Impl::final_checks(const std::vector<int>& fp) {
   // Fewer Hadamards than wires, all followed exactly: for the input |0> the output is spread over
   // at most 2^(Hadamards) basis states, the QFT's over all 2^n. Certain.
+  // Pairs of Hadamards an optimiser removed at the end of a wire (structural_compose.cpp).
+  // A fusion can make another wire's pair fusable (the two transforms' terms on one monomial cancel).
+  for (bool again = composed(); again;) {
+    again = false;
+    for (int w = 0; w < n; ++w)
+      if (!wire_done(w) && fusable(w)) {
+        fuse(w);
+        again = true;
+      }
+  }
   for (int w = 0; w < n; ++w)
-    if (!h_done[w])
+    if (!wire_done(w)) {
+      // One Hadamard a wire, followed exactly: the argument above is certain. Composed transforms
+      // can spread the state with fewer Hadamards than they have (a transform and its inverse), so
+      // there the count alone proves nothing.
+      if (composed())
+        return cannot_prove("the wire of " + lq(w) + " gets " + std::to_string(gen[w]) + " of its " +
+                                std::to_string(schedule.of_wire[w].size()) + " Hadamards of the block construction",
+                            0);
       return fail("the wire of " + lq(w) + " never gets its Hadamard (so for the input |0> at most 2^" +
                       std::to_string(h_count) + " output amplitudes are nonzero; the QFT has 2^" + std::to_string(n) +
                       ")",
                   0);
+    }
   // A bad map is a bad request, not a finding about the circuit.
   if (const std::string e = final_placement_problem(fp); e.rfind("final_placement ", 0) == 0) return fail(e, 0);
   int term_line = suspicion_line;
-  std::string terms = suspicion.empty() ? leftover_term(term_line) : suspicion;
+  std::string terms = !suspicion.empty() ? suspicion : composed() ? composed_leftover(term_line) : leftover_term(term_line);
   const std::string place = final_placement_problem(fp);
   if (terms.empty() && place.empty()) return;
   const std::string problem = terms.empty() ? place : place.empty() ? terms : terms + "; and " + place;
   const int line = terms.empty() ? 0 : term_line;
+  // A composition of block transforms sums over the variables between them: two path sums that
+  // differ in a term may still be one operator, so a difference there refutes nothing (simulation
+  // decides where it can).
+  if (composed())
+    return cannot_prove(problem + " (in a composition of block transforms a differing term does not prove a "
+                                  "different operator)",
+                        line);
   if (const int q = non_canonical_qubit(); q >= 0)
     return cannot_prove(problem + ", but the end state is not in a form the proof can compare (qubit " +
                             std::to_string(q) + " holds " + describe(par[q]) + ")",
@@ -309,10 +429,10 @@ void StructuralChecker::Impl::final_checks(const std::vector<int>& fp) {
 
 // A term the Hadamards did not remove: a phase the QFT does not have ("" when none).
 std::string StructuralChecker::Impl::leftover_term(int& line) const {
-  for (int v = 0; v < 2 * n; ++v)
+  for (int v = 0; v < static_cast<int>(single.size()); ++v)
     if (!single[v].is_zero()) {
       line = single_line[v];
-      return "a phase of " + single_text(single[v]) + " is left on " + var_name(v) + ", which the QFT does not have" +
+      return "a phase of " + single_text(single[v]) + " is left on " + var_name(v) + ", which the " + transform_name() + " does not have" +
              at_line(single_line[v]);
     }
   // The term with the smallest key, so that the message does not depend on the table's order.
@@ -328,7 +448,7 @@ std::string StructuralChecker::Impl::leftover_term(int& line) const {
   const int a = static_cast<int>(first >> 32), b = static_cast<int>(first & 0xffffffffu);
   line = term.line;
   return "a controlled phase of " + angle_text(term.angle()) + " is left between " + var_name(a) + " and " +
-         var_name(b) + ", which the QFT does not have" + at_line(term.line);
+         var_name(b) + ", which the " + transform_name() + " does not have" + at_line(term.line);
 }
 
 // Output bit k on final_placement[k], and every other qubit back in |0> ("" when so).
@@ -341,7 +461,7 @@ std::string StructuralChecker::Impl::final_placement_problem(const std::vector<i
     if (q < 0 || q >= nq) return "final_placement names qubit " + std::to_string(q) + ", outside the device";
     if (used[q]) return "final_placement names qubit " + std::to_string(q) + " twice";
     used[q] = 1;
-    const int want = n + spec.output_wire(k);
+    const int want = cur[spec.output_wire(k)];
     const Parity& p = par[q];
     if (!(p.size == 1 && p.v[0] == want && p.c == 0))
       return "output bit " + std::to_string(k) + " should end on qubit " + std::to_string(q) + ", which holds " +
@@ -365,7 +485,7 @@ int StructuralChecker::Impl::non_canonical_qubit() const {
 // The QFT's coefficient of (input of wire a) * (output of wire b), outputs labelled by wire.
 Angle StructuralChecker::Impl::want(int a, int b) const {
   if (a == b) return Angle(1, 0);  // the Hadamard's own pi x y
-  return closing_window(a).contains(b) ? spec.rotation(std::abs(a - b)) : Angle{};
+  return window_in(0, a).contains(b) ? spec.rotation(std::abs(a - b)) : Angle{};  // one transform
 }
 
 // True when the register's final qubits hold the n outputs, each once, some inverted (NOT y), and

@@ -25,8 +25,14 @@
 // polynomial is unique mod 2 pi (Moebius inversion), and a differing coefficient is a difference
 // of the unitaries. Anything else is "lost track" (cannot prove), for simulation to decide.
 //
-// Variables: 0..n-1 are the inputs of the wires (processing index), n..2n-1 the outputs the
-// wires' Hadamards create (variable n + w for wire w).
+// Variables: 0..n-1 are the inputs of the wires (processing index); each Hadamard of wire w creates
+// the next variable of that wire, g n + w after its g-th Hadamard. The textbook transform (and its
+// approximations) gives each wire one Hadamard, so n..2n-1 are its outputs. A composition of block
+// transforms (the block construction) gives a wire one Hadamard in each transform it takes part in:
+// the schedule below says which, and at each Hadamard the rule compares the consumed variable's terms
+// with the transform that Hadamard belongs to. The composition's path sum is then matched term by
+// term, variable by variable, which proves it the same operator (the proof stays sound: two path sums
+// alike in every term are one linear map).
 
 #include <cstdint>
 #include <deque>
@@ -65,6 +71,27 @@ struct Difference {
   Angle want;
 };
 
+/// One textbook transform of a schedule: the QFT (or its inverse) of the wires first .. first+size-1 in
+/// processing order, keeping controlled phases up to distance `reach`.
+struct Transform {
+  int first = 0;
+  int size = 0;
+  bool inverse = false;
+  int reach = 0;
+};
+
+/// The transforms a circuit must be, in order, and per wire the transforms it takes part in.
+struct Schedule {
+  std::vector<Transform> transforms;
+  std::vector<std::vector<int>> of_wire;  ///< per wire: its transforms, in order
+  std::vector<std::vector<int>> entry;    ///< per transform, per member (from `first`): its wire's Hadamards before it
+  int generations = 1;                    ///< most Hadamards of a wire
+  /// The textbook transform (one transform on every wire), or the block construction's layers.
+  static Schedule of(const QftSpec& spec);
+  /// The generation of wire w on entering transform t.
+  int entry_of(int t, int w) const { return entry[t][w - transforms[t].first]; }
+};
+
 /// At most this many differences are kept for the final comparison (beyond: lost track).
 constexpr std::size_t kMaxDifferences = 1 << 16;
 
@@ -96,8 +123,10 @@ struct StructuralChecker::Impl {
   std::vector<int> single_line;
   proof::PairTable pairs;  // degree-2 monomials (pair_table.hpp)
   std::vector<std::vector<int>> partners;  // per variable: possible pair partners (may be stale)
-  std::vector<char> h_done;       // per wire
-  std::vector<int> h_line;        // per wire
+  proof::Schedule schedule;
+  std::vector<int> gen;           // per wire: its transforms passed (its Hadamards, and two per fused pair)
+  std::vector<int> cur;           // per wire: the variable it holds now
+  std::vector<int> h_line;        // per wire: the line of its last Hadamard
   std::vector<char> measured;     // per physical qubit
 
   // The Hadamard frame: an h is not applied at once but noted on its qubit (pend_h), so that the
@@ -146,12 +175,26 @@ struct StructuralChecker::Impl {
   /// Notes a difference and keeps its record for the end.
   void differ(const proof::Difference& d, std::string msg, int line);
 
+  // Variables and wires (see "Variables" above).
+  int var(int w, int g) const { return g * n + w; }
+  int wire_of(int v) const { return v % n; }
+  int gen_of(int v) const { return v / n; }
+  bool created(int v) const { return gen_of(v) <= gen[wire_of(v)]; }
+  bool wire_done(int w) const { return gen[w] == static_cast<int>(schedule.of_wire[w].size()); }
+  /// The transform whose Hadamard wire w awaits (the wire must not be done).
+  int due_transform(int w) const { return schedule.of_wire[w][gen[w]]; }
+  bool composed() const { return schedule.transforms.size() > 1; }
+
   // Names for messages. A wire is called by the logical qubit whose input bit it starts with.
   int logical_of_wire(int w) const { return spec.inverse ? w : n - 1 - w; }
   int output_bit_of_wire(int w) const { return spec.inverse ? n - 1 - w : w; }
   std::string lq(int w) const { return "logical qubit " + std::to_string(logical_of_wire(w)); }
   std::string lqs(int w, int k) const;
   std::string var_name(int v) const;
+  /// "QFT", "inverse QFT" or "block construction": what the circuit is checked against.
+  std::string transform_name() const;
+  /// Where a message concerns block transform t of a composed schedule: which one ("" otherwise).
+  std::string in_transform(int t) const;
   std::string describe(const Parity& p) const;
   static std::string at_line(int line) { return line > 0 ? " (line " + std::to_string(line) + ")" : ""; }
 
@@ -163,6 +206,7 @@ struct StructuralChecker::Impl {
   void feed(const Gate& g, int line);
   bool acts_trivially(const Gate& g) const;
   bool awaits_hadamard(int q) const;
+  bool hadamard_may_merge(int q);
   int hadamard_due(int a, int b) const;
   void feed_cz(int a, int b, int line);
   void release(int q);
@@ -189,17 +233,37 @@ struct StructuralChecker::Impl {
   void phase1(int q, const Angle& theta, int line);
   void phase2(int qa, int qb, const Angle& theta, int line);
 
+  // ----- structural_compose.cpp: composed schedules (the block construction) -----
+
+  /// The reference path sum's terms not yet met: every transform's controlled phases, between the
+  /// variable its Hadamard consumes and the outputs of the wires in its window, with fused pairs
+  /// renamed (fuse()).
+  struct Expected {
+    std::unordered_map<std::uint64_t, WideAngle> terms;
+    std::vector<std::vector<int>> partners;  // per variable (may be stale)
+  } expected;
+  void build_expected();
+  void add_expected(int a, int b, const Angle& x);
+  bool fusable(int w) const;
+  void fuse(int w);
+  void fuse_for(int v);
+  void compare_composed(int w, int v, int line);
+  bool closes(int v, bool exact);
+  std::string composed_leftover(int& line);
+
   // ----- structural_hadamard.cpp: the Hadamard rule -----
 
   /// The wires whose outputs the Hadamard on wire w must meet in a controlled phase: [lo, hi].
   struct Window {
+    int t;  // the transform
     int lo;
     int hi;
     bool contains(int k) const { return k >= lo && k <= hi; }
   };
   void hadamard(int q, int line);
-  int consumed_input(int q, const Parity& p, int line);
+  int consumed_variable(int q, const Parity& p, int line);
   Window closing_window(int w) const;
+  Window window_in(int t, int w) const;
   void check_closing_phases(int w, Window win, int line);
   void clear_terms_of(int w, Window win, int line);
   void create_output(int q, const Parity& p, int w, const int* rest, int rest_size, int line);

@@ -56,7 +56,9 @@ struct CheckResult {
 
 /// Streaming structural proof: tracks the parity (GF(2)-linear function of the input and
 /// Hadamard-output variables) held by every physical qubit and the phase polynomial in monomial
-/// form, and at every Hadamard requires exactly the controlled phases the QFT order demands.
+/// form, and at every Hadamard requires exactly the controlled phases the QFT order demands. The
+/// block construction (spec.block_length) is followed as a composition of textbook transforms, one
+/// Hadamard per wire per transform; there a difference makes the verdict cannot_prove, never wrong.
 /// Handles h, x, rz, p, cx, cz, cp, swap and cp_swap, and h-cz-h sandwiches written as cz. Its
 /// finish() returns proved, wrong (only when the proof followed the circuit exactly to the end,
 /// so that the difference it found is certain) or cannot_prove (it lost track: see inconclusive).
