@@ -10,6 +10,7 @@
 
 #include "qftplan/check/qft_checker.hpp"
 #include "qftplan/check/statevector.hpp"
+#include "block_steps.hpp"
 
 namespace qftplan {
 
@@ -84,30 +85,14 @@ void in_place(std::vector<cplx>& a, int low, int size, bool inverse) {
   }
 }
 
-// The block construction (arXiv:2505.00701) from its description, on the input value's bits: A, the
-// in-place transform of each block pair (2i+1, 2i); B, each block of those pairs back by its inverse; C,
-// block 0, each pair (2i+2, 2i+1), and the top block when A paired it; then the output bits in the order
-// of eq. 5.2 (all bits reversed). The inverse: the same backwards.
+// The block construction (arXiv:2505.00701) from its description, on the input value's bits: the
+// in-place transforms of block_construction_steps, then the output bits in the order of eq. 5.2 (all bits
+// reversed). The inverse: the same backwards.
 std::vector<cplx> block_construction(const QftSpec& spec, std::vector<cplx> a) {
-  const int n = spec.qubits, m = *spec.block_length;
-  struct Step {
-    int low, size;
-    bool inverse;
-  };
-  std::vector<std::pair<int, int>> blocks;
-  for (int low = 0; low < n; low += m) blocks.push_back({low, std::min(m, n - low)});
-  const int k = static_cast<int>(blocks.size());
-  std::vector<Step> steps;
-  for (int b = 1; b < k; b += 2) steps.push_back({blocks[b - 1].first, blocks[b - 1].second + blocks[b].second, false});
-  for (int b = 1; b < k; b += 2) {
-    steps.push_back({blocks[b].first, blocks[b].second, true});
-    steps.push_back({blocks[b - 1].first, blocks[b - 1].second, true});
-  }
-  steps.push_back({blocks[0].first, blocks[0].second, false});
-  for (int b = 2; b < k; b += 2) steps.push_back({blocks[b - 1].first, blocks[b - 1].second + blocks[b].second, false});
-  if (k % 2 == 0 && k > 1) steps.push_back({blocks[k - 1].first, blocks[k - 1].second, false});
+  const int n = spec.qubits;
+  const std::vector<BlockStep> steps = block_construction_steps(n, *spec.block_length);
   if (!spec.inverse) {
-    for (const Step& s : steps) in_place(a, s.low, s.size, s.inverse);
+    for (const BlockStep& s : steps) in_place(a, s.low, s.size, s.inverse);
     reverse_range(a, 0, n);
   } else {
     reverse_range(a, 0, n);
@@ -117,6 +102,22 @@ std::vector<cplx> block_construction(const QftSpec& spec, std::vector<cplx> a) {
 }
 
 }  // namespace
+
+std::vector<BlockStep> block_construction_steps(int n, int m) {
+  std::vector<std::pair<int, int>> blocks;  // (low bit, size)
+  for (int low = 0; low < n; low += m) blocks.push_back({low, std::min(m, n - low)});
+  const int k = static_cast<int>(blocks.size());
+  std::vector<BlockStep> steps;
+  for (int b = 1; b < k; b += 2) steps.push_back({blocks[b - 1].first, blocks[b - 1].second + blocks[b].second, false});
+  for (int b = 1; b < k; b += 2) {
+    steps.push_back({blocks[b].first, blocks[b].second, true});
+    steps.push_back({blocks[b - 1].first, blocks[b - 1].second, true});
+  }
+  steps.push_back({blocks[0].first, blocks[0].second, false});
+  for (int b = 2; b < k; b += 2) steps.push_back({blocks[b - 1].first, blocks[b - 1].second + blocks[b].second, false});
+  if (k % 2 == 0 && k > 1) steps.push_back({blocks[k - 1].first, blocks[k - 1].second, false});
+  return steps;
+}
 
 std::vector<cplx> reference_qft(const QftSpec& spec, const std::vector<cplx>& a) {
   const int n = spec.qubits;

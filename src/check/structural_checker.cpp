@@ -8,6 +8,7 @@
 #include <utility>
 #include <vector>
 
+#include "block_steps.hpp"
 #include "structural_state.hpp"
 
 namespace qftplan {
@@ -22,26 +23,11 @@ Schedule Schedule::of(const QftSpec& spec) {
   if (!spec.block_length) {
     s.transforms.push_back({0, n, spec.inverse, spec.max_distance()});
   } else {
-    // The block construction of Kahanamoku-Meyer, Blue, Bergamaschi, Gidney and Chuang (arXiv:2505.00701,
-    // 2025) as its description reads (the state-vector reference, qft_reference.cpp, follows the same
-    // text): bits cut into blocks of m from bit 0; A, the in-place transform of each pair (2i+1, 2i);
-    // B, each block of those pairs back by its inverse; C, block 0, each pair (2i+2, 2i+1), and the top
-    // block when A paired it. An in-place transform of bits [low, low + size) is the textbook circuit
-    // on them, most significant bit first: processing indices n - low - size .. n - 1 - low. The
-    // inverse transform runs the layers backwards, each inverted.
-    const int m = *spec.block_length;
-    std::vector<std::pair<int, int>> blocks;  // (low bit, size)
-    for (int low = 0; low < n; low += m) blocks.push_back({low, std::min(m, n - low)});
-    const int k = static_cast<int>(blocks.size());
-    auto on_bits = [&](int low, int size, bool inverse) { s.transforms.push_back({n - low - size, size, inverse, size - 1}); };
-    for (int b = 1; b < k; b += 2) on_bits(blocks[b - 1].first, blocks[b - 1].second + blocks[b].second, false);
-    for (int b = 1; b < k; b += 2) {
-      on_bits(blocks[b].first, blocks[b].second, true);
-      on_bits(blocks[b - 1].first, blocks[b - 1].second, true);
-    }
-    on_bits(blocks[0].first, blocks[0].second, false);
-    for (int b = 2; b < k; b += 2) on_bits(blocks[b - 1].first, blocks[b - 1].second + blocks[b].second, false);
-    if (k % 2 == 0 && k > 1) on_bits(blocks[k - 1].first, blocks[k - 1].second, false);
+    // The block construction as its description reads (block_steps.hpp). An in-place transform of bits
+    // [low, low + size) is the textbook circuit on them, most significant bit first: processing indices
+    // n - low - size .. n - 1 - low. The inverse transform runs the layers backwards, each inverted.
+    for (const BlockStep& b : block_construction_steps(n, *spec.block_length))
+      s.transforms.push_back({n - b.low - b.size, b.size, b.inverse, b.size - 1});
     if (spec.inverse) {
       std::reverse(s.transforms.begin(), s.transforms.end());
       for (Transform& t : s.transforms) t.inverse = !t.inverse;
@@ -350,11 +336,13 @@ CheckResult StructuralChecker::Impl::finish(const std::vector<int>& final_placem
   r.ok = true;
   r.structural_proved = true;
   std::string kind = spec.inverse ? "inverse QFT" : "QFT";
-  std::string degree = spec.effectively_exact() ? "exact" : "approximate, degree " + std::to_string(*spec.approx_degree);
+  std::string degree;
   if (spec.block_length) {
     kind = std::string(spec.inverse ? "inverse " : "") + "block construction";
     degree = "blocks of " + std::to_string(*spec.block_length) + ", " + std::to_string(schedule.transforms.size()) +
              " block transforms";
+  } else {
+    degree = spec.effectively_exact() ? "exact" : "approximate, degree " + std::to_string(*spec.approx_degree);
   }
   r.message = "structural proof: the circuit is the " + kind + " on " + std::to_string(n) + " qubits (" + degree +
               "), " + std::to_string(terms_checked) + " controlled phases checked over " + std::to_string(gates) +
