@@ -51,7 +51,7 @@ constexpr const char* kProved = "structural proof: the circuit is the";
 TEST(BlockwiseProof, SmallPlansAreProvedAndSimulationAgrees) {
   const Device line = make_lattice("line:10");
   int proved = 0;
-  for (int n : {4, 7, 9})
+  for (int n : {4, 6, 8})
     for (int m : {1, 2, 3})
       for (const std::string extra : {"", "--inverse", "--gates logical", "--inverse --gates logical", "--end-order same",
                                       "--inverse --end-order same", "--gates cz", "--no-peephole"}) {
@@ -71,7 +71,7 @@ TEST(BlockwiseProof, SmallPlansAreProvedAndSimulationAgrees) {
 TEST(BlockwiseProof, LargePlansAreProvedStructurally) {
   const std::string device = "heavy-hex:6x6";
   const Device dev = make_lattice(device);
-  for (const auto& [n, m] : std::vector<std::pair<int, int>>{{17, 2}, {40, 3}, {61, 4}, {100, 7}, {150, 12}, {200, 16}})
+  for (const auto& [n, m] : std::vector<std::pair<int, int>>{{17, 2}, {40, 3}, {61, 4}, {100, 7}, {200, 16}})
     for (const std::string extra : {"", "--inverse", "--gates logical --inverse", "--end-order same", "--gates cz"}) {
       const QasmProgram p = planned(device, n, m, extra);
       const auto r = check_qft_circuit(dev, p, request_of(p, true, 0));

@@ -50,7 +50,7 @@ Schedule Schedule::of(const QftSpec& spec) {
 }  // namespace proof
 
 StructuralChecker::Impl::Impl(const Device& dev, const QftSpec& s, std::vector<int> pl)
-    : device(&dev), spec(s), n(s.qubits), d(s.max_distance()), nq(dev.qubit_count()), placement(std::move(pl)) {
+    : device(&dev), spec(s), n(s.qubits), nq(dev.qubit_count()), placement(std::move(pl)) {
   par.assign(nq, Parity{});
   window_last.assign(nq, -1);
   measured.assign(nq, 0);

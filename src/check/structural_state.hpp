@@ -111,7 +111,6 @@ struct StructuralChecker::Impl {
   const Device* device;
   QftSpec spec;
   int n;
-  int d;
   int nq;  // device qubits
   std::vector<int> placement;
 
