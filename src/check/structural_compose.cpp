@@ -13,8 +13,8 @@
 // needs the second transform's output while the wire has not had the first means both are gone
 // (fuse(): the reference's variable is renamed, and terms that meet on one monomial add up).
 
+#include <cstdlib>
 #include <string>
-#include <utility>
 #include <vector>
 
 #include "structural_state.hpp"
@@ -35,12 +35,10 @@ void StructuralChecker::Impl::build_expected() {
   expected.partners.assign(occ.size(), {});
   for (int t = 0; t < static_cast<int>(schedule.transforms.size()); ++t) {
     const proof::Transform& tr = schedule.transforms[t];
-    const int last = tr.first + tr.size - 1;
-    for (int w = tr.first; w <= last; ++w) {
-      const int lo = tr.inverse ? w + 1 : std::max(tr.first, w - tr.reach);
-      const int hi = tr.inverse ? std::min(last, w + tr.reach) : w - 1;
+    for (int w = tr.first; w < tr.first + tr.size; ++w) {
+      const Window win = window_in(t, w);
       const int v = var(w, schedule.entry_of(t, w));
-      for (int k = lo; k <= hi; ++k) {
+      for (int k = win.lo; k <= win.hi; ++k) {
         const Angle magnitude = Angle::pi_over_pow2(static_cast<std::uint32_t>(std::abs(w - k)));
         add_expected(v, var(k, schedule.entry_of(t, k) + 1), tr.inverse ? -magnitude : magnitude);
       }
