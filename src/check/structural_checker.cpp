@@ -284,15 +284,17 @@ int StructuralChecker::Impl::hadamard_due(int a, int b) const {
 // cx c,t (h t; cz c,t; h t == cx c,t: the frame's H and the one still to come on t, or removed by
 // an optimiser together with a Hadamard that meets it). With H in both frames, the one due first
 // (hadamard_due) is applied, and the other qubit is the target. With none, and a qubit t awaiting
-// its wire's Hadamard, it is that Hadamard followed by cx c,t with an H left in t's frame
+// its wire's Hadamard (hadamard_may_merge: in a composition, with the terms it closes in place; of
+// two such, the one due first), it is that Hadamard followed by cx c,t with an H left in t's frame
 // (cz c,t == h t; (h t; cz c,t; h t); h t: the form left where the wire's Hadamard and the
 // sandwich's first h cancelled); otherwise it is a phase.
 void StructuralChecker::Impl::feed_cz(int a, int b, int line) {
   if (pend_h[a] && pend_h[b]) release(hadamard_due(a, b));
   if (pend_h[b]) return apply(Gate{GateKind::cx, a, b, Angle{}}, line);
   if (pend_h[a]) return apply(Gate{GateKind::cx, b, a, Angle{}}, line);
-  if (hadamard_may_merge(a) || hadamard_may_merge(b)) {
-    const int t = hadamard_may_merge(a) && hadamard_may_merge(b) ? hadamard_due(a, b) : hadamard_may_merge(a) ? a : b;
+  const bool ma = hadamard_may_merge(a), mb = hadamard_may_merge(b);
+  if (ma || mb) {
+    const int t = ma && mb ? hadamard_due(a, b) : ma ? a : b;
     const int c = t == a ? b : a;
     apply(Gate{GateKind::h, t, -1, Angle{}}, line);
     if (failed) return;
@@ -382,7 +384,7 @@ void StructuralChecker::Impl::final_checks(const std::vector<int>& fp) {
   // A bad map is a bad request, not a finding about the circuit.
   if (const std::string e = final_placement_problem(fp); e.rfind("final_placement ", 0) == 0) return fail(e, 0);
   int term_line = suspicion_line;
-  std::string terms = !suspicion.empty() ? suspicion : composed() ? composed_leftover(term_line) : leftover_term(term_line);
+  std::string terms = suspicion.empty() ? leftover_term(term_line) : suspicion;
   const std::string place = final_placement_problem(fp);
   if (terms.empty() && place.empty()) return;
   const std::string problem = terms.empty() ? place : place.empty() ? terms : terms + "; and " + place;
@@ -416,13 +418,14 @@ void StructuralChecker::Impl::final_checks(const std::vector<int>& fp) {
 }
 
 // A term the Hadamards did not remove: a phase the QFT does not have ("" when none).
-std::string StructuralChecker::Impl::leftover_term(int& line) const {
+std::string StructuralChecker::Impl::leftover_term(int& line) {
   for (int v = 0; v < static_cast<int>(single.size()); ++v)
     if (!single[v].is_zero()) {
       line = single_line[v];
       return "a phase of " + single_text(single[v]) + " is left on " + var_name(v) + ", which the " + transform_name() + " does not have" +
              at_line(single_line[v]);
     }
+  if (composed()) return composed_leftover(line);  // the reference's terms between outputs
   // The term with the smallest key, so that the message does not depend on the table's order.
   std::uint64_t first = proof::PairTable::kEmpty;
   proof::Term term;

@@ -180,17 +180,10 @@ bool StructuralChecker::Impl::closes(int v, bool exact) {
   return true;
 }
 
-
-// At the end: the terms left in the circuit and in the reference (between variables no Hadamard
+// At the end (leftover_term, after the one-variable terms, of which the reference has none): the
+// two-variable terms left in the circuit and in the reference (between variables no Hadamard
 // consumed) must agree ("" when they do).
 std::string StructuralChecker::Impl::composed_leftover(int& line) {
-  // The reference has no one-variable terms (a transform's phases are all between two variables).
-  for (int v = 0; v < static_cast<int>(single.size()); ++v)
-    if (!single[v].is_zero()) {
-      line = single_line[v];
-      return "a phase of " + single_text(single[v]) + " is left on " + var_name(v) +
-             ", which the block construction does not have" + at_line(single_line[v]);
-    }
   std::string found;
   pairs.for_each([&](std::uint64_t key, const proof::Term& t) {
     if (!found.empty()) return;

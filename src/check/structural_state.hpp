@@ -213,7 +213,7 @@ struct StructuralChecker::Impl {
 
   CheckResult finish(const std::vector<int>& final_placement);
   void final_checks(const std::vector<int>& fp);
-  std::string leftover_term(int& line) const;
+  std::string leftover_term(int& line);
   std::string final_placement_problem(const std::vector<int>& fp) const;
   int non_canonical_qubit() const;
   Angle want(int a, int b) const;
