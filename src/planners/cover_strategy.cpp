@@ -3,6 +3,8 @@
 // Sagitov, Khasanov, "Quantum Circuit for Quantum Fourier Transform for Arbitrary Qubit
 // Connectivity Graphs", arXiv:2510.09824, 2025.
 
+#include <algorithm>
+
 #include <fmt/format.h>
 
 #include "cover_walk.hpp"
@@ -21,10 +23,19 @@ RoutedCircuit cheapest_cascade(const Device& device, const QftSpec& spec, const 
                                const PlanOptions& options) {
   RoutedCircuit best;
   long long best_cx = -1;
+  const std::vector<int> chain(region.qubits.begin(), region.qubits.begin() + region.chain_length);
   for (int root : region.roots) {
-    long long cx = 0;
-    RoutedCircuit c = build_cover_qft(device, spec, region.qubits, root, options.search.seed, options.budget, &cx);
-    if (best_cx < 0 || cx < best_cx) best = std::move(c), best_cx = cx;
+    // Walks all the way, and walks that park off the chain and leave it to a chain network.
+    std::vector<std::vector<int>> tails{{}};
+    if (chain.size() >= 3) {
+      tails.push_back(chain);
+      if (root != chain.front()) std::reverse(tails.back().begin(), tails.back().end());
+    }
+    for (const auto& tail : tails) {
+      long long cx = 0;
+      RoutedCircuit c = build_cover_qft(device, spec, region.qubits, root, options.search.seed, options.budget, &cx, tail);
+      if (best_cx < 0 || cx < best_cx) best = std::move(c), best_cx = cx;
+    }
   }
   return best;
 }
@@ -54,7 +65,9 @@ PreparedPlan prepare_cover(const Device& device, const PlanOptions& options) {
   } else {
     plan.cx_bound = cover_cx_bound(plan.spec.qubits);
   }
-  plan.circuit = make_gate_list_circuit(plan.spec, std::move(circuit), "cover");
+  // The network: "cover", or "cover+NAME" when the chain network NAME finishes on the chain.
+  std::string network = circuit.tail_network.empty() ? "cover" : "cover+" + circuit.tail_network;
+  plan.circuit = make_gate_list_circuit(plan.spec, std::move(circuit), std::move(network));
   plan.maps = plan.circuit->maps();
   plan.placement.method = "cover";
   plan.placement.chains_scored = 0;

@@ -25,10 +25,22 @@
 // Hadamard of k and before that of j, so the circuit is the QFT (the structural checker proves each
 // plan in the tests, and simulation against FFTW the small ones).
 //
+// The chain tail (ours). A walk costs about 3 CX per unfinished wire; a chain network on m wires about
+// 2 per wire and stage (the parity network: m^2 - 1 in all). So a cascade may also park its walks off
+// a chain of the region (a path from the root): each walk runs along the chain from the root to the
+// point where an off-chain qubit t hangs, then down to t, and parks there (t farthest from the chain
+// always parks: no other qubit's shortest path to the chain runs through it). When only the chain is
+// alive the m wires on it are numbered k, k+1, ... in the order the chain network wants, and the
+// network finishes: the textbook QFT's steps for wires k .. n-1 are the QFT of those m wires (the
+// rotations depend on the distance only), so the circuit is still the QFT.
+//
 // The bound (ours). Stage cost, cp = 2 CX, cp_swap = 3 CX, exchange and its undoing 2 CX each: 3 per
 // path step, 2 per forest leaf, 4 per inner forest qubit. With d path steps, L leaves and I inner
 // qubits, d + L + I = m - 1 and the cost is 3d + 2L + 4I = 4(m - 1) - d - 2L <= 4m - 5, since d >= 1.
-// The last pair costs 2. Total <= 2 + sum_{m=3..n} (4m - 5) = 2n^2 - 3n for n >= 2. Dropped
+// The last pair costs 2. Total <= 2 + sum_{m=3..n} (4m - 5) = 2n^2 - 3n for n >= 2. A chain tail of m
+// wires takes the place of the stages of m .. 1 wires, allowed 2m^2 - 3m; the network chosen costs at
+// most the parity network's m^2 - 1 (choose_network keeps the fewest), and m^2 - 1 <= 2m^2 - 3m for
+// m >= 3 (the strategy offers chains of 3 qubits or more). Dropped
 // rotations (the approximate QFT) only turn a cp into nothing, a cp_swap into a swap (3 CX) and an
 // exchange into one without its rz: no step costs more. The stage keeps the cheapest of a few
 // candidate walks, so the bound holds whichever wins. On chips the greedy path takes most qubits and
@@ -45,6 +57,8 @@
 
 #include "qftplan/core/input_error.hpp"
 #include "qftplan/core/run_budget.hpp"
+#include "qftplan/networks/chain_qft.hpp"
+#include "qftplan/networks/qft_network.hpp"
 #include "qftplan/planners/chain_search.hpp"
 
 namespace qftplan {
@@ -107,6 +121,31 @@ class Cascade {
       }
       previous = walk_stage(previous);
     }
+  }
+
+  // The cascade with a chain tail: stages as in run(), each parking its wire on a region qubit off
+  // `chain` (a path of the region from the root, chain.front() == root), until only the chain is
+  // alive; the m wires left are then numbered k, k+1, ..., wire k + w starting on
+  // chain[tail_start[w]], for a chain network to finish the transform. Returns k (the stages run).
+  int run_to_chain(const std::vector<int>& chain, const std::vector<int>& tail_start) {
+    const int n = static_cast<int>(region_.size());
+    wire_of_slot_.assign(n, -1);
+    on_chain_.assign(dev_.qubit_count(), -1);
+    for (int i = 0; i < static_cast<int>(chain.size()); ++i) on_chain_[chain[i]] = i;
+    int k = 0;
+    for (;; ++k) {
+      throw_if_exhausted(budget_, "the cover strategy's walks");
+      alive_count_ = 0;
+      for (int q : region_) alive_count_ += alive_[q];
+      if (alive_count_ == static_cast<long long>(chain.size())) break;
+      const int token = slot_at_[root_];
+      wire_of_slot_[token] = k;
+      steps_.push_back({GateKind::h, root_, -1, token, -1});
+      emit_walk(parking_walk(chain));
+    }
+    for (int w = 0; w < static_cast<int>(tail_start.size()); ++w)
+      wire_of_slot_[slot_at_[chain[tail_start[w]]]] = k + w;
+    return k;
   }
 
   std::vector<Step> steps_;
@@ -236,6 +275,59 @@ class Cascade {
     step(GateKind::parity_step, c, u, true);
   }
 
+  // A stage's walk towards the chain tail: along the chain from the root to where an off-chain
+  // qubit t hangs (by a shortest path of off-chain qubits), then to t, where the wire parks. The
+  // candidates for t: the off-chain qubits farthest from the chain (one of them can always park:
+  // no other qubit's shortest path to the chain runs through it) and those with one alive
+  // neighbour, the ones hanging farthest along the chain first (the chain beyond the walk's turn
+  // hangs from it as forest, 4 CX per inner qubit); the cheapest by build_forest, which refuses a t
+  // whose removal would cut the alive qubits apart. m >= chain size + 1 >= 3 qubits are alive.
+  std::vector<int> parking_walk(const std::vector<int>& chain) {
+    ++stamp_;
+    std::vector<int> order;
+    for (int q : chain) mark_[q] = stamp_, depth_[q] = 0, parent_[q] = -1, order.push_back(q);
+    for (std::size_t h = 0; h < order.size(); ++h)
+      for (int nb : dev_.neighbours(order[h]))
+        if (alive_[nb] && mark_[nb] != stamp_) {
+          mark_[nb] = stamp_;
+          parent_[nb] = order[h];
+          depth_[nb] = depth_[order[h]] + 1;
+          order.push_back(nb);
+        }
+    const int far = depth_[order.back()];
+    auto attach = [&](int q) {
+      while (on_chain_[q] < 0) q = parent_[q];
+      return on_chain_[q];
+    };
+    auto alive_degree = [&](int q) {
+      int d = 0;
+      for (int nb : dev_.neighbours(q)) d += alive_[nb];
+      return d;
+    };
+    std::vector<std::pair<int, int>> cands;  // (-attachment index, qubit)
+    for (int q : order)
+      if (on_chain_[q] < 0 && (depth_[q] == far || alive_degree(q) == 1)) cands.push_back({-attach(q), q});
+    std::sort(cands.begin(), cands.end());
+    constexpr std::size_t kCandidates = 12;
+    if (cands.size() > kCandidates) {
+      // Keep a farthest one among those tried.
+      const auto f = std::find_if(cands.begin(), cands.end(), [&](const auto& c) { return depth_[c.second] == far; });
+      if (f - cands.begin() >= static_cast<std::ptrdiff_t>(kCandidates)) std::iter_swap(f, cands.begin() + kCandidates - 1);
+      cands.resize(kCandidates);
+    }
+    std::vector<int> best;
+    long long best_cost = std::numeric_limits<long long>::max();
+    for (auto [neg_a, t] : cands) {
+      std::vector<int> path(chain.begin(), chain.begin() + (-neg_a) + 1), branch;
+      for (int q = t; on_chain_[q] < 0; q = parent_[q]) branch.push_back(q);
+      path.insert(path.end(), branch.rbegin(), branch.rend());
+      if (const long long c = build_forest(path); c < best_cost) best_cost = c, best = std::move(path);
+    }
+    if (best.empty())
+      throw PlanningError("the cover strategy found no walk to the chain (internal error: a farthest qubit always parks)");
+    return best;
+  }
+
   // One stage with m >= 3 alive qubits: the cheapest of a few candidate walks (the last stage's path
   // without its end, extended; greedy paths with and without random ties), emitted. Returns its path.
   std::vector<int> walk_stage(const std::vector<int>& previous) {
@@ -254,7 +346,12 @@ class Cascade {
     }
     if (best_cost == std::numeric_limits<long long>::max())
       throw PlanningError("the cover strategy found no walk (internal error: a maximal path always parks)");
-    const std::vector<int> path = candidates[best];
+    emit_walk(candidates[best]);
+    return candidates[best];
+  }
+
+  // Emits the walk along `path` (its forest built again) and retires the path's end.
+  void emit_walk(const std::vector<int>& path) {
     build_forest(path);
     for (std::size_t i = 0; i + 1 < path.size(); ++i) {
       const std::vector<int> kids = children_[path[i]];
@@ -262,7 +359,6 @@ class Cascade {
       step(GateKind::cp_swap, path[i], path[i + 1]);
     }
     alive_[path.back()] = 0;
-    return path;
   }
 
   const Device& dev_;
@@ -271,7 +367,7 @@ class Cascade {
   std::mt19937_64 rng_;
   const RunBudget* budget_;
   std::vector<char> alive_;
-  std::vector<int> slot_at_, level_, mark_, touched_, parent_, depth_;
+  std::vector<int> slot_at_, level_, mark_, touched_, parent_, depth_, on_chain_;
   std::vector<std::vector<int>> children_;
   int stamp_ = 0;
   long long alive_count_ = 0;
@@ -298,6 +394,7 @@ CoverRegion cover_region(const Device& dev, int n, std::uint64_t seed, const Run
   std::vector<char> in(dev.qubit_count(), 0);
   for (int q : chain) in[q] = 1;
   out.qubits = chain;
+  out.chain_length = static_cast<int>(chain.size());
   for (std::size_t h = 0; h < out.qubits.size() && static_cast<int>(out.qubits.size()) < n; ++h)
     for (int nb : dev.neighbours(out.qubits[h]))
       if (!in[nb] && static_cast<int>(out.qubits.size()) < n) {
@@ -311,10 +408,24 @@ CoverRegion cover_region(const Device& dev, int n, std::uint64_t seed, const Run
 }
 
 RoutedCircuit build_cover_qft(const Device& device, const QftSpec& spec, const std::vector<int>& region, int root,
-                              std::uint64_t seed, const RunBudget* budget, long long* cx_cost) {
+                              std::uint64_t seed, const RunBudget* budget, long long* cx_cost,
+                              const std::vector<int>& tail_chain) {
   const int n = spec.qubits;
   Cascade cascade(device, region, root, seed, budget);
-  cascade.run();
+  // The chain tail: the transform of the wires left on the chain, as a chain network (forward here;
+  // the inverse is emitted by the network itself below).
+  QftSpec tail_spec = spec;
+  tail_spec.qubits = static_cast<int>(tail_chain.size());
+  tail_spec.inverse = false;
+  std::unique_ptr<QftNetwork> tail;
+  int stages = n;
+  if (!tail_chain.empty()) {
+    if (tail_chain.front() != root) throw std::invalid_argument("the cover's chain tail must start at its root");
+    tail = choose_network(tail_spec);
+    stages = cascade.run_to_chain(tail_chain, tail->initial_positions());
+  } else {
+    cascade.run();
+  }
   RoutedCircuit c;
   c.region = region;
   long long cx = 0;
@@ -369,6 +480,20 @@ RoutedCircuit build_cover_qft(const Device& device, const QftSpec& spec, const s
     c.maps.placement[k] = region[slot_of_wire[n - 1 - k]];
     c.maps.final_placement[k] = cascade.pos_of_[slot_of_wire[k]];
   }
+  std::vector<Gate> tail_gates;
+  if (tail) {
+    // Wires stages.. n-1 are the tail's 0 .. m-1 (the rotations depend on the distance only), so
+    // the tail's output bit j is the register's output bit stages + j.
+    const QubitMaps tail_maps = chain_maps(tail_spec, *tail, tail_chain);
+    for (int j = 0; j < tail_spec.qubits; ++j) c.maps.final_placement[stages + j] = tail_maps.final_placement[j];
+    tail_spec.inverse = spec.inverse;
+    VectorSink sink;
+    emit_chain_qft(tail_spec, *tail, tail_chain, sink);
+    tail_gates = std::move(sink.gates);
+    cx += network_native_cost(*tail);
+    c.tail_network = tail->name();
+    if (tail->parity()) c.exchange_rotations += tail_spec.kept_rotations();
+  }
   if (spec.inverse) {
     // The inverse: the forward circuit backwards with negated angles (rotation() already negated
     // them), so the order and the maps turn around; an exchange parity_step(a, b, t) (cx b->a,
@@ -385,6 +510,10 @@ RoutedCircuit build_cover_qft(const Device& device, const QftSpec& spec, const s
     }
     c.gates = std::move(backwards);
     std::swap(c.maps.placement, c.maps.final_placement);
+    // The inverse tail comes first.
+    c.gates.insert(c.gates.begin(), tail_gates.begin(), tail_gates.end());
+  } else {
+    c.gates.insert(c.gates.end(), tail_gates.begin(), tail_gates.end());
   }
   if (cx_cost) *cx_cost = cx;
   return c;

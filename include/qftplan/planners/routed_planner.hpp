@@ -4,6 +4,7 @@
 /// and a look-ahead over the rotations the QFT order allows next. Also our in-house baseline.
 
 #include <cstdint>
+#include <string>
 #include <vector>
 
 #include "qftplan/core/gate.hpp"
@@ -32,6 +33,8 @@ struct RoutedCircuit {
   /// Kept rotations done inside exchanges (parity_step with its phase split over rz gates: the cover
   /// strategy's forest visits), which a count of cp and cp_swap gates does not see.
   long long exchange_rotations = 0;
+  /// The cover strategy's chain tail: the chain network that finishes the transform (empty: none).
+  std::string tail_network;
 };
 
 /// Routes the QFT of `spec` on `device`. The register starts on a connected region grown around the
