@@ -93,6 +93,22 @@ class CompleteSearch {
     if (static_cast<int>(path_.size()) >= n_) return true;
     if (out_of_budget()) return false;
     const int end = path_.back();
+    // A forced step (the end has one free neighbour): taken without the bound and the table, each of
+    // which costs O(reach), left to the next qubit with a choice (heavy-hexagon chips: most qubits
+    // have two couplers, so most steps are forced). Pruning less never cuts a chain: still complete.
+    {
+      int only = -1, count = 0;
+      for (int w : dev_.neighbours(end))
+        if (free_[static_cast<std::size_t>(w)]) only = w, ++count;
+      work_ += dev_.degree(end);
+      if (count == 0) return false;
+      if (count == 1) {
+        push(only);
+        if (extend()) return true;
+        pop();
+        return false;
+      }
+    }
     // The end is on the path already: the bound counts it once.
     if (static_cast<int>(path_.size()) - 1 + bound_.from(end, free_, work_) < n_) return false;
     const int need = n_ - static_cast<int>(path_.size());
