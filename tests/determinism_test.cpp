@@ -85,7 +85,7 @@ INSTANTIATE_TEST_SUITE_P(Plans, SameRunTwice, ::testing::ValuesIn(cases()),
 TEST(Determinism, SurveyAcrossJobs) {
   const auto dir = temp_dir();
   const std::string base = "survey " + topo("harbor-noisy-20.yaml") + " " + topo("harbor-hex-21.yaml") +
-                           " 'grid:*' --qubits 4:16:4 --approx none,auto --strategy auto,chain,routed --seed 4 "
+                           " 'grid:*' --qubits " + std::string(testing::kSanitized ? "4:8:4" : "4:16:4") + " --approx none,auto --strategy auto,chain,routed --seed 4 "
                            "--no-timing --quiet";
   std::string files[3];
   const char* jobs[3] = {"1", "2", "2"};

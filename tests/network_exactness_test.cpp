@@ -11,6 +11,7 @@
 #include "qftplan/planners/plan.hpp"
 #include "qftplan/qasm/qasm_writer.hpp"
 #include "plan_simulation.hpp"
+#include "test_support.hpp"
 
 namespace qftplan {
 namespace {
@@ -33,6 +34,8 @@ CheckResult write_read_prove(const QftSpec& spec, NetworkChoice network, QasmVer
 
 TEST(NetworkExactness, EveryNetworkAtEverySizeUpTo130) {
   for (int n = 2; n <= 130; ++n) {
+    // Sanitizers: every size up to 20, then every fifth and the multiples of 16.
+    if (n > 20 && n % 16 != 0 && !testing::sampled(n, 5)) continue;
     QftSpec exact;
     exact.qubits = n;
     for (NetworkChoice net : {NetworkChoice::reversal, NetworkChoice::anchored, NetworkChoice::parity}) {
@@ -71,6 +74,7 @@ TEST(NetworkExactness, PeepholeOutputIsProvedStructurally) {
     ASSERT_TRUE(w.report.peephole_removed.has_value()) << what;
   };
   for (int n = 2; n <= 40; ++n) {
+    if (n > 12 && !testing::sampled(n, 4)) continue;  // sanitizers: up to 12, then every fourth size
     const Device dev = make_lattice("line:" + std::to_string(n));
     for (GateSet gates : {GateSet::cx, GateSet::cz})
       for (bool inverse : {false, true})

@@ -94,6 +94,7 @@ TEST(Spine, EveryLiveQubitOfDefectiveHeavyHexagonChips) {
   for (const Chip& c : {Chip{"heavy-hex:2x2", 1, 1}, Chip{"heavy-hex:3x3", 2, 2}, Chip{"heavy-hex:4x4", 3, 3},
                         Chip{"heavy-hex:5x5", 4, 4}, Chip{"heavy-hex:6x6", 5, 4}, Chip{"heavy-hex:8x8", 10, 8}})
     for (std::uint64_t seed : {1u, 2u, 3u}) {
+      if (!testing::sampled(static_cast<int>(seed) - 1, 3)) continue;  // sanitizers: seed 1 of each chip
       const Device dev = testing::make_defective_chip(c.spec, c.dead, c.broken, seed);
       ASSERT_FALSE(dev.has_positions());
       const double ratio = plan_every_qubit(dev);

@@ -7,7 +7,29 @@
 
 #include "qftplan/device/device.hpp"
 
+// The sanitizer build (tools/test's robustness stage: clang with AddressSanitizer).
+#if defined(__SANITIZE_ADDRESS__)
+#define QFTPLAN_TEST_SANITIZED 1
+#elif defined(__has_feature)
+#if __has_feature(address_sanitizer)
+#define QFTPLAN_TEST_SANITIZED 1
+#endif
+#endif
+
 namespace qftplan::testing {
+
+/// True in the sanitizer build. There the sweeps over many sizes, seeds or option sets run a sample of
+/// them (each kind of case at least once): the sanitizers look for memory errors and undefined behaviour
+/// along code paths, which the sample takes; the Release run of the same suite takes the whole sweep.
+#ifdef QFTPLAN_TEST_SANITIZED
+inline constexpr bool kSanitized = true;
+#else
+inline constexpr bool kSanitized = false;
+#endif
+
+/// In a sweep, whether case `i` runs: every case in Release, every `every`-th (and the first) under the
+/// sanitizers.
+constexpr bool sampled(int i, int every) { return !kSanitized || i % every == 0; }
 
 /// The repository root (for topologies/ and tests/data/).
 std::filesystem::path source_dir();
