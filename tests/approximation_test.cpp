@@ -117,7 +117,7 @@ TEST(ApproxFigures, BoundAtMostTwoAndAtLeastTheDistance) {
 TEST(ApproxFigures, ReadoutSuccessMatchesSimulatedPhaseEstimation) {
   // Phase estimation (Nielsen & Chuang 2000, section 5.2): the register holds QFT|x> (FFTW's column x),
   // the degree-M inverse transform AQFT^dag is applied and x is read; averaged over the 2^n phases.
-  for (int n = 2; n <= 10; ++n) {
+  for (int n = 2; n <= (testing::kSanitized ? 8 : 10); ++n) {  // sanitizers: up to 8 qubits
     const auto f = testing::fftw_qft_matrix(n, false);
     for (int M = 1; M <= n; ++M) {
       const Eigen::MatrixXcd a = textbook_aqft(n, M);

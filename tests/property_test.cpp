@@ -139,7 +139,8 @@ TEST(Property, RandomDevicesEveryPlanIsTheQft) {
   const auto& strategies = plan_strategies();
   int planned = 0, unplannable = 0;
   std::map<std::string, int> by_strategy;
-  for (int i = 0; i < 300; ++i) {
+  const int devices = testing::kSanitized ? 100 : 300;  // sanitizers: the first 100
+  for (int i = 0; i < devices; ++i) {
     const Device dev = random_device(rng, i);
     for (int variant = 0; variant < 4; ++variant) {
       PlanOptions opt;
@@ -183,7 +184,7 @@ TEST(Property, RandomDevicesEveryPlanIsTheQft) {
   for (const auto& [s, k] : by_strategy) std::cout << s << " " << k << " ";
   std::cout << ")\n";
   // Trees and holes make some registers unplannable for a chain; most requests must still plan.
-  EXPECT_GE(planned, 850);
+  EXPECT_GE(planned, devices * 850 / 300);
 }
 
 // Every bundled chip at every register size up to its largest connected region: forward exact, and

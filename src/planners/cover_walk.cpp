@@ -189,15 +189,12 @@ class Cascade {
     }
   }
 
-  // A shortest path from the root to an alive qubit farthest from it (ties: the one with the fewest
-  // alive neighbours, so a pendant stretch loses its tip). The farthest qubit lies on no other
-  // qubit's shortest path to the root, so removing it keeps the rest connected: it can park.
-  std::vector<int> deepest_path() {
+  // Breadth-first search over the alive qubits from `sources` (depth 0): fills parent_ (towards the
+  // sources, -1 on them) and depth_; returns the qubits reached in order (the farthest level last).
+  std::vector<int> alive_bfs(const std::vector<int>& sources) {
     ++stamp_;
-    std::vector<int> order{root_};
-    mark_[root_] = stamp_;
-    parent_[root_] = -1;
-    depth_[root_] = 0;
+    std::vector<int> order;
+    for (int q : sources) mark_[q] = stamp_, depth_[q] = 0, parent_[q] = -1, order.push_back(q);
     for (std::size_t h = 0; h < order.size(); ++h)
       for (int nb : dev_.neighbours(order[h]))
         if (alive_[nb] && mark_[nb] != stamp_) {
@@ -206,11 +203,20 @@ class Cascade {
           depth_[nb] = depth_[order[h]] + 1;
           order.push_back(nb);
         }
-    auto alive_degree = [&](int q) {
-      int k = 0;
-      for (int nb : dev_.neighbours(q)) k += alive_[nb];
-      return k;
-    };
+    return order;
+  }
+
+  int alive_degree(int q) const {
+    int k = 0;
+    for (int nb : dev_.neighbours(q)) k += alive_[nb];
+    return k;
+  }
+
+  // A shortest path from the root to an alive qubit farthest from it (ties: the one with the fewest
+  // alive neighbours, so a pendant stretch loses its tip). The farthest qubit lies on no other
+  // qubit's shortest path to the root, so removing it keeps the rest connected: it can park.
+  std::vector<int> deepest_path() {
+    const std::vector<int> order = alive_bfs({root_});
     // The breadth-first order ends with the farthest level.
     int far = order.back();
     for (auto it = order.rbegin(); it != order.rend() && depth_[*it] == depth_[far]; ++it)
@@ -283,26 +289,11 @@ class Cascade {
   // hangs from it as forest, 4 CX per inner qubit); the cheapest by build_forest, which refuses a t
   // whose removal would cut the alive qubits apart. m >= chain size + 1 >= 3 qubits are alive.
   std::vector<int> parking_walk(const std::vector<int>& chain) {
-    ++stamp_;
-    std::vector<int> order;
-    for (int q : chain) mark_[q] = stamp_, depth_[q] = 0, parent_[q] = -1, order.push_back(q);
-    for (std::size_t h = 0; h < order.size(); ++h)
-      for (int nb : dev_.neighbours(order[h]))
-        if (alive_[nb] && mark_[nb] != stamp_) {
-          mark_[nb] = stamp_;
-          parent_[nb] = order[h];
-          depth_[nb] = depth_[order[h]] + 1;
-          order.push_back(nb);
-        }
+    const std::vector<int> order = alive_bfs(chain);
     const int far = depth_[order.back()];
     auto attach = [&](int q) {
       while (on_chain_[q] < 0) q = parent_[q];
       return on_chain_[q];
-    };
-    auto alive_degree = [&](int q) {
-      int d = 0;
-      for (int nb : dev_.neighbours(q)) d += alive_[nb];
-      return d;
     };
     std::vector<std::pair<int, int>> cands;  // (-attachment index, qubit)
     for (int q : order)
