@@ -489,8 +489,9 @@ RoutedCircuit build_cover_qft(const Device& device, const QftSpec& spec, const s
     // The inverse: the forward circuit backwards with negated angles (rotation() already negated
     // them), so the order and the maps turn around; an exchange parity_step(a, b, t) (cx b->a,
     // cx a->b, rz(t) a) turns into rz(t) a then parity_step(b, a, 0), its inverse with t negated.
-    std::vector<Gate> backwards;
-    backwards.reserve(c.gates.size());
+    // The inverse tail comes first.
+    std::vector<Gate> backwards = std::move(tail_gates);
+    backwards.reserve(backwards.size() + c.gates.size());
     for (auto it = c.gates.rbegin(); it != c.gates.rend(); ++it) {
       if (it->kind != GateKind::parity_step) {
         backwards.push_back(*it);
@@ -501,8 +502,6 @@ RoutedCircuit build_cover_qft(const Device& device, const QftSpec& spec, const s
     }
     c.gates = std::move(backwards);
     std::swap(c.maps.placement, c.maps.final_placement);
-    // The inverse tail comes first.
-    c.gates.insert(c.gates.begin(), tail_gates.begin(), tail_gates.end());
   } else {
     c.gates.insert(c.gates.end(), tail_gates.begin(), tail_gates.end());
   }
